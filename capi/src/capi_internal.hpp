@@ -1,0 +1,62 @@
+// Shared machinery of the C ABI implementation: the per-thread error text and the guard that
+// turns every C++ exception into a pwb_status. Nothing here is exported.
+#pragma once
+
+#include <cstring>
+#include <exception>
+#include <new>
+#include <string>
+
+#include "powerback.h"
+#include "powerback/errors.hpp"
+
+namespace powerback {
+namespace capi {
+
+void set_error(const std::string& message) noexcept;
+void clear_error() noexcept;
+pwb_status status_of(ErrorCode code) noexcept;
+
+// Runs body (returning void); any exception becomes a status and this thread's error text.
+template <class Body>
+pwb_status guarded(Body&& body) noexcept {
+  try {
+    body();
+    clear_error();
+    return PWB_OK;
+  } catch (const Error& e) {
+    set_error(e.what());
+    return status_of(e.code());
+  } catch (const std::bad_alloc&) {
+    set_error("out of memory");
+    return PWB_ERR_MEMORY;
+  } catch (const std::exception& e) {
+    set_error(std::string("internal error: ") + e.what());
+    return PWB_ERR_INTERNAL;
+  } catch (...) {
+    set_error("internal error: unknown exception");
+    return PWB_ERR_INTERNAL;
+  }
+}
+
+// Throws Error(Argument) when p is NULL.
+inline void need(const void* p, const char* name) {
+  if (!p) throw Error(ErrorCode::Argument, std::string(name) + " is NULL");
+}
+// NULL is allowed only for an empty array.
+inline void need_array(const void* p, std::size_t n, const char* name) {
+  if (!p && n > 0) throw Error(ErrorCode::Argument, std::string(name) + " is NULL but n > 0");
+}
+// A caller's struct must be at least as large as this version's.
+inline void need_struct(std::size_t got, std::size_t want, const char* name) {
+  if (got < want)
+    throw Error(ErrorCode::Argument, std::string(name) + ".struct_size is " + std::to_string(got) +
+                                         ", smaller than " + std::to_string(want) +
+                                         ": set it to sizeof(" + name + ")");
+}
+
+// snprintf-like copy of text into a caller's buffer.
+void copy_text(const std::string& text, char* buf, std::size_t cap, std::size_t* needed);
+
+}  // namespace capi
+}  // namespace powerback
