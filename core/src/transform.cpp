@@ -23,7 +23,10 @@ std::string format_number(double x) {
   if (std::isnan(x)) return "NaN";
   if (std::isinf(x)) return x > 0 ? "Inf" : "-Inf";
   char buf[40];
-  for (int digits = 1; digits <= 17; ++digits) {
+  // Start at the count of integer digits so that 10 prints as "10", not "1e+01".
+  const double a = std::fabs(x);
+  const int first = (a >= 1 && a < 1e17) ? static_cast<int>(std::floor(std::log10(a))) + 1 : 1;
+  for (int digits = first; digits <= 17; ++digits) {
     std::snprintf(buf, sizeof buf, "%.*g", digits, x);
     if (std::strtod(buf, nullptr) == x) break;
   }
@@ -136,9 +139,10 @@ MapReport Transform::log_abs_derivative(const double* x, std::size_t n, double* 
 std::string Transform::describe() const {
   std::string s = family_name(spec_.family);
   if (family_has_lambda(spec_.family)) s += "(lambda = " + format_number(spec_.lambda) + ")";
-  std::string v = spec_.reflect ? "(" + format_number(spec_.pivot) + " - x)" : "x";
+  std::string v = spec_.reflect ? format_number(spec_.pivot) + " - x" : "x";
   if (spec_.shift != 0.0)
-    v = v + (spec_.shift > 0 ? " + " : " - ") + format_number(std::fabs(spec_.shift));
+    v = (spec_.reflect ? "(" + v + ")" : v) + (spec_.shift > 0 ? " + " : " - ") +
+        format_number(std::fabs(spec_.shift));
   return s + " of " + (v == "x" ? v : "(" + v + ")");
 }
 

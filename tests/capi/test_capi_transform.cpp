@@ -96,7 +96,10 @@ TEST_CASE("domain errors fill NaN, return PWB_ERR_DOMAIN and describe the rows",
   CHECK(std::string(buf) == "log needs v > 0");
   REQUIRE(pwb_transform_describe(h.t, 2, buf, 8, &needed) == PWB_OK);
   CHECK(std::strlen(buf) == 7);  // truncated like snprintf
-  CHECK(pwb_transform_describe(h.t, 3, buf, 8, &needed) == PWB_ERR_ARGUMENT);
+  CHECK(pwb_transform_describe(h.t, 4, buf, 8, &needed) == PWB_ERR_ARGUMENT);
+  char line[64];
+  REQUIRE(pwb_transform_describe(h.t, 3, line, sizeof line, nullptr) == PWB_OK);
+  CHECK(std::string(line) == "log of x");
 }
 
 TEST_CASE("NULL pointers, empty arrays and bad structs", "[capi]") {

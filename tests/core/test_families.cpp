@@ -191,3 +191,12 @@ TEST_CASE("Textbook values", "[families][external]") {
   CHECK(make(Family::YeoJohnson, 0.5).apply(-1.0) == Approx(-(std::pow(2.0, 1.5) - 1) / 1.5).epsilon(1e-15));
   CHECK(make(Family::Asinh).apply(std::sinh(2.0)) == Approx(2.0).epsilon(1e-15));
 }
+
+TEST_CASE("describe names the family and every stored constant", "[families]") {
+  CHECK(make(Family::BoxCox, 0.5, 1.0, true, 10.0).describe() == "box-cox(lambda = 0.5) of ((10 - x) + 1)");
+  CHECK(make(Family::Log, 0, -2.5).describe() == "log of (x - 2.5)");
+  CHECK(make(Family::Sqrt).describe() == "sqrt of x");
+  CHECK(make(Family::Log, 0, 0, true, 101).describe() == "log of (101 - x)");
+  CHECK(format_number(0.1) == "0.1");
+  CHECK(std::stod(format_number(1.0 / 3)) == 1.0 / 3);  // 17 digits when needed
+}

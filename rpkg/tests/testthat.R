@@ -1,0 +1,4 @@
+library(testthat)
+library(powerback)
+
+test_check("powerback")

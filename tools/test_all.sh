@@ -1,0 +1,59 @@
+#!/usr/bin/env bash
+# Run every test of powerback: build the C++ core and C ABI, run ctest (Catch2 tests, the C99
+# header program, the exported-symbol check, fixture provenance checks), then build the R
+# package and run R CMD check --as-cran on the tarball (which runs the testthat suite).
+# Fails on any test failure and on any R CMD check ERROR or WARNING.
+#
+#   tools/test_all.sh            build tree in ./build (override with PWB_BUILD_DIR)
+set -euo pipefail
+root=$(cd "$(dirname "$0")/.." && pwd)
+cd "$root"
+bash tools/setup.sh
+
+build=${PWB_BUILD_DIR:-$root/build}
+jobs=$(nproc 2>/dev/null || echo 2)
+export MAKEFLAGS="-j$jobs"
+
+mkdir -p "$build"
+echo "== C++ core and C ABI (cmake + ctest)"
+cmake -S "$root" -B "$build" -DCMAKE_BUILD_TYPE=RelWithDebInfo -DPWB_WARNINGS_AS_ERRORS=ON >"$build/cmake.log" 2>&1 \
+  || { cat "$build/cmake.log"; exit 1; }
+cmake --build "$build" -j "$jobs" >"$build/build.log" 2>&1 || { tail -n 60 "$build/build.log"; exit 1; }
+set +e
+(cd "$build" && ctest --output-on-failure -j "$jobs") | tee "$build/ctest.log"
+ctest_rc=${PIPESTATUS[0]}
+set -e
+
+echo "== R package (R CMD build + R CMD check --as-cran)"
+rdir="$build/rpkg"
+tarball=$(tools/build_rpkg.sh "$rdir" | tail -n 1)
+export _R_CHECK_CRAN_INCOMING_=false _R_CHECK_CRAN_INCOMING_REMOTE_=false
+export _R_CHECK_FUTURE_FILE_TIMESTAMPS_=false _R_CHECK_SYSTEM_CLOCK_=false
+set +e
+(cd "$rdir" && R CMD check --as-cran --no-manual "$tarball" >"$rdir/check.out" 2>&1)
+check_rc=$?
+set -e
+cat "$rdir/check.out"
+checkdir="$rdir/powerback.Rcheck"
+status_line=$(grep -E '^Status:' "$checkdir/00check.log" | tail -n 1 || true)
+testthat_line=$(grep -hE '^\[ FAIL [0-9]+ \| WARN [0-9]+ \| SKIP [0-9]+ \| PASS [0-9]+ \]' \
+  "$checkdir"/tests/testthat.Rout* 2>/dev/null | tail -n 1 || true)
+[ -f "$checkdir/tests/testthat.Rout.fail" ] && tail -n 80 "$checkdir/tests/testthat.Rout.fail"
+
+# One closing line over both suites.
+c_total=$(sed -nE 's/.* tests failed out of ([0-9]+).*/\1/p' "$build/ctest.log" | tail -n 1)
+c_failed=$(sed -nE 's/.*, ([0-9]+) tests failed out of.*/\1/p' "$build/ctest.log" | tail -n 1)
+t_fail=$(sed -nE 's/^\[ FAIL ([0-9]+) .*/\1/p' <<<"$testthat_line")
+t_pass=$(sed -nE 's/.* PASS ([0-9]+) \]/\1/p' <<<"$testthat_line")
+c_total=${c_total:-0}; c_failed=${c_failed:-0}; t_fail=${t_fail:-0}; t_pass=${t_pass:-0}
+echo
+echo "ctest: $((c_total - c_failed)) of $c_total passed; testthat: $testthat_line; R CMD check: $status_line"
+rc=0
+[ "$ctest_rc" -eq 0 ] || { echo "FAILED: ctest"; rc=1; }
+[ "$check_rc" -eq 0 ] || { echo "FAILED: R CMD check exited $check_rc"; rc=1; }
+[ -n "$status_line" ] || { echo "FAILED: no R CMD check status"; rc=1; }
+if grep -qE 'WARNING|ERROR' <<<"$status_line"; then echo "FAILED: R CMD check reported $status_line"; rc=1; fi
+[ -n "$testthat_line" ] || { echo "FAILED: no testthat summary"; rc=1; }
+[ "$t_fail" -eq 0 ] || rc=1
+echo "$((c_total - c_failed + t_pass)) passed, $((c_failed + t_fail)) failed"
+exit $rc
