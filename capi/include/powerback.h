@@ -169,11 +169,54 @@ PWB_API pwb_status pwb_transform_log_derivative(const pwb_transform *t, const do
 PWB_API pwb_status pwb_transform_describe(const pwb_transform *t, int which, char *buf, size_t cap,
                                           size_t *needed);
 
-/* @@PWB_SECTION_ESTIMATION@@ */
+/* ------------------------------------------------------------------------------------------ */
+/* Estimating lambda: univariate and response-given-predictors, profiles                      */
+/* ------------------------------------------------------------------------------------------ */
 
-/* @@PWB_SECTION_MODEL@@ */
+/* @@PWB_SECTION_ESTIMATION@@ (declarations of this section go above this line) */
 
-/* @@PWB_SECTION_SPEC@@ */
+
+
+/* ------------------------------------------------------------------------------------------ */
+/* Screening variables: skewness, kurtosis, Shapiro-Wilk, the ladder of powers                */
+/* ------------------------------------------------------------------------------------------ */
+
+/* @@PWB_SECTION_SCREEN@@ (declarations of this section go above this line) */
+
+
+
+/* ------------------------------------------------------------------------------------------ */
+/* Models on the transformed scale: fit, predict in original units                            */
+/* ------------------------------------------------------------------------------------------ */
+
+/* @@PWB_SECTION_MODEL@@ (declarations of this section go above this line) */
+
+
+
+/* ------------------------------------------------------------------------------------------ */
+/* Residual diagnostics                                                                       */
+/* ------------------------------------------------------------------------------------------ */
+
+/* @@PWB_SECTION_DIAGNOSTICS@@ (declarations of this section go above this line) */
+
+
+
+/* ------------------------------------------------------------------------------------------ */
+/* Comparing transforms: cross-validation, lambda influence, Box-Tidwell                      */
+/* ------------------------------------------------------------------------------------------ */
+
+/* @@PWB_SECTION_COMPARE@@ (declarations of this section go above this line) */
+
+
+
+/* ------------------------------------------------------------------------------------------ */
+/* The portable text spec of transforms and models                                            */
+/* ------------------------------------------------------------------------------------------ */
+
+/* @@PWB_SECTION_SPEC@@ (declarations of this section go above this line) */
+
+
+
 
 #ifdef __cplusplus
 }

@@ -2,18 +2,18 @@
 # Generator token: 10BE3573-1514-4C36-9D1C-5A225CD40393
 
 rpwb_transform_normalise <- function(spec) {
-    .Call('_powerback_rpwb_transform_normalise', PACKAGE = 'powerback', spec)
+    .Call(`_powerback_rpwb_transform_normalise`, spec)
 }
 
 rpwb_transform_map <- function(spec, x, which) {
-    .Call('_powerback_rpwb_transform_map', PACKAGE = 'powerback', spec, x, which)
+    .Call(`_powerback_rpwb_transform_map`, spec, x, which)
 }
 
 rpwb_transform_describe <- function(spec, which) {
-    .Call('_powerback_rpwb_transform_describe', PACKAGE = 'powerback', spec, which)
+    .Call(`_powerback_rpwb_transform_describe`, spec, which)
 }
 
 rpwb_version <- function() {
-    .Call('_powerback_rpwb_version', PACKAGE = 'powerback')
+    .Call(`_powerback_rpwb_version`)
 }
 
