@@ -1,0 +1,85 @@
+// powerback/lambda.hpp — maximum-likelihood estimation of a power-family parameter lambda.
+//
+// Under the model "psi(v; lambda) is normal" (univariate) or "psi(y; lambda) = X b + e with normal
+// e" (response given predictors), the profile log-likelihood of lambda, with the MLE of the
+// variance (divisor n) and the Jacobian of the transform included, is
+//
+//   l(lambda) = -n/2 [log(2 pi) + 1 + log(RSS(lambda) / n)] + sum_i log |psi'(v_i; lambda)|,
+//
+// where RSS is the residual sum of squares of the transformed values about their mean
+// (univariate) or about the least-squares fit (response). It is on the original scale of the
+// data, so log-likelihoods of different lambdas (and of untransformed fits) compare directly.
+// lambda-hat maximises l over [lower, upper]; the likelihood-ratio interval holds the lambdas with
+// l(lambda) >= l(lambda-hat) - chi2_1(level) / 2.
+//
+// References: Box, G. E. P. & Cox, D. R. (1964). An analysis of transformations. JRSS B 26,
+//   211-252 (sec. 3, the maximised log-likelihood and the approximate confidence region).
+//   Yeo, I.-K. & Johnson, R. A. (2000). Biometrika 87, 954-959 (sec. 3, the same profile for
+//   their family).
+#pragma once
+
+#include <cstddef>
+#include <string>
+#include <vector>
+
+#include "powerback/family_math.hpp"
+#include "powerback/least_squares.hpp"
+
+namespace powerback {
+
+struct LambdaOptions {
+  double lower = -3.0, upper = 3.0;  // search range
+  double level = 0.95;               // confidence level of the likelihood-ratio interval
+};
+
+struct LambdaEstimate {
+  Family family = Family::BoxCox;
+  double lambda = math::kNaN;      // lambda-hat
+  double conf_low = math::kNaN;    // interval endpoints; the range edge when that side is open
+  double conf_high = math::kNaN;
+  double convenient = math::kNaN;  // see convenient_lambda()
+  double loglik = math::kNaN;      // profile log-likelihood at lambda-hat (original scale, Jacobian included)
+  bool at_bound = false;           // lambda-hat within a small tolerance of lower or upper
+  bool converged = false;          // the maximiser and both root searches met their tolerances
+  bool low_open = false;           // the profile does not drop enough below lambda-hat inside the range
+  bool high_open = false;          // same above lambda-hat
+  std::size_t n = 0;               // observations used
+  std::size_t rank = 0;            // rank of the design (response case, intercept included); 0 otherwise
+  std::vector<std::size_t> aliased;  // design columns dropped as aliased (0 = intercept), response case
+  double level = 0.95;             // the interval's level
+  double lower = -3.0, upper = 3.0;  // the search range used
+};
+
+// Univariate ML lambda (Box-Cox needs x > 0; Yeo-Johnson any finite x) with a likelihood-ratio CI.
+// Throws IndexedError(NonFinite) for NaN/Inf values, IndexedError(Domain) for x <= 0 with Box-Cox,
+// Error(Argument) for n < 3, a constant x, a bad family, lower >= upper or level outside (0, 1).
+LambdaEstimate estimate_lambda(const double* x, std::size_t n, Family family,
+                               const LambdaOptions& opt = {});
+
+// Response lambda given predictors: X n-by-p column-major, no intercept column (one is added).
+// Same errors for y; Error(Singular) when n <= rank + 1; X's errors as LeastSquares.
+LambdaEstimate estimate_response_lambda(const double* y, const double* X, std::size_t n,
+                                        std::size_t p, Family family,
+                                        const LambdaOptions& opt = {});
+
+// Same, reusing a factorised design (for leave-one-out and other callers). y has design.n() values.
+LambdaEstimate estimate_response_lambda(const double* y, const LeastSquares& design, Family family,
+                                        const LambdaOptions& opt = {});
+
+// The convenient value: of {-2,-1,-0.5,0,0.5,1,2} the one nearest lambda inside [lo, hi]; else
+// lambda rounded to 2 decimals.
+double convenient_lambda(double lambda, double lo, double hi);
+
+// ---- profile curves ------------------------------------------------------------------------
+// The profile log-likelihood at each of the m values in grid (no CI, no search). Same input
+// checks as the estimators; a grid value outside what the family accepts is an Error(Argument).
+std::vector<double> lambda_profile(const double* x, std::size_t n, Family family,
+                                   const double* grid, std::size_t m);
+std::vector<double> response_lambda_profile(const double* y, const LeastSquares& design,
+                                            Family family, const double* grid, std::size_t m);
+
+// A grid of m points (m >= 2) for plotting an estimate's profile: it spans the interval with a
+// margin of half its width on each side (at least 0.5 each side), clipped to the search range.
+std::vector<double> profile_grid(const LambdaEstimate& est, std::size_t m = 101);
+
+}  // namespace powerback
