@@ -189,6 +189,124 @@ PWB_API pwb_status pwb_transform_describe(const pwb_transform *t, int which, cha
 /* Models on the transformed scale: fit, predict in original units                            */
 /* ------------------------------------------------------------------------------------------ */
 
+/* A linear model fitted on the transformed scale: z = T(y) regressed on [1 X] by least squares
+ * (Householder QR; a column is aliased, coefficient NaN, when it depends on the columns before
+ * it, as R's lm decides). Coefficients, standard errors, sigma-hat, residuals, fitted values and
+ * leverages are on the transformed scale; the log-likelihood is on the original scale of y
+ * (normal log-likelihood of z at the MLE variance plus sum log |dT/dy|), so AIC compares models
+ * with different response transforms of the same y. Immutable once fitted; it may be read from
+ * several threads at once. */
+typedef struct pwb_model pwb_model; /* opaque */
+
+typedef struct pwb_model_options {
+  size_t struct_size;          /* sizeof(pwb_model_options) */
+  int intercept;               /* add an intercept column (default 1) */
+  size_t estimated_parameters; /* transform parameters estimated from these data, added to the
+                                  log-likelihood's degrees of freedom (default 0; 1 when the
+                                  response lambda was estimated) */
+} pwb_model_options;
+
+/* Sets struct_size and the defaults (intercept 1, estimated_parameters 0). NULL is ignored. */
+PWB_API void pwb_model_options_init(pwb_model_options *opt);
+
+/* Fits the model. y: n raw responses (original units); X: n-by-p predictors, column-major,
+ * without an intercept column (X may be NULL when p is 0); response: the transform T of y, or
+ * NULL for none (it is copied; the caller may free it afterwards); opt may be NULL (defaults).
+ * On success *out owns a new handle the caller releases with pwb_model_free; on failure *out is
+ * NULL. Errors: PWB_ERR_ARGUMENT for NULL y or out, n == 0, a struct_size too small;
+ * PWB_ERR_NONFINITE for non-finite X or y (the first row and column named, 0-based);
+ * PWB_ERR_DOMAIN when T cannot be applied to some y (count and first rows in the message);
+ * PWB_ERR_SINGULAR when every column is zero or no residual degrees of freedom remain.
+ * Thread-safe (touches only its arguments). */
+PWB_API pwb_status pwb_model_fit(const double *y, const double *X, size_t n, size_t p,
+                                 const pwb_transform *response, const pwb_model_options *opt,
+                                 pwb_model **out);
+
+/* Releases m. NULL is fine. Not to be called while another thread uses m. */
+PWB_API void pwb_model_free(pwb_model *m);
+
+typedef struct pwb_model_info {
+  size_t struct_size;  /* sizeof(pwb_model_info), set by the caller */
+  size_t n;            /* rows */
+  size_t columns;      /* design columns including the intercept (the coefficient count) */
+  size_t rank;         /* columns not aliased */
+  size_t df_residual;  /* n - rank */
+  int intercept;       /* 1 when the design has an intercept column first */
+  double sigma;        /* residual standard error sqrt(RSS / df_residual), transformed scale */
+  double rss;          /* residual sum of squares, transformed scale */
+  double loglik;       /* original-scale log-likelihood (Jacobian of T included) */
+  double loglik_df;    /* rank + 1 + estimated_parameters */
+  double jacobian;     /* sum over rows of log |dT/dy| (0 for no transform) */
+} pwb_model_info;
+
+/* Fills *info. Errors: PWB_ERR_ARGUMENT for NULL arguments or a struct_size too small. */
+PWB_API pwb_status pwb_model_get_info(const pwb_model *m, pwb_model_info *info);
+
+/* Copies the coefficients, their standard errors and aliasing (1 = aliased, coefficient and SE
+ * NaN) into caller arrays of length `columns` (intercept first when present). Any of coef, se,
+ * aliased may be NULL to skip it. Errors: PWB_ERR_ARGUMENT for a NULL m or a columns other
+ * than pwb_model_info.columns. */
+PWB_API pwb_status pwb_model_coefficients(const pwb_model *m, double *coef, double *se,
+                                          int *aliased, size_t columns);
+
+/* Per-row vectors of the fit (length n, caller-owned): which = PWB_MODEL_RESIDUALS (z - fitted),
+ * PWB_MODEL_FITTED (transformed scale), PWB_MODEL_LEVERAGES (hat-matrix diagonal),
+ * PWB_MODEL_TRANSFORMED_RESPONSE (z). Errors: PWB_ERR_ARGUMENT for a NULL m or out, an unknown
+ * which, or an n other than the model's. */
+typedef enum pwb_model_vector {
+  PWB_MODEL_RESIDUALS = 0,
+  PWB_MODEL_FITTED,
+  PWB_MODEL_LEVERAGES,
+  PWB_MODEL_TRANSFORMED_RESPONSE
+} pwb_model_vector;
+PWB_API pwb_status pwb_model_vector_get(const pwb_model *m, pwb_model_vector which, double *out,
+                                        size_t n);
+
+typedef enum pwb_interval {
+  PWB_INTERVAL_NONE = 0,
+  PWB_INTERVAL_CONFIDENCE, /* for the center of z; mapped back it covers the MEDIAN of y */
+  PWB_INTERVAL_PREDICTION  /* for a new observation of z, and so of y */
+} pwb_interval;
+typedef enum pwb_center {
+  PWB_CENTER_MEDIAN = 0, /* T^{-1}(x'b): the median of y when the errors are symmetric */
+  PWB_CENTER_MEAN        /* an estimate of E[y], by mean_method */
+} pwb_center;
+typedef enum pwb_mean_method {
+  PWB_MEAN_SMEARING = 0, /* Duan (1983): mean over training residuals e_j of T^{-1}(x'b + e_j) */
+  PWB_MEAN_NORMAL        /* E[T^{-1}(Z)], Z ~ N(x'b, sigma^2): exp(mu + sigma^2/2) for log
+                            (and its log10 analogue), Gauss-Hermite quadrature otherwise */
+} pwb_mean_method;
+
+typedef struct pwb_predict_options {
+  size_t struct_size;          /* sizeof(pwb_predict_options) */
+  double level;                /* interval level in (0, 1); default 0.95 */
+  pwb_interval interval;       /* default PWB_INTERVAL_NONE */
+  pwb_center center;           /* default PWB_CENTER_MEDIAN */
+  pwb_mean_method mean_method; /* default PWB_MEAN_SMEARING */
+  int transformed_scale;       /* 1: report on the transformed scale, no back-transform (0) */
+} pwb_predict_options;
+
+/* Sets struct_size and the defaults above. NULL is ignored. */
+PWB_API void pwb_predict_options_init(pwb_predict_options *opt);
+
+/* Flags of a predicted row (bits of flags[i]). */
+#define PWB_PRED_BOUNDED 1u /* fit or an endpoint lay beyond the range of T's inverse and was
+                               set to its limit (0 or +Inf of the family's argument, mapped
+                               through the shift and reflection), or overflowed */
+#define PWB_PRED_MISSING 2u /* the row of Xnew had a NaN or infinite entry; outputs are NaN */
+
+/* Predicts `rows` new rows. Xnew: rows-by-p, column-major, the same p columns as the fit's X
+ * (NULL allowed when rows or p is 0). Writes fit[i] always, lwr[i]/upr[i] (lower <= upper; NaN when
+ * interval is PWB_INTERVAL_NONE) when those pointers are not NULL, flags[i] when flags is not
+ * NULL. Intervals are formed on the transformed scale with Student t quantiles (df_residual)
+ * and their endpoints mapped through T's inverse, swapped when T reflects; they are intervals
+ * for the median (confidence) or for a new observation (prediction) whatever `center` is. opt
+ * may be NULL (defaults). Errors: PWB_ERR_ARGUMENT for a NULL m or fit, p other than the fit's,
+ * a level outside (0, 1), unknown enum values, a struct_size too small. Thread-safe for one m. */
+PWB_API pwb_status pwb_model_predict(const pwb_model *m, const double *Xnew, size_t rows, size_t p,
+                                     const pwb_predict_options *opt, double *fit, double *lwr,
+                                     double *upr, unsigned *flags);
+
 /* @@PWB_SECTION_MODEL@@ (declarations of this section go above this line) */
 
 
@@ -196,6 +314,37 @@ PWB_API pwb_status pwb_transform_describe(const pwb_transform *t, int which, cha
 /* ------------------------------------------------------------------------------------------ */
 /* Residual diagnostics                                                                       */
 /* ------------------------------------------------------------------------------------------ */
+
+/* Checks of a fitted model's residuals, on the transformed scale where its errors are modelled.
+ * A part that cannot be computed has NaN fields (and, for Shapiro-Wilk, sw_computed = 0).
+ *   Shapiro-Wilk W and p of the residuals; their sample skewness.
+ *   Koenker's studentized Breusch-Pagan: n R^2 of the squared residuals regressed on the model's
+ *     regressors, chi-square with bp_df = rank - 1 degrees of freedom (Breusch & Pagan 1979,
+ *     Koenker 1981). NaN when the model has no regressor besides the intercept.
+ *   Ramsey's RESET: F test of adding fitted^2 and fitted^3, reset_df1 (normally 2) and
+ *     reset_df2 = n - rank - reset_df1 degrees of freedom (Ramsey 1969). */
+typedef struct pwb_residual_checks {
+  size_t struct_size; /* sizeof(pwb_residual_checks), set by the caller (or _init) */
+  size_t n;
+  double sw_statistic, sw_p;
+  int sw_computed;
+  double skewness;
+  double bp_statistic, bp_df, bp_p;
+  double reset_f, reset_df1, reset_df2, reset_p;
+} pwb_residual_checks;
+
+/* Sets struct_size and every value to NaN / 0. NULL is ignored. */
+PWB_API void pwb_residual_checks_init(pwb_residual_checks *out);
+
+/* Computes the checks of m into *out. Errors: PWB_ERR_ARGUMENT for NULL arguments or a
+ * struct_size too small. Thread-safe for one m. */
+PWB_API pwb_status pwb_model_residual_checks(const pwb_model *m, pwb_residual_checks *out);
+
+/* Why Shapiro-Wilk was not computed (or a caveat about it), "" when there is nothing to say;
+ * written like snprintf into buf (cap bytes with the NUL; buf may be NULL when cap is 0), full
+ * length in *needed when not NULL. Errors: PWB_ERR_ARGUMENT for a NULL m. */
+PWB_API pwb_status pwb_model_residual_checks_note(const pwb_model *m, char *buf, size_t cap,
+                                                  size_t *needed);
 
 /* @@PWB_SECTION_DIAGNOSTICS@@ (declarations of this section go above this line) */
 
@@ -205,6 +354,48 @@ PWB_API pwb_status pwb_transform_describe(const pwb_transform *t, int which, cha
 /* Comparing transforms: cross-validation, lambda influence, Box-Tidwell                      */
 /* ------------------------------------------------------------------------------------------ */
 
+/* Options of pwb_box_tidwell. */
+typedef struct pwb_box_tidwell_options {
+  size_t struct_size;   /* sizeof(pwb_box_tidwell_options) */
+  int max_iter;         /* iterations of the power update; default 50 */
+  double tol;           /* converged when every power changes by less than tol; default 1e-6 */
+  double max_abs_power; /* a power beyond +-this stops the iteration (not converged); default 20 */
+} pwb_box_tidwell_options;
+
+/* Sets struct_size and the defaults. NULL is ignored. */
+PWB_API void pwb_box_tidwell_options_init(pwb_box_tidwell_options *opt);
+
+/* Summary of a pwb_box_tidwell run. */
+typedef struct pwb_box_tidwell_result {
+  size_t struct_size; /* sizeof(pwb_box_tidwell_result) */
+  int iterations;     /* updates made */
+  int converged;      /* 1 when the last change was below tol, else 0 */
+  double last_change; /* the largest change of a power in the last update */
+  double score_df;    /* residual degrees of freedom of the score-test fits */
+  size_t n;           /* rows used */
+} pwb_box_tidwell_result;
+
+/* Box & Tidwell (1962) powers a_j of the m positive predictors X in
+ *   y = b0 + sum_j b_j X_j^(a_j) + Z c + e,
+ * iterated from a_j = 1 by the linearised update until every power changes by less than tol.
+ * y: n values. Z: n-by-q other predictors, column-major, no intercept column (one is added);
+ * NULL when q is 0. X: n-by-m, column-major, every value > 0.
+ * Outputs (caller-owned, m values each): alpha (the powers), se (their standard errors from the
+ * linearised fit at the final powers), score_t and score_p (t statistic and two-sided p-value of
+ * the added column X_j log X_j in the fit with every X linear: the test of power 1). score_t and
+ * score_p may be NULL. history may be NULL or hold m * (max_iter + 1) values: column k
+ * (history[k*m + j]) holds the powers after k updates (column 0 is all 1), NaN after the last.
+ * Non-convergence is reported in out->converged, not as an error; the powers are then the last
+ * finite iterate. Errors: PWB_ERR_ARGUMENT (NULL pointers, m == 0, n too small for the fit,
+ * bad options or struct_size); PWB_ERR_NONFINITE and PWB_ERR_DOMAIN (a non-finite value, or an X
+ * value <= 0: the message names the 0-based column of X, the count and the first rows);
+ * PWB_ERR_SINGULAR (a variable aliased with the others or with a zero coefficient).
+ * Thread-safe: reads only its arguments. */
+PWB_API pwb_status pwb_box_tidwell(const double *y, const double *Z, size_t n, size_t q,
+                                   const double *X, size_t m, const pwb_box_tidwell_options *opt,
+                                   double *alpha, double *se, double *score_t, double *score_p,
+                                   double *history, pwb_box_tidwell_result *out);
+
 /* @@PWB_SECTION_COMPARE@@ (declarations of this section go above this line) */
 
 
@@ -212,6 +403,90 @@ PWB_API pwb_status pwb_transform_describe(const pwb_transform *t, int which, cha
 /* ------------------------------------------------------------------------------------------ */
 /* The portable text spec of transforms and models                                            */
 /* ------------------------------------------------------------------------------------------ */
+
+/* A spec is an ordered set of named transforms that can be written as portable text
+ * ("powerback-spec 1", described in docs/spec-format.md) and read back, in any language that
+ * can call this library, to apply exactly the same transforms. Numbers are written as C99
+ * hexadecimal floating constants (e.g. 0x1.8p+1), so every value reads back bit for bit.
+ *
+ * Limits that bound what a reader allocates, whatever the input: PWB_SPEC_MAX_BYTES of text,
+ * PWB_SPEC_MAX_LINE bytes per line, PWB_SPEC_MAX_RECORDS transforms, PWB_SPEC_MAX_NAME bytes per
+ * name. Names are non-empty UTF-8 without NUL bytes and distinct within a spec.
+ *
+ * Thread safety: a spec handle is changed only by pwb_spec_add_transform; other calls only read
+ * it, so one handle may be read from several threads at once, but not while one thread adds to
+ * it. Distinct handles are independent. */
+#define PWB_SPEC_FORMAT_VERSION 1
+#define PWB_SPEC_MAX_BYTES 16777216u
+#define PWB_SPEC_MAX_LINE 4096u
+#define PWB_SPEC_MAX_RECORDS 65536u
+#define PWB_SPEC_MAX_NAME 256u
+
+typedef struct pwb_spec pwb_spec; /* opaque */
+
+/* Makes an empty spec. On success *out owns a new handle the caller releases with
+ * pwb_spec_free; *out is NULL on failure. Errors: PWB_ERR_ARGUMENT for a NULL out,
+ * PWB_ERR_MEMORY. */
+PWB_API pwb_status pwb_spec_new(pwb_spec **out);
+
+/* Releases s. NULL is fine. Not to be called while another thread uses s. */
+PWB_API void pwb_spec_free(pwb_spec *s);
+
+/* Appends a copy of transform t under name (a NUL-terminated UTF-8 string, copied; neither name
+ * nor t is kept). Errors: PWB_ERR_ARGUMENT for a NULL argument, an empty name, a name longer
+ * than PWB_SPEC_MAX_NAME bytes or not valid UTF-8, or a name the spec already holds;
+ * PWB_ERR_MEMORY past PWB_SPEC_MAX_RECORDS transforms. On failure s is unchanged. */
+PWB_API pwb_status pwb_spec_add_transform(pwb_spec *s, const char *name, const pwb_transform *t);
+
+/* Stores the number of transforms in *count. Errors: PWB_ERR_ARGUMENT for NULL arguments. */
+PWB_API pwb_status pwb_spec_count(const pwb_spec *s, size_t *count);
+
+/* The name of transform i (0-based, in the order of the text), copied like snprintf: at most cap
+ * bytes including the terminating NUL go to buf (which may be NULL when cap is 0), and the full
+ * length without NUL is stored in *needed when needed is not NULL. Names may hold any UTF-8
+ * text, including spaces and quotes. Errors: PWB_ERR_ARGUMENT for a NULL s or i >= count. */
+PWB_API pwb_status pwb_spec_name(const pwb_spec *s, size_t i, char *buf, size_t cap,
+                                 size_t *needed);
+
+/* Stores in *index the position of the transform called name (exact, byte-wise match).
+ * Errors: PWB_ERR_ARGUMENT for NULL arguments or when no transform has that name. */
+PWB_API pwb_status pwb_spec_find(const pwb_spec *s, const char *name, size_t *index);
+
+/* Makes a new transform handle equal to transform i of s. On success *out owns it (release with
+ * pwb_transform_free; it does not depend on s, which may be freed first); *out is NULL on
+ * failure. Errors: PWB_ERR_ARGUMENT for NULL arguments or i >= count. */
+PWB_API pwb_status pwb_spec_transform(const pwb_spec *s, size_t i, pwb_transform **out);
+
+/* Writes s as text into buf. The full length without NUL is stored in *needed when needed is
+ * not NULL. Call with buf = NULL and cap = 0 to learn the size; then pass a buffer of at least
+ * *needed + 1 bytes, which receives the whole text and a terminating NUL. Unlike snprintf, a
+ * buffer too small is an error (PWB_ERR_ARGUMENT; buf then holds "" when cap > 0), so a
+ * truncated spec is never produced. Errors: PWB_ERR_ARGUMENT for a NULL s, a NULL buf with
+ * cap > 0, or a buffer too small. */
+PWB_API pwb_status pwb_spec_write(const pwb_spec *s, char *buf, size_t cap, size_t *needed);
+
+/* Writes s as text to the file at path (created or replaced; the path is passed to the C
+ * library as is). Errors: PWB_ERR_ARGUMENT for NULL arguments or a file that cannot be opened or
+ * written (the message names the path and the reason). */
+PWB_API pwb_status pwb_spec_write_file(const pwb_spec *s, const char *path);
+
+/* Parses len bytes of text (need not be NUL-terminated; NULL only when len is 0). On success
+ * *out owns a new spec handle (release with pwb_spec_free); *out is NULL on failure. The reader
+ * is strict: PWB_ERR_PARSE, with "spec line L, column C: ..." in pwb_last_error(), for a first
+ * line other than "powerback-spec 1" (a newer version is named in the message), unknown records
+ * or keys, repeated or missing keys, malformed or out-of-range numbers, NaN or infinite values,
+ * bad escapes, NUL bytes or invalid UTF-8 anywhere, lines longer than PWB_SPEC_MAX_LINE, more
+ * than PWB_SPEC_MAX_RECORDS transforms, input beyond PWB_SPEC_MAX_BYTES, a missing "end" line or
+ * final newline (a truncated file), anything after the end line, and transforms the library
+ * would reject (e.g. power with lambda 0). PWB_ERR_ARGUMENT for a NULL out or NULL text with
+ * len > 0. */
+PWB_API pwb_status pwb_spec_read(const char *text, size_t len, pwb_spec **out);
+
+/* Reads and parses the file at path, as pwb_spec_read does; a file larger than
+ * PWB_SPEC_MAX_BYTES is rejected (PWB_ERR_PARSE) after reading at most 64 KiB beyond the limit.
+ * Errors as pwb_spec_read, plus PWB_ERR_ARGUMENT for a NULL path or a file that cannot be
+ * opened (the message names the path and the reason). */
+PWB_API pwb_status pwb_spec_read_file(const char *path, pwb_spec **out);
 
 /* @@PWB_SECTION_SPEC@@ (declarations of this section go above this line) */
 

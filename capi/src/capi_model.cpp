@@ -1,0 +1,172 @@
+// The model handle of the C ABI: fit, accessors, predictions in original units.
+#include <memory>
+
+#include "capi_internal.hpp"
+#include "capi_model_handle.hpp"
+#include "powerback/model.hpp"
+#include "powerback/transform.hpp"
+
+
+using namespace powerback;
+
+namespace {
+
+Transform transform_of(const pwb_transform* t) {
+  pwb_transform_spec s;
+  pwb_transform_spec_init(&s);
+  if (pwb_transform_get_spec(t, &s) != PWB_OK)
+    throw Error(ErrorCode::Internal, "could not read the response transform");
+  TransformSpec ts;
+  ts.family = static_cast<Family>(s.family);
+  ts.lambda = s.lambda;
+  ts.shift = s.shift;
+  ts.reflect = s.reflect != 0;
+  ts.pivot = s.pivot;
+  return Transform(ts);
+}
+
+}  // namespace
+
+extern "C" {
+
+void pwb_model_options_init(pwb_model_options* opt) {
+  if (!opt) return;
+  opt->struct_size = sizeof(pwb_model_options);
+  opt->intercept = 1;
+  opt->estimated_parameters = 0;
+}
+
+pwb_status pwb_model_fit(const double* y, const double* X, size_t n, size_t p,
+                         const pwb_transform* response, const pwb_model_options* opt,
+                         pwb_model** out) {
+  if (out) *out = nullptr;
+  return capi::guarded([&] {
+    capi::need(out, "out");
+    capi::need(y, "y");
+    capi::need_array(X, n * p, "X");
+    pwb_model_options o;
+    pwb_model_options_init(&o);
+    if (opt) {
+      capi::need_struct(opt->struct_size, sizeof(pwb_model_options), "pwb_model_options");
+      o = *opt;
+    }
+    std::unique_ptr<Transform> tr;
+    if (response) tr.reset(new Transform(transform_of(response)));
+    *out = new pwb_model{Model(y, X, n, p, o.intercept != 0, tr.get(), o.estimated_parameters)};
+  });
+}
+
+void pwb_model_free(pwb_model* m) { delete m; }
+
+pwb_status pwb_model_get_info(const pwb_model* m, pwb_model_info* info) {
+  return capi::guarded([&] {
+    capi::need(m, "m");
+    capi::need(info, "info");
+    capi::need_struct(info->struct_size, sizeof(pwb_model_info), "pwb_model_info");
+    const Model& f = m->impl;
+    info->n = f.n();
+    info->columns = f.columns();
+    info->rank = f.rank();
+    info->df_residual = f.df_residual();
+    info->intercept = f.intercept() ? 1 : 0;
+    info->sigma = f.sigma();
+    info->rss = f.rss();
+    info->loglik = f.loglik();
+    info->loglik_df = f.loglik_df();
+    info->jacobian = f.jacobian();
+  });
+}
+
+pwb_status pwb_model_coefficients(const pwb_model* m, double* coef, double* se, int* aliased,
+                                  size_t columns) {
+  return capi::guarded([&] {
+    capi::need(m, "m");
+    const Model& f = m->impl;
+    require(columns == f.columns(), "columns is " + std::to_string(columns) +
+                                        " but the model has " + std::to_string(f.columns()) +
+                                        " coefficients");
+    const std::vector<bool> al = f.aliased();
+    for (std::size_t j = 0; j < columns; ++j) {
+      const Eigen::Index jj = static_cast<Eigen::Index>(j);
+      if (coef) coef[j] = f.coefficients()(jj);
+      if (se) se[j] = f.standard_errors()(jj);
+      if (aliased) aliased[j] = al[j] ? 1 : 0;
+    }
+  });
+}
+
+pwb_status pwb_model_vector_get(const pwb_model* m, pwb_model_vector which, double* out,
+                                size_t n) {
+  return capi::guarded([&] {
+    capi::need(m, "m");
+    capi::need(out, "out");
+    const Model& f = m->impl;
+    require(n == f.n(), "n is " + std::to_string(n) + " but the model has " +
+                            std::to_string(f.n()) + " rows");
+    Eigen::VectorXd v;
+    switch (which) {
+      case PWB_MODEL_RESIDUALS: v = f.residuals(); break;
+      case PWB_MODEL_FITTED: v = f.fitted(); break;
+      case PWB_MODEL_LEVERAGES: v = f.leverages(); break;
+      case PWB_MODEL_TRANSFORMED_RESPONSE: v = f.transformed_response(); break;
+      default:
+        throw Error(ErrorCode::Argument,
+                    "unknown model vector " + std::to_string(static_cast<int>(which)));
+    }
+    for (std::size_t i = 0; i < n; ++i) out[i] = v(static_cast<Eigen::Index>(i));
+  });
+}
+
+void pwb_predict_options_init(pwb_predict_options* opt) {
+  if (!opt) return;
+  opt->struct_size = sizeof(pwb_predict_options);
+  opt->level = 0.95;
+  opt->interval = PWB_INTERVAL_NONE;
+  opt->center = PWB_CENTER_MEDIAN;
+  opt->mean_method = PWB_MEAN_SMEARING;
+  opt->transformed_scale = 0;
+}
+
+pwb_status pwb_model_predict(const pwb_model* m, const double* Xnew, size_t rows, size_t p,
+                             const pwb_predict_options* opt, double* fit, double* lwr,
+                             double* upr, unsigned* flags) {
+  return capi::guarded([&] {
+    capi::need(m, "m");
+    capi::need_array(fit, rows, "fit");
+    capi::need_array(Xnew, rows * p, "Xnew");
+    pwb_predict_options o;
+    pwb_predict_options_init(&o);
+    if (opt) {
+      capi::need_struct(opt->struct_size, sizeof(pwb_predict_options), "pwb_predict_options");
+      o = *opt;
+    }
+    PredictOptions po;
+    po.level = o.level;
+    switch (o.interval) {
+      case PWB_INTERVAL_NONE: po.interval = IntervalKind::None; break;
+      case PWB_INTERVAL_CONFIDENCE: po.interval = IntervalKind::Confidence; break;
+      case PWB_INTERVAL_PREDICTION: po.interval = IntervalKind::Prediction; break;
+      default: throw Error(ErrorCode::Argument, "unknown interval kind " + std::to_string(static_cast<int>(o.interval)));
+    }
+    switch (o.center) {
+      case PWB_CENTER_MEDIAN: po.center = Center::Median; break;
+      case PWB_CENTER_MEAN: po.center = Center::Mean; break;
+      default: throw Error(ErrorCode::Argument, "unknown center " + std::to_string(static_cast<int>(o.center)));
+    }
+    switch (o.mean_method) {
+      case PWB_MEAN_SMEARING: po.mean_method = MeanMethod::Smearing; break;
+      case PWB_MEAN_NORMAL: po.mean_method = MeanMethod::Normal; break;
+      default: throw Error(ErrorCode::Argument, "unknown mean method " + std::to_string(static_cast<int>(o.mean_method)));
+    }
+    po.transformed_scale = o.transformed_scale != 0;
+    const Prediction pr = m->impl.predict(Xnew, rows, p, po);
+    for (std::size_t i = 0; i < rows; ++i) {
+      fit[i] = pr.fit[i];
+      if (lwr) lwr[i] = pr.lower[i];
+      if (upr) upr[i] = pr.upper[i];
+      if (flags) flags[i] = pr.flags[i];
+    }
+  });
+}
+
+}  // extern "C"

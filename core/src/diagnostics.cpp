@@ -1,0 +1,73 @@
+// Residual checks of a fitted model: Koenker's Breusch-Pagan, Ramsey's RESET, normality.
+#include "powerback/diagnostics.hpp"
+
+#include <boost/math/distributions/chi_squared.hpp>
+#include <boost/math/distributions/fisher_f.hpp>
+#include <cmath>
+#include <string>
+
+#include "powerback/errors.hpp"
+
+namespace powerback {
+
+namespace {
+
+void breusch_pagan(const Model& m, ResidualChecks& out) {
+  const LeastSquares& ls = m.least_squares();
+  const double df = static_cast<double>(ls.rank()) - (m.intercept() ? 1.0 : 0.0);
+  if (df < 1.0) return;
+  const Eigen::VectorXd u = m.residuals().array().square().matrix();
+  const double tss = (u.array() - u.mean()).square().sum();
+  if (!(tss > 0.0)) return;
+  // The auxiliary regression uses the model's own design, so its factorisation is reused.
+  const double r2 = 1.0 - ls.rss(u) / tss;
+  out.bp_statistic = static_cast<double>(m.n()) * r2;
+  out.bp_df = df;
+  const boost::math::chi_squared cs(df);
+  out.bp_p = boost::math::cdf(boost::math::complement(cs, std::max(out.bp_statistic, 0.0)));
+}
+
+void reset(const Model& m, ResidualChecks& out) {
+  const LeastSquares& ls = m.least_squares();
+  const Eigen::Index n = static_cast<Eigen::Index>(m.n());
+  const Eigen::Index k = static_cast<Eigen::Index>(ls.rank());
+  Eigen::MatrixXd aug(n, k + 2);
+  for (Eigen::Index i = 0; i < k; ++i)
+    aug.col(i) = ls.design().col(static_cast<Eigen::Index>(ls.kept()[static_cast<std::size_t>(i)]));
+  // With an intercept, the span of {1, f, f^2, f^3} equals that of {1, g, g^2, g^3} for
+  // g = (f - c) / s, and f lies in the design's span, so the F statistic is unchanged by
+  // centring and scaling the fitted values; doing so keeps the augmented design well conditioned.
+  Eigen::VectorXd g = m.fitted();
+  if (m.intercept()) {
+    const double c = g.mean();
+    const double s = std::sqrt((g.array() - c).square().sum() / static_cast<double>(n));
+    if (!(s > 0.0)) return;  // constant fitted values: the added columns are aliased
+    g = ((g.array() - c) / s).matrix();
+  }
+  aug.col(k) = g.array().square().matrix();
+  aug.col(k + 1) = g.array().cube().matrix();
+  const LeastSquares ls1(aug);
+  const double q = static_cast<double>(ls1.rank()) - static_cast<double>(k);
+  const double df2 = static_cast<double>(ls1.df_residual());
+  if (q < 1.0 || df2 < 1.0) return;
+  const double rss1 = ls1.rss(m.transformed_response());
+  out.reset_df1 = q;
+  out.reset_df2 = df2;
+  if (!(rss1 > 0.0)) return;
+  out.reset_f = ((m.rss() - rss1) / q) / (rss1 / df2);
+  const boost::math::fisher_f fd(q, df2);
+  out.reset_p = boost::math::cdf(boost::math::complement(fd, std::max(out.reset_f, 0.0)));
+}
+
+}  // namespace
+
+ResidualChecks residual_checks(const Model& model) {
+  ResidualChecks out;
+  out.n = model.n();
+  breusch_pagan(model, out);
+  reset(model, out);
+  out.sw_note = "Shapiro-Wilk not available in this build";
+  return out;
+}
+
+}  // namespace powerback
