@@ -1,0 +1,143 @@
+// The spec handle of the C ABI: named transforms, written to and read from the portable text.
+#include <string>
+
+#include "capi_internal.hpp"
+#include "powerback/spec.hpp"
+#include "powerback/transform.hpp"
+
+struct pwb_spec {
+  powerback::Spec impl;
+};
+
+// The transform handle's layout is private to capi_transform.cpp; it is rebuilt here from its
+// public spec through the ABI's own functions, so this file needs no knowledge of that layout.
+using namespace powerback;
+
+namespace {
+
+Transform transform_of(const pwb_transform* t) {
+  pwb_transform_spec s;
+  s.struct_size = sizeof s;
+  if (pwb_transform_get_spec(t, &s) != PWB_OK) throw Error(ErrorCode::Argument, pwb_last_error());
+  TransformSpec ts;
+  ts.family = static_cast<Family>(s.family);
+  ts.lambda = s.lambda;
+  ts.shift = s.shift;
+  ts.reflect = s.reflect != 0;
+  ts.pivot = s.pivot;
+  return Transform(ts);
+}
+
+pwb_spec* new_handle(Spec&& s) { return new pwb_spec{std::move(s)}; }
+
+}  // namespace
+
+extern "C" {
+
+pwb_status pwb_spec_new(pwb_spec** out) {
+  if (out) *out = nullptr;
+  return capi::guarded([&] {
+    capi::need(out, "out");
+    *out = new pwb_spec{};
+  });
+}
+
+void pwb_spec_free(pwb_spec* s) { delete s; }
+
+pwb_status pwb_spec_add_transform(pwb_spec* s, const char* name, const pwb_transform* t) {
+  return capi::guarded([&] {
+    capi::need(s, "s");
+    capi::need(name, "name");
+    capi::need(t, "t");
+    s->impl.add(name, transform_of(t));
+  });
+}
+
+pwb_status pwb_spec_count(const pwb_spec* s, size_t* count) {
+  return capi::guarded([&] {
+    capi::need(s, "s");
+    capi::need(count, "count");
+    *count = s->impl.size();
+  });
+}
+
+pwb_status pwb_spec_name(const pwb_spec* s, size_t i, char* buf, size_t cap, size_t* needed) {
+  return capi::guarded([&] {
+    capi::need(s, "s");
+    capi::copy_text(s->impl.at(i).name, buf, cap, needed);
+  });
+}
+
+pwb_status pwb_spec_find(const pwb_spec* s, const char* name, size_t* index) {
+  return capi::guarded([&] {
+    capi::need(s, "s");
+    capi::need(name, "name");
+    capi::need(index, "index");
+    const std::size_t i = s->impl.find(name);
+    if (i == s->impl.size())
+      throw Error(ErrorCode::Argument, std::string("the spec has no transform named \"") + name + "\"");
+    *index = i;
+  });
+}
+
+pwb_status pwb_spec_transform(const pwb_spec* s, size_t i, pwb_transform** out) {
+  if (out) *out = nullptr;
+  return capi::guarded([&] {
+    capi::need(s, "s");
+    capi::need(out, "out");
+    const TransformSpec& ts = s->impl.at(i).transform.spec();
+    pwb_transform_spec c;
+    pwb_transform_spec_init(&c);
+    c.family = static_cast<pwb_family>(ts.family);
+    c.lambda = ts.lambda;
+    c.shift = ts.shift;
+    c.reflect = ts.reflect ? 1 : 0;
+    c.pivot = ts.pivot;
+    if (pwb_transform_new(&c, out) != PWB_OK) throw Error(ErrorCode::Internal, pwb_last_error());
+  });
+}
+
+pwb_status pwb_spec_write(const pwb_spec* s, char* buf, size_t cap, size_t* needed) {
+  return capi::guarded([&] {
+    capi::need(s, "s");
+    const std::string text = write_spec(s->impl);
+    if (needed) *needed = text.size();
+    if (buf == nullptr && cap == 0) return;
+    capi::need(buf, "buf");
+    if (cap <= text.size()) {
+      if (cap > 0) buf[0] = '\0';
+      throw Error(ErrorCode::Argument, "the buffer holds " + std::to_string(cap) +
+                                           " bytes; the spec needs " + std::to_string(text.size() + 1) +
+                                           " (query the size first with buf = NULL, cap = 0)");
+    }
+    capi::copy_text(text, buf, cap, nullptr);
+  });
+}
+
+pwb_status pwb_spec_write_file(const pwb_spec* s, const char* path) {
+  return capi::guarded([&] {
+    capi::need(s, "s");
+    capi::need(path, "path");
+    write_spec_file(s->impl, path);
+  });
+}
+
+pwb_status pwb_spec_read(const char* text, size_t len, pwb_spec** out) {
+  if (out) *out = nullptr;
+  return capi::guarded([&] {
+    capi::need(out, "out");
+    capi::need_array(text, len, "text");
+    *out = new_handle(parse_spec(text, len));
+  });
+}
+
+pwb_status pwb_spec_read_file(const char* path, pwb_spec** out) {
+  if (out) *out = nullptr;
+  return capi::guarded([&] {
+    capi::need(path, "path");
+    capi::need(out, "out");
+    *out = new_handle(read_spec_file(path));
+  });
+}
+
+}  // extern "C"
