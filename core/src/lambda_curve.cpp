@@ -1,0 +1,51 @@
+// Profile curves of lambda for plotting: grids and log-likelihood values along them.
+#include <algorithm>
+#include <cmath>
+
+#include "lambda_profile.hpp"
+#include "powerback/errors.hpp"
+#include "powerback/lambda.hpp"
+
+namespace powerback {
+namespace {
+
+std::vector<double> along(const detail::LambdaProfile& prof, const double* grid, std::size_t m) {
+  require(grid != nullptr || m == 0, "the lambda grid is NULL");
+  std::vector<double> out(m);
+  for (std::size_t i = 0; i < m; ++i) {
+    require(std::isfinite(grid[i]), "the lambda grid has a non-finite value at index " +
+                                        std::to_string(i) + " (0-based)");
+    out[i] = prof.loglik(grid[i]);
+  }
+  return out;
+}
+
+}  // namespace
+
+std::vector<double> lambda_profile(const double* x, std::size_t n, Family family,
+                                   const double* grid, std::size_t m) {
+  const detail::LambdaProfile prof(x, n, family, "x");
+  return along(prof, grid, m);
+}
+
+std::vector<double> response_lambda_profile(const double* y, const LeastSquares& design,
+                                            Family family, const double* grid, std::size_t m) {
+  const detail::LambdaProfile prof(y, design, family, "y");
+  return along(prof, grid, m);
+}
+
+std::vector<double> profile_grid(const LambdaEstimate& est, std::size_t m) {
+  require(m >= 2, "a profile grid needs at least 2 points");
+  require(std::isfinite(est.conf_low) && std::isfinite(est.conf_high) && est.lower < est.upper,
+          "the estimate has no finite interval to draw a grid around");
+  const double margin = std::max(0.5, 0.5 * (est.conf_high - est.conf_low));
+  const double lo = std::max(est.lower, std::min(est.conf_low, est.lambda) - margin);
+  const double hi = std::min(est.upper, std::max(est.conf_high, est.lambda) + margin);
+  std::vector<double> g(m);
+  for (std::size_t i = 0; i < m; ++i)
+    g[i] = lo + (hi - lo) * static_cast<double>(i) / static_cast<double>(m - 1);
+  g[m - 1] = hi;
+  return g;
+}
+
+}  // namespace powerback

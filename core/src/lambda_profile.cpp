@@ -1,0 +1,172 @@
+// The profile log-likelihood of a power-family lambda: input checks, the once-only preparation
+// of the data and the overflow-free evaluation at one lambda.
+#include "lambda_profile.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <limits>
+
+#include "powerback/errors.hpp"
+#include "powerback/transform.hpp"
+
+namespace powerback {
+namespace detail {
+namespace {
+
+constexpr double kLog2PiPlus1 = 2.837877066409345483560659472811235279722794947275566825634;  // log(2 pi) + 1
+
+std::string plural(std::size_t k, const char* one, const char* many) {
+  return std::to_string(k) + " " + (k == 1 ? one : many);
+}
+
+// NaN/Inf first, then the Box-Cox domain; each error names the count and first 0-based indices.
+void check_values(const double* v, std::size_t n, Family family, const std::string& what) {
+  require(family == Family::BoxCox || family == Family::YeoJohnson,
+          std::string("lambda can be estimated for box-cox and yeo-johnson only, not ") +
+              family_name(family));
+  require(v != nullptr || n == 0, what + " is NULL");
+  std::size_t bad = 0;
+  std::vector<std::size_t> first;
+  for (std::size_t i = 0; i < n; ++i)
+    if (!std::isfinite(v[i])) {
+      ++bad;
+      if (first.size() < kMaxReportedIndices) first.push_back(i);
+    }
+  if (bad)
+    throw IndexedError(ErrorCode::NonFinite,
+                       what + " has " + plural(bad, "non-finite value", "non-finite values") +
+                           " (NaN or Inf) at " + (bad == 1 ? "index " : "indices ") +
+                           format_indices(first, bad) + " (0-based): remove or impute them first",
+                       bad, first);
+  if (family == Family::BoxCox) {
+    for (std::size_t i = 0; i < n; ++i)
+      if (!(v[i] > 0.0)) {
+        ++bad;
+        if (first.size() < kMaxReportedIndices) first.push_back(i);
+      }
+    if (bad)
+      throw IndexedError(ErrorCode::Domain,
+                         "Box-Cox needs " + what + " > 0; " + plural(bad, "value", "values") +
+                             " <= 0 at " + (bad == 1 ? "index " : "indices ") +
+                             format_indices(first, bad) +
+                             " (0-based): use Yeo-Johnson or a shift that makes every value > 0",
+                         bad, first);
+  }
+  require(n >= 3, what + " has " + plural(n, "value", "values") +
+                      "; estimating lambda needs at least 3 finite values");
+  const double v0 = v[0];
+  bool constant = true;
+  for (std::size_t i = 1; i < n && constant; ++i) constant = (v[i] == v0);
+  require(!constant, what + " is constant (every value is " + format_number(v0) +
+                         "): no power can be estimated; leave it untransformed");
+}
+
+}  // namespace
+
+LambdaProfile::LambdaProfile(const double* x, std::size_t n, Family family, const std::string& what)
+    : family_(family) {
+  check_values(x, n, family, what);
+  prepare(x, n, what);
+}
+
+LambdaProfile::LambdaProfile(const double* y, const LeastSquares& design, Family family,
+                             const std::string& what)
+    : family_(family), design_(&design) {
+  const std::size_t n = design.n();
+  check_values(y, n, family, what);
+  require(design.has_intercept(), "the response lambda needs a design with an intercept column");
+  if (n <= design.rank() + 1)
+    throw Error(ErrorCode::Singular,
+                what + " has " + std::to_string(n) + " observations but the design has rank " +
+                    std::to_string(design.rank()) +
+                    " (intercept included): the profile needs n > rank + 1; use fewer predictors");
+  prepare(y, n, what);
+}
+
+void LambdaProfile::prepare(const double* v, std::size_t n, const std::string& /*what*/) {
+  const Eigen::Index nn = static_cast<Eigen::Index>(n);
+  t_.resize(nn);
+  w_.resize(nn);
+  constexpr double inf = std::numeric_limits<double>::infinity();
+  if (family_ == Family::BoxCox) {
+    for (Eigen::Index i = 0; i < nn; ++i) t_(i) = std::log(v[i]);
+    centre_ = t_.mean();
+    t_ -= centre_;
+    any_pos_ = true;
+    pos_min_ = t_.minCoeff();
+    pos_max_ = t_.maxCoeff();
+    return;
+  }
+  neg_.resize(nn);
+  pos_min_ = neg_min_ = inf;
+  pos_max_ = neg_max_ = -inf;
+  for (Eigen::Index i = 0; i < nn; ++i) {
+    const bool ng = v[i] < 0.0;
+    const double t = std::log1p(std::fabs(v[i]));
+    neg_(i) = ng;
+    t_(i) = t;
+    if (ng) {
+      any_neg_ = true;
+      sum_neg_ += t;
+      neg_min_ = std::min(neg_min_, t);
+      neg_max_ = std::max(neg_max_, t);
+    } else {
+      any_pos_ = true;
+      sum_pos_ += t;
+      pos_min_ = std::min(pos_min_, t);
+      pos_max_ = std::max(pos_max_, t);
+    }
+  }
+}
+
+namespace {
+// s * expm1(k t) / k, divided by exp(m) when scaled (m > 0); k == 0 gives the log limit s * t.
+inline double power_term(double t, double k, double m, bool scaled) {
+  if (!scaled) return k == 0.0 ? t : std::expm1(k * t) / k;
+  if (k == 0.0) return t * std::exp(-m);
+  return (std::exp(k * t - m) - std::exp(-m)) / k;
+}
+}  // namespace
+
+double LambdaProfile::log_rss(double lambda) const {
+  const double k1 = lambda, k2 = 2.0 - lambda;
+  double m = -std::numeric_limits<double>::infinity();
+  if (any_pos_) m = std::max({m, k1 * pos_min_, k1 * pos_max_});
+  if (any_neg_) m = std::max({m, k2 * neg_min_, k2 * neg_max_});
+  const bool scaled = m > kDirectLimit;
+  const Eigen::Index n = t_.size();
+  double* w = w_.data();
+  const double* t = t_.data();
+  if (family_ == Family::BoxCox) {
+    if (!scaled && k1 != 0.0) {
+      for (Eigen::Index i = 0; i < n; ++i) w[i] = std::expm1(k1 * t[i]);
+      w_ /= k1;
+    } else {
+      for (Eigen::Index i = 0; i < n; ++i) w[i] = power_term(t[i], k1, m, scaled);
+    }
+  } else {
+    for (Eigen::Index i = 0; i < n; ++i)
+      w[i] = neg_(i) ? -power_term(t[i], k2, m, scaled) : power_term(t[i], k1, m, scaled);
+  }
+  double rss;
+  if (design_) {
+    rss = design_->rss(w_);
+  } else {
+    const double mean = w_.mean();
+    rss = (w_.array() - mean).square().sum();
+  }
+  double out = std::log(rss);
+  if (scaled) out += 2.0 * m;
+  if (family_ == Family::BoxCox) out += 2.0 * lambda * centre_;
+  return out;
+}
+
+double LambdaProfile::loglik(double lambda) const {
+  const double n = static_cast<double>(t_.size());
+  const double jac = family_ == Family::BoxCox ? (lambda - 1.0) * n * centre_
+                                               : (lambda - 1.0) * (sum_pos_ - sum_neg_);
+  return -0.5 * n * (kLog2PiPlus1 + log_rss(lambda) - std::log(n)) + jac;
+}
+
+}  // namespace detail
+}  // namespace powerback
