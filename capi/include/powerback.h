@@ -396,6 +396,45 @@ PWB_API pwb_status pwb_box_tidwell(const double *y, const double *Z, size_t n, s
                                    double *alpha, double *se, double *score_t, double *score_p,
                                    double *history, pwb_box_tidwell_result *out);
 
+/* Options of pwb_lambda_influence. */
+typedef struct pwb_influence_options {
+  size_t struct_size; /* sizeof(pwb_influence_options) */
+  pwb_family family;  /* PWB_BOX_COX (default) or PWB_YEO_JOHNSON */
+  double lower, upper; /* lambda search range; default -3, 3 */
+  double level;       /* level of the full-data likelihood-ratio interval; default 0.95 */
+} pwb_influence_options;
+
+/* Sets struct_size and the defaults. NULL is ignored. */
+PWB_API void pwb_influence_options_init(pwb_influence_options *opt);
+
+/* The full-data estimate that pwb_lambda_influence compares against. */
+typedef struct pwb_influence_summary {
+  size_t struct_size;  /* sizeof(pwb_influence_summary) */
+  double lambda;       /* lambda-hat from every row */
+  double conf_low, conf_high; /* its likelihood-ratio interval at opt->level */
+  double loglik;       /* profile log-likelihood at lambda-hat (original scale) */
+  int at_bound;        /* 1 when lambda-hat is at a range end */
+  int converged;       /* 1 when the full-data searches met their tolerances */
+  size_t n;            /* rows */
+  size_t n_outside;    /* rows whose deletion moves lambda-hat outside [conf_low, conf_high] */
+  size_t n_loo_at_bound; /* rows whose leave-one-out lambda-hat is at a range end */
+} pwb_influence_summary;
+
+/* Leave-one-out maximum-likelihood lambda of the response y given predictors X (n-by-p,
+ * column-major, no intercept column; NULL when p is 0): for each row i, the lambda-hat of the
+ * data without row i. The design is factored once; each row's residual sum of squares comes
+ * from the full fit by the deletion identity RSS - e_i^2 / (1 - h_ii), so no design is refitted.
+ * Outputs (caller-owned, n values each; any may be NULL to skip it): loo_lambda, leverage (h_ii),
+ * outside (1 when loo_lambda[i] lies outside the full-data interval), at_bound (1 when
+ * loo_lambda[i] is at a range end). Errors: as for the full estimate (PWB_ERR_NONFINITE,
+ * PWB_ERR_DOMAIN with count and first rows, PWB_ERR_ARGUMENT for bad options or NULL y, summary),
+ * and PWB_ERR_SINGULAR when fewer than rank + 3 rows leave no residual degrees of freedom once
+ * a row is out. Thread-safe: reads only its arguments. */
+PWB_API pwb_status pwb_lambda_influence(const double *y, const double *X, size_t n, size_t p,
+                                        const pwb_influence_options *opt,
+                                        pwb_influence_summary *summary, double *loo_lambda,
+                                        double *leverage, int *outside, int *at_bound);
+
 /* @@PWB_SECTION_COMPARE@@ (declarations of this section go above this line) */
 
 

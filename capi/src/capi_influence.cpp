@@ -1,0 +1,59 @@
+// Leave-one-out lambda through the C ABI.
+#include "capi_internal.hpp"
+#include "powerback/influence.hpp"
+
+using namespace powerback;
+
+extern "C" {
+
+void pwb_influence_options_init(pwb_influence_options* opt) {
+  if (!opt) return;
+  const LambdaOptions d;
+  opt->struct_size = sizeof(pwb_influence_options);
+  opt->family = PWB_BOX_COX;
+  opt->lower = d.lower;
+  opt->upper = d.upper;
+  opt->level = d.level;
+}
+
+pwb_status pwb_lambda_influence(const double* y, const double* X, size_t n, size_t p,
+                                const pwb_influence_options* opt, pwb_influence_summary* summary,
+                                double* loo_lambda, double* leverage, int* outside, int* at_bound) {
+  return capi::guarded([&] {
+    capi::need(y, "y");
+    capi::need_array(X, n * p, "X");
+    capi::need(summary, "summary");
+    capi::need_struct(summary->struct_size, sizeof(pwb_influence_summary), "pwb_influence_summary");
+    LambdaOptions o;
+    Family fam = Family::BoxCox;
+    if (opt) {
+      capi::need_struct(opt->struct_size, sizeof(pwb_influence_options), "pwb_influence_options");
+      if (opt->family != PWB_BOX_COX && opt->family != PWB_YEO_JOHNSON)
+        throw Error(ErrorCode::Argument, "lambda influence needs family PWB_BOX_COX or PWB_YEO_JOHNSON");
+      fam = static_cast<Family>(opt->family);
+      o.lower = opt->lower;
+      o.upper = opt->upper;
+      o.level = opt->level;
+    }
+    const LambdaInfluence r = lambda_influence(y, X, n, p, fam, o);
+    summary->lambda = r.full.lambda;
+    summary->conf_low = r.full.conf_low;
+    summary->conf_high = r.full.conf_high;
+    summary->loglik = r.full.loglik;
+    summary->at_bound = r.full.at_bound ? 1 : 0;
+    summary->converged = r.full.converged ? 1 : 0;
+    summary->n = n;
+    summary->n_outside = 0;
+    summary->n_loo_at_bound = 0;
+    for (std::size_t i = 0; i < n; ++i) {
+      summary->n_outside += r.outside[i];
+      summary->n_loo_at_bound += r.at_bound[i];
+      if (loo_lambda) loo_lambda[i] = r.loo_lambda[i];
+      if (leverage) leverage[i] = r.leverage[i];
+      if (outside) outside[i] = r.outside[i];
+      if (at_bound) at_bound[i] = r.at_bound[i];
+    }
+  });
+}
+
+}  // extern "C"
