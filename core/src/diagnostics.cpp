@@ -3,10 +3,12 @@
 
 #include <boost/math/distributions/chi_squared.hpp>
 #include <boost/math/distributions/fisher_f.hpp>
+#include <algorithm>
 #include <cmath>
 #include <string>
 
 #include "powerback/errors.hpp"
+#include "powerback/normality.hpp"
 
 namespace powerback {
 
@@ -41,7 +43,8 @@ void reset(const Model& m, ResidualChecks& out) {
   if (m.intercept()) {
     const double c = g.mean();
     const double s = std::sqrt((g.array() - c).square().sum() / static_cast<double>(n));
-    if (!(s > 0.0)) return;  // constant fitted values: the added columns are aliased
+    // Constant fitted values (up to rounding): the added columns would be aliased.
+    if (!(s > 1e-10 * std::max(1.0, std::fabs(c)))) return;
     g = ((g.array() - c) / s).matrix();
   }
   aug.col(k) = g.array().square().matrix();
@@ -66,7 +69,13 @@ ResidualChecks residual_checks(const Model& model) {
   out.n = model.n();
   breusch_pagan(model, out);
   reset(model, out);
-  out.sw_note = "Shapiro-Wilk not available in this build";
+  const Eigen::VectorXd& e = model.residuals();
+  const ShapiroWilk sw = shapiro_wilk(e.data(), static_cast<std::size_t>(e.size()));
+  out.sw_computed = sw.computed;
+  out.sw_statistic = sw.computed ? sw.w : math::kNaN;
+  out.sw_p = sw.computed ? sw.p_value : math::kNaN;
+  out.sw_note = sw.note;
+  out.skewness = sample_moments(e.data(), static_cast<std::size_t>(e.size())).skewness;
   return out;
 }
 

@@ -11,7 +11,9 @@
 //     F = ((RSS0 - RSS1) / q) / (RSS1 / (n - rank1)).
 //     Ramsey, J. B. (1969). Tests for specification errors in classical linear least-squares
 //     regression analysis. JRSS B 31, 350-371.
-//   Shapiro-Wilk on the residuals and their sample skewness (from normality.hpp).
+//   Shapiro-Wilk on the residuals (Royston's algorithm) and their adjusted sample skewness G1,
+//   both from normality.hpp. Residuals of a fit are not independent, so the Shapiro-Wilk p-value
+//   is approximate.
 #pragma once
 
 #include <cstddef>
