@@ -58,6 +58,11 @@ Moments sample_moments(const double* x, std::size_t n) {
   for (std::size_t i = 0; i < n; ++i) sum += x[i];
   const double dn = static_cast<double>(n);
   m.mean = sum / dn;
+  // One refinement step removes most of the rounding of the first sum (it matters when the mean
+  // is large against the spread, where odd central moments are tiny differences).
+  double resid = 0.0;
+  for (std::size_t i = 0; i < n; ++i) resid += x[i] - m.mean;
+  m.mean += resid / dn;
   double s2 = 0.0, s3 = 0.0, s4 = 0.0;
   for (std::size_t i = 0; i < n; ++i) {
     const double d = x[i] - m.mean, d2 = d * d;
