@@ -173,6 +173,90 @@ PWB_API pwb_status pwb_transform_describe(const pwb_transform *t, int which, cha
 /* Estimating lambda: univariate and response-given-predictors, profiles                      */
 /* ------------------------------------------------------------------------------------------ */
 
+/* Options of the lambda estimators. Initialise with pwb_lambda_options_init, then change fields.
+ * lower < upper (both finite) is the search range of lambda; level in (0, 1) is the level of the
+ * likelihood-ratio confidence interval. */
+typedef struct pwb_lambda_options {
+  size_t struct_size; /* sizeof(pwb_lambda_options) */
+  double lower, upper; /* search range, default -3, 3 */
+  double level;        /* CI level, default 0.95 */
+} pwb_lambda_options;
+
+/* Sets struct_size and the defaults (-3, 3, 0.95). NULL is ignored. Thread-safe. */
+PWB_API void pwb_lambda_options_init(pwb_lambda_options *opt);
+
+/* The result of a lambda estimate. lambda maximises the profile log-likelihood
+ *   l(lambda) = -n/2 (log(2 pi) + 1 + log(RSS(lambda) / n)) + sum log |d psi(v; lambda) / dv|
+ * over [lower, upper] (RSS about the mean, or about the least-squares fit in the response case);
+ * loglik is l(lambda), on the original scale of the data. [conf_low, conf_high] holds the lambdas
+ * whose profile lies within chi2_1(level) / 2 of the maximum. A side whose profile never drops
+ * that far inside the range is open: its endpoint is the range edge and low_open / high_open is
+ * 1 (a flat profile is a flag, not an error). at_bound is 1 when lambda sits at a range edge;
+ * converged is 0 when the maximiser or a root search ran out of iterations. convenient is the
+ * value of {-2, -1, -0.5, 0, 0.5, 1, 2} nearest lambda inside the interval (ties: the smaller),
+ * or lambda rounded to 2 decimals when none lies inside. rank (intercept included) and
+ * n_aliased (design columns dropped as aliased) are 0 for the univariate estimator. */
+typedef struct pwb_lambda_result {
+  size_t struct_size; /* sizeof(pwb_lambda_result) */
+  double lambda, conf_low, conf_high, convenient, loglik;
+  int at_bound, converged;
+  size_t n;           /* observations used */
+  int low_open, high_open;
+  size_t rank, n_aliased;
+} pwb_lambda_result;
+
+/* Sets struct_size and every other field to 0 (NaN for the doubles). NULL is ignored. */
+PWB_API void pwb_lambda_result_init(pwb_lambda_result *res);
+
+/* Maximum-likelihood lambda of one variable under a normal model for psi(x; lambda), with its
+ * likelihood-ratio interval. x: n values (read only). family: PWB_BOX_COX (needs x > 0) or
+ * PWB_YEO_JOHNSON (any finite x). opt may be NULL (defaults). out: caller-owned, struct_size set.
+ * Errors: PWB_ERR_NONFINITE (NaN/Inf in x; count and first indices in the message),
+ * PWB_ERR_DOMAIN (x <= 0 with Box-Cox; count and first indices, suggests Yeo-Johnson or a shift),
+ * PWB_ERR_ARGUMENT (NULL pointers, another family, fewer than 3 values, a constant x,
+ * lower >= upper, level outside (0, 1), a small struct_size). Thread-safe (no shared state). */
+PWB_API pwb_status pwb_estimate_lambda(const double *x, size_t n, pwb_family family,
+                                       const pwb_lambda_options *opt, pwb_lambda_result *out);
+
+/* Maximum-likelihood lambda of the response y given predictors: psi(y; lambda) = [1 X] b + e with
+ * normal e. X: n-by-p, column-major, no intercept column (one is added); p may be 0. The design
+ * is factored once (Householder QR, aliased columns dropped as R's lm does; their count is in
+ * out->n_aliased) and each lambda costs one projection of the transformed y. Errors as
+ * pwb_estimate_lambda for y, plus PWB_ERR_NONFINITE for non-finite X (first row and column
+ * named) and PWB_ERR_SINGULAR when n <= rank + 1. Thread-safe. */
+PWB_API pwb_status pwb_estimate_response_lambda(const double *y, const double *X, size_t n,
+                                                size_t p, pwb_family family,
+                                                const pwb_lambda_options *opt,
+                                                pwb_lambda_result *out);
+
+/* The profile log-likelihood of lambda at each of n_grid caller-chosen values grid[k] (finite),
+ * written to loglik_out[k] (caller-owned, n_grid doubles). The univariate form takes x as
+ * pwb_estimate_lambda does; the response form takes y and X as pwb_estimate_response_lambda.
+ * Same errors as those; PWB_ERR_ARGUMENT for a non-finite grid value. Thread-safe. */
+PWB_API pwb_status pwb_lambda_profile(const double *x, size_t n, pwb_family family,
+                                      const double *grid, size_t n_grid, double *loglik_out);
+PWB_API pwb_status pwb_response_lambda_profile(const double *y, const double *X, size_t n,
+                                               size_t p, pwb_family family, const double *grid,
+                                               size_t n_grid, double *loglik_out);
+
+/* An estimate and its profile curve for plotting in one call (one factorisation of the design).
+ * As pwb_estimate_lambda / pwb_estimate_response_lambda, then n_grid (>= 2) equally spaced
+ * lambdas spanning the interval with a margin of max(0.5, half its width) on each side, clipped
+ * to [lower, upper], go to grid_out and their profile log-likelihoods to loglik_out (both
+ * caller-owned, n_grid doubles). n_grid = 101 is a good default. Thread-safe. */
+PWB_API pwb_status pwb_estimate_lambda_curve(const double *x, size_t n, pwb_family family,
+                                             const pwb_lambda_options *opt, pwb_lambda_result *out,
+                                             size_t n_grid, double *grid_out, double *loglik_out);
+PWB_API pwb_status pwb_estimate_response_lambda_curve(const double *y, const double *X, size_t n,
+                                                      size_t p, pwb_family family,
+                                                      const pwb_lambda_options *opt,
+                                                      pwb_lambda_result *out, size_t n_grid,
+                                                      double *grid_out, double *loglik_out);
+
+/* The convenient lambda of the rule above for an estimate lambda and interval [lo, hi]. Never
+ * fails; NaN input gives NaN. Thread-safe. */
+PWB_API double pwb_convenient_lambda(double lambda, double lo, double hi);
+
 /* @@PWB_SECTION_ESTIMATION@@ (declarations of this section go above this line) */
 
 
@@ -180,6 +264,130 @@ PWB_API pwb_status pwb_transform_describe(const pwb_transform *t, int which, cha
 /* ------------------------------------------------------------------------------------------ */
 /* Screening variables: skewness, kurtosis, Shapiro-Wilk, the ladder of powers                */
 /* ------------------------------------------------------------------------------------------ */
+
+/* Shapiro-Wilk W test of normality for one sample, by Royston's algorithm AS R94 (Applied
+ * Statistics 44, 1995), valid for 3 <= n <= 5000. Outside that range, or when every value is the
+ * same, the test is not computed: computed = 0, w and p_value are NaN and note says why. */
+typedef struct pwb_normality_result {
+  size_t struct_size; /* sizeof(pwb_normality_result) */
+  double w;           /* the statistic, 0 < W <= 1; NaN when not computed */
+  double p_value;     /* small values speak against normality; NaN when not computed */
+  size_t n;           /* values tested */
+  int computed;       /* 1 when w and p_value are set */
+  const char *note;   /* why not computed ("" when computed): a static string, never NULL */
+} pwb_normality_result;
+
+/* Sets struct_size and marks the result not computed (NaN statistics, note ""). */
+PWB_API void pwb_normality_result_init(pwb_normality_result *out);
+
+/* Shapiro-Wilk W and p-value of x[0..n-1] (any order) into *out, whose struct_size the caller
+ * sets first. n outside 3..5000 or a constant sample is not an error: see computed and note.
+ * Errors: PWB_ERR_NONFINITE when some x[i] is NaN or infinite (count and first indices in
+ * pwb_last_error(); remove missing values first); PWB_ERR_ARGUMENT for NULL out, NULL x with
+ * n > 0, or a struct_size too small. Thread-safe. */
+PWB_API pwb_status pwb_shapiro_wilk(const double *x, size_t n, pwb_normality_result *out);
+
+/* Sample moments: mean, standard deviation (divisor n - 1), the adjusted Fisher-Pearson
+ * skewness G1 with SE = sqrt(6n(n-1)/((n-2)(n+1)(n+3))) and z = G1/SE, and the excess kurtosis
+ * G2 with SE = sqrt(24n(n-1)^2/((n-3)(n-2)(n+3)(n+5))) and z = G2/SE. Statistics that are
+ * undefined (G1 for n < 3 or a constant sample, G2 for n < 4) are NaN. */
+typedef struct pwb_moments {
+  size_t struct_size; /* sizeof(pwb_moments) */
+  size_t n;
+  double mean, sd;
+  double skewness, skewness_se, skewness_z;
+  double kurtosis, kurtosis_se, kurtosis_z;
+} pwb_moments;
+
+/* Sets struct_size and every statistic to NaN (n = 0). */
+PWB_API void pwb_moments_init(pwb_moments *out);
+
+/* The moments of x[0..n-1] into *out (struct_size set by the caller). n = 0 gives NaN
+ * statistics. Errors as pwb_shapiro_wilk. Thread-safe. */
+PWB_API pwb_status pwb_sample_moments(const double *x, size_t n, pwb_moments *out);
+
+/* The steps of the ladder of powers. */
+typedef enum pwb_ladder_step {
+  PWB_LADDER_NONE = 0,   /* not skewed by the rule: identity */
+  PWB_LADDER_SQRT,       /* moderate skew */
+  PWB_LADDER_LOG10,      /* substantial skew */
+  PWB_LADDER_RECIPROCAL  /* severe skew (reciprocal is -1/v, increasing) */
+} pwb_ladder_step;
+
+/* How the ladder reached its recommendation. */
+typedef struct pwb_ladder_info {
+  size_t struct_size;   /* sizeof(pwb_ladder_info) */
+  pwb_ladder_step step;
+  int skewed;           /* 1 when the rule judged the variable skewed */
+  int by_size;          /* 1: judged by |G1| > 0.5 (n >= 300); 0: by |z| > 3.29 (n < 300) */
+  double skewness;      /* G1 */
+  double skewness_z;    /* G1 / SE(G1) */
+  size_t n;
+} pwb_ladder_info;
+
+/* Sets struct_size, step PWB_LADDER_NONE and the rest to zero / NaN. */
+PWB_API void pwb_ladder_info_init(pwb_ladder_info *info);
+
+/* The rule-based ladder recommendation for x[0..n-1]. Skewed when |z| > 3.29 for n < 300 (the
+ * conservative cut of applied multivariate statistics texts such as Tabachnick & Fidell), or
+ * when |G1| > 0.5 for n >= 300 (common practice); then by |G1|: <= 1 square root, <= 2 log10,
+ * above 2 reciprocal (common practice). Negative skew reflects about pivot = max + 1 first;
+ * otherwise a minimum <= 0 is shifted to 1. Writes the transform to *spec (struct_size set by the
+ * caller; identity when no step is needed), which stores pivot and shift so that new data get the
+ * same transform, and, when info is not NULL, the reasoning to *info. Errors: PWB_ERR_NONFINITE
+ * for NaN or infinite x; PWB_ERR_ARGUMENT for n < 3, a constant x, NULL spec, NULL x with n > 0
+ * or a struct_size too small. Thread-safe. */
+PWB_API pwb_status pwb_ladder_recommend(const double *x, size_t n, pwb_transform_spec *spec,
+                                        pwb_ladder_info *info);
+
+/* Options of the variable screen. */
+typedef struct pwb_screen_options {
+  size_t struct_size; /* sizeof(pwb_screen_options) */
+  double level;       /* confidence level of the lambda interval, default 0.95 */
+  double lower, upper;/* lambda search range, default -3, 3 */
+} pwb_screen_options;
+
+/* Sets struct_size and the defaults. */
+PWB_API void pwb_screen_options_init(pwb_screen_options *opt);
+
+/* The screen of one variable. "sw" fields are Shapiro-Wilk W and p (NaN when not computed; then
+ * the matching *_note says why: a static string, never NULL, "" when computed). When usable is 0
+ * (fewer than 3 values, or all identical) only n, the moments and note are meaningful. */
+typedef struct pwb_screen_result {
+  size_t struct_size; /* sizeof(pwb_screen_result) */
+  size_t n;
+  int usable;
+  double mean, sd, skewness, skewness_se, skewness_z, kurtosis, kurtosis_se, kurtosis_z;
+  double sw_w, sw_p;             /* before any transform */
+  const char *sw_note;
+  /* the ladder: its transform (identity when none), step, and the figures after it */
+  pwb_transform_spec ladder;
+  pwb_ladder_step ladder_step;
+  int ladder_by_size;
+  double ladder_skewness, ladder_sw_w, ladder_sw_p;
+  const char *ladder_sw_note;
+  /* the ML alternative: box-cox when every value is positive, else yeo-johnson; ml holds the
+   * family with lambda = ml_convenient, and the figures after it use that transform */
+  int ml_done;                   /* 0 when the estimate failed; note says why */
+  pwb_transform_spec ml;
+  double ml_lambda, ml_conf_low, ml_conf_high, ml_convenient, ml_loglik;
+  int ml_at_bound, ml_converged, ml_low_open, ml_high_open;
+  double ml_skewness, ml_sw_w, ml_sw_p;
+  const char *ml_sw_note;
+  char note[256];                /* why not usable, or why ml_done is 0; "" otherwise */
+} pwb_screen_result;
+
+/* Sets struct_size (and the nested specs' struct_size), usable = 0 and NaN figures. */
+PWB_API void pwb_screen_result_init(pwb_screen_result *out);
+
+/* Screens x[0..n-1] (finite values; remove missing values first): moments, Shapiro-Wilk, the
+ * ladder recommendation and the ML alternative, with skewness and Shapiro-Wilk after each. opt
+ * may be NULL (defaults). A variable that cannot be screened is not an error (usable = 0).
+ * Errors: PWB_ERR_NONFINITE for NaN or infinite x (count and first indices in pwb_last_error());
+ * PWB_ERR_ARGUMENT for NULL out, NULL x with n > 0, a struct_size too small, level outside
+ * (0, 1) or lower >= upper. Thread-safe. */
+PWB_API pwb_status pwb_screen_variable(const double *x, size_t n, const pwb_screen_options *opt,
+                                       pwb_screen_result *out);
 
 /* @@PWB_SECTION_SCREEN@@ (declarations of this section go above this line) */
 
@@ -434,6 +642,35 @@ PWB_API pwb_status pwb_lambda_influence(const double *y, const double *X, size_t
                                         const pwb_influence_options *opt,
                                         pwb_influence_summary *summary, double *loo_lambda,
                                         double *leverage, int *outside, int *at_bound);
+
+/* Repeated k-fold assignment for cross-validation: fold[r * n + i] (1..folds) is the fold of row
+ * i in repeat r, for r < repeats. Each repeat shuffles the rows with a generator seeded from seed
+ * and r, and deals them in turn to the folds, so fold sizes differ by at most one. The same seed
+ * gives the same folds on every platform. fold: caller-owned, n * repeats values.
+ * Errors: PWB_ERR_ARGUMENT for a NULL fold, folds < 2, repeats < 1, or fewer rows than folds
+ * (n < folds). Thread-safe. */
+PWB_API pwb_status pwb_cv_folds(size_t n, int folds, int repeats, unsigned long long seed,
+                                int *fold);
+
+/* Scores of predictions of held-out rows, in the units of y. */
+typedef struct pwb_holdout_scores {
+  size_t struct_size; /* sizeof(pwb_holdout_scores) */
+  double rmse;        /* sqrt(mean (y - fit)^2) */
+  double mae;         /* mean |y - fit| */
+  double r2;          /* 1 - SSE / SST, SST about the mean of these y; NaN when y is constant */
+  double coverage;    /* share of rows with lwr <= y <= upr; NaN without an interval */
+  double mean_width;  /* mean (upr - lwr); NaN without an interval */
+  size_t n;           /* rows scored */
+  size_t n_nonfinite; /* rows whose fit or interval end is not finite (the scores then are not
+                         finite either: such rows are never dropped) */
+} pwb_holdout_scores;
+
+/* Scores n held-out responses y against predictions fit and, when both are given, the interval
+ * [lwr, upr] (lwr and upr may both be NULL). All arrays caller-owned, n values. Errors:
+ * PWB_ERR_ARGUMENT for n == 0, NULL y, fit or out, only one interval end, a struct_size too
+ * small; PWB_ERR_NONFINITE for a non-finite y (count and first rows named). Thread-safe. */
+PWB_API pwb_status pwb_holdout_score(const double *y, const double *fit, const double *lwr,
+                                     const double *upr, size_t n, pwb_holdout_scores *out);
 
 /* @@PWB_SECTION_COMPARE@@ (declarations of this section go above this line) */
 

@@ -41,6 +41,8 @@ const char* normality_skip_text(NormalitySkip why) noexcept {
     case NormalitySkip::TooMany:
       return "more than 5000 values: the Shapiro-Wilk approximation is valid only up to 5000";
     case NormalitySkip::Constant: return "all values are identical: no test of shape is possible";
+    case NormalitySkip::Overflow:
+      return "the transformed values overflow double precision: no test is possible";
     default: return "";
   }
 }

@@ -16,7 +16,7 @@
 namespace powerback {
 
 // Why a Shapiro-Wilk test was not computed.
-enum class NormalitySkip { None = 0, TooFew, TooMany, Constant };
+enum class NormalitySkip { None = 0, TooFew, TooMany, Constant, Overflow };
 
 // The fixed text for a skip reason ("" for None); a static string.
 const char* normality_skip_text(NormalitySkip why) noexcept;
