@@ -105,6 +105,7 @@ LambdaEstimate search(const detail::LambdaProfile& prof, const LambdaOptions& op
 
 double convenient_lambda(double lambda, double lo, double hi) {
   static const double kValues[] = {-2.0, -1.0, -0.5, 0.0, 0.5, 1.0, 2.0};
+  if (std::isnan(lambda) || std::isnan(lo) || std::isnan(hi)) return math::kNaN;
   double best = math::kNaN;
   for (double v : kValues)
     if (v >= lo && v <= hi && (std::isnan(best) || std::fabs(v - lambda) < std::fabs(best - lambda)))

@@ -1,0 +1,169 @@
+// The lambda estimators of the C ABI: options and result structs, estimates, profile curves.
+#include <vector>
+
+#include "capi_internal.hpp"
+#include "powerback/lambda.hpp"
+
+using namespace powerback;
+
+namespace {
+
+Family lambda_family(pwb_family f) {
+  if (f != PWB_BOX_COX && f != PWB_YEO_JOHNSON)
+    throw Error(ErrorCode::Argument, "lambda can be estimated for PWB_BOX_COX and "
+                                     "PWB_YEO_JOHNSON only; got family code " +
+                                         std::to_string(static_cast<int>(f)));
+  return static_cast<Family>(f);
+}
+
+LambdaOptions options_of(const pwb_lambda_options* opt) {
+  LambdaOptions o;
+  if (!opt) return o;
+  capi::need_struct(opt->struct_size, sizeof(pwb_lambda_options), "pwb_lambda_options");
+  o.lower = opt->lower;
+  o.upper = opt->upper;
+  o.level = opt->level;
+  return o;
+}
+
+void check_out(const pwb_lambda_result* out) {
+  capi::need(out, "out");
+  capi::need_struct(out->struct_size, sizeof(pwb_lambda_result), "pwb_lambda_result");
+}
+
+void write_result(const LambdaEstimate& e, pwb_lambda_result* out) {
+  out->lambda = e.lambda;
+  out->conf_low = e.conf_low;
+  out->conf_high = e.conf_high;
+  out->convenient = e.convenient;
+  out->loglik = e.loglik;
+  out->at_bound = e.at_bound ? 1 : 0;
+  out->converged = e.converged ? 1 : 0;
+  out->n = e.n;
+  out->low_open = e.low_open ? 1 : 0;
+  out->high_open = e.high_open ? 1 : 0;
+  out->rank = e.rank;
+  out->n_aliased = e.aliased.size();
+}
+
+void write_curve(const std::vector<double>& grid, const std::vector<double>& ll, double* grid_out,
+                 double* loglik_out) {
+  for (std::size_t i = 0; i < grid.size(); ++i) {
+    grid_out[i] = grid[i];
+    loglik_out[i] = ll[i];
+  }
+}
+
+void check_curve(std::size_t n_grid, const double* grid_out, const double* loglik_out) {
+  if (n_grid < 2) throw Error(ErrorCode::Argument, "n_grid must be at least 2");
+  capi::need(grid_out, "grid_out");
+  capi::need(loglik_out, "loglik_out");
+}
+
+}  // namespace
+
+extern "C" {
+
+void pwb_lambda_options_init(pwb_lambda_options* opt) {
+  if (!opt) return;
+  const LambdaOptions d;
+  opt->struct_size = sizeof(pwb_lambda_options);
+  opt->lower = d.lower;
+  opt->upper = d.upper;
+  opt->level = d.level;
+}
+
+void pwb_lambda_result_init(pwb_lambda_result* res) {
+  if (!res) return;
+  res->struct_size = sizeof(pwb_lambda_result);
+  res->lambda = res->conf_low = res->conf_high = res->convenient = res->loglik = math::kNaN;
+  res->at_bound = res->converged = res->low_open = res->high_open = 0;
+  res->n = res->rank = res->n_aliased = 0;
+}
+
+pwb_status pwb_estimate_lambda(const double* x, size_t n, pwb_family family,
+                               const pwb_lambda_options* opt, pwb_lambda_result* out) {
+  return capi::guarded([&] {
+    check_out(out);
+    capi::need_array(x, n, "x");
+    write_result(estimate_lambda(x, n, lambda_family(family), options_of(opt)), out);
+  });
+}
+
+pwb_status pwb_estimate_response_lambda(const double* y, const double* X, size_t n, size_t p,
+                                        pwb_family family, const pwb_lambda_options* opt,
+                                        pwb_lambda_result* out) {
+  return capi::guarded([&] {
+    check_out(out);
+    capi::need_array(y, n, "y");
+    capi::need_array(X, n * p, "X");
+    write_result(estimate_response_lambda(y, X, n, p, lambda_family(family), options_of(opt)), out);
+  });
+}
+
+pwb_status pwb_lambda_profile(const double* x, size_t n, pwb_family family, const double* grid,
+                              size_t n_grid, double* loglik_out) {
+  return capi::guarded([&] {
+    capi::need_array(x, n, "x");
+    capi::need_array(grid, n_grid, "grid");
+    capi::need_array(loglik_out, n_grid, "loglik_out");
+    const std::vector<double> ll = lambda_profile(x, n, lambda_family(family), grid, n_grid);
+    for (std::size_t i = 0; i < n_grid; ++i) loglik_out[i] = ll[i];
+  });
+}
+
+pwb_status pwb_response_lambda_profile(const double* y, const double* X, size_t n, size_t p,
+                                       pwb_family family, const double* grid, size_t n_grid,
+                                       double* loglik_out) {
+  return capi::guarded([&] {
+    capi::need_array(y, n, "y");
+    capi::need_array(X, n * p, "X");
+    capi::need_array(grid, n_grid, "grid");
+    capi::need_array(loglik_out, n_grid, "loglik_out");
+    const Family f = lambda_family(family);
+    const LeastSquares design(X, n, p, true);
+    const std::vector<double> ll = response_lambda_profile(y, design, f, grid, n_grid);
+    for (std::size_t i = 0; i < n_grid; ++i) loglik_out[i] = ll[i];
+  });
+}
+
+pwb_status pwb_estimate_lambda_curve(const double* x, size_t n, pwb_family family,
+                                     const pwb_lambda_options* opt, pwb_lambda_result* out,
+                                     size_t n_grid, double* grid_out, double* loglik_out) {
+  return capi::guarded([&] {
+    check_out(out);
+    capi::need_array(x, n, "x");
+    check_curve(n_grid, grid_out, loglik_out);
+    const Family f = lambda_family(family);
+    const LambdaEstimate e = estimate_lambda(x, n, f, options_of(opt));
+    const std::vector<double> grid = profile_grid(e, n_grid);
+    write_curve(grid, lambda_profile(x, n, f, grid.data(), n_grid), grid_out, loglik_out);
+    write_result(e, out);
+  });
+}
+
+pwb_status pwb_estimate_response_lambda_curve(const double* y, const double* X, size_t n, size_t p,
+                                              pwb_family family, const pwb_lambda_options* opt,
+                                              pwb_lambda_result* out, size_t n_grid,
+                                              double* grid_out, double* loglik_out) {
+  return capi::guarded([&] {
+    check_out(out);
+    capi::need_array(y, n, "y");
+    capi::need_array(X, n * p, "X");
+    check_curve(n_grid, grid_out, loglik_out);
+    const Family f = lambda_family(family);
+    const LambdaOptions o = options_of(opt);
+    const LeastSquares design(X, n, p, true);
+    const LambdaEstimate e = estimate_response_lambda(y, design, f, o);
+    const std::vector<double> grid = profile_grid(e, n_grid);
+    write_curve(grid, response_lambda_profile(y, design, f, grid.data(), n_grid), grid_out,
+                loglik_out);
+    write_result(e, out);
+  });
+}
+
+double pwb_convenient_lambda(double lambda, double lo, double hi) {
+  return convenient_lambda(lambda, lo, hi);
+}
+
+}  // extern "C"
