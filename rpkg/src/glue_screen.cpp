@@ -1,0 +1,126 @@
+// Rcpp glue for the normality statistics, the ladder of powers and the variable screen: thin
+// wrappers over pwb_shapiro_wilk, pwb_sample_moments, pwb_ladder_recommend and
+// pwb_screen_variable of powerback.h. Callers pass finite values only (R removes NA first).
+#include "glue_common.h"
+
+#include <string>
+
+namespace {
+
+Rcpp::List spec_to_list(const pwb_transform_spec& s) {
+  return Rcpp::List::create(Rcpp::Named("family") = std::string(pwb_family_name(s.family)),
+                            Rcpp::Named("lambda") = rpwb::nan_to_na(s.lambda),
+                            Rcpp::Named("shift") = s.shift,
+                            Rcpp::Named("reflect") = s.reflect != 0,
+                            Rcpp::Named("pivot") = rpwb::nan_to_na(s.pivot));
+}
+
+const char* step_name(pwb_ladder_step s) {
+  switch (s) {
+    case PWB_LADDER_SQRT: return "sqrt";
+    case PWB_LADDER_LOG10: return "log10";
+    case PWB_LADDER_RECIPROCAL: return "reciprocal";
+    default: return "none";
+  }
+}
+
+}  // namespace
+
+// Shapiro-Wilk of x: list(statistic, p_value, n, computed, note); NA statistics when not computed.
+// [[Rcpp::export]]
+Rcpp::List rpwb_shapiro_wilk(Rcpp::NumericVector x) {
+  pwb_normality_result r;
+  pwb_normality_result_init(&r);
+  rpwb::check(pwb_shapiro_wilk(x.begin(), static_cast<size_t>(x.size()), &r));
+  return Rcpp::List::create(Rcpp::Named("statistic") = rpwb::nan_to_na(r.w),
+                            Rcpp::Named("p_value") = rpwb::nan_to_na(r.p_value),
+                            Rcpp::Named("n") = static_cast<double>(r.n),
+                            Rcpp::Named("computed") = r.computed != 0,
+                            Rcpp::Named("note") = std::string(r.note));
+}
+
+// Sample moments of x: list(n, mean, sd, skewness, skewness_se, skewness_z, kurtosis,
+// kurtosis_se, kurtosis_z); NA where undefined.
+// [[Rcpp::export]]
+Rcpp::List rpwb_moments(Rcpp::NumericVector x) {
+  pwb_moments m;
+  pwb_moments_init(&m);
+  rpwb::check(pwb_sample_moments(x.begin(), static_cast<size_t>(x.size()), &m));
+  using rpwb::nan_to_na;
+  return Rcpp::List::create(
+      Rcpp::Named("n") = static_cast<double>(m.n), Rcpp::Named("mean") = nan_to_na(m.mean),
+      Rcpp::Named("sd") = nan_to_na(m.sd), Rcpp::Named("skewness") = nan_to_na(m.skewness),
+      Rcpp::Named("skewness_se") = nan_to_na(m.skewness_se),
+      Rcpp::Named("skewness_z") = nan_to_na(m.skewness_z),
+      Rcpp::Named("kurtosis") = nan_to_na(m.kurtosis),
+      Rcpp::Named("kurtosis_se") = nan_to_na(m.kurtosis_se),
+      Rcpp::Named("kurtosis_z") = nan_to_na(m.kurtosis_z));
+}
+
+// The ladder recommendation for x: list(spec, step, skewed, by_size, skewness, skewness_z, n).
+// [[Rcpp::export]]
+Rcpp::List rpwb_ladder(Rcpp::NumericVector x) {
+  pwb_transform_spec s;
+  pwb_transform_spec_init(&s);
+  pwb_ladder_info info;
+  pwb_ladder_info_init(&info);
+  rpwb::check(pwb_ladder_recommend(x.begin(), static_cast<size_t>(x.size()), &s, &info));
+  return Rcpp::List::create(Rcpp::Named("spec") = spec_to_list(s),
+                            Rcpp::Named("step") = std::string(step_name(info.step)),
+                            Rcpp::Named("skewed") = info.skewed != 0,
+                            Rcpp::Named("by_size") = info.by_size != 0,
+                            Rcpp::Named("skewness") = info.skewness,
+                            Rcpp::Named("skewness_z") = info.skewness_z,
+                            Rcpp::Named("n") = static_cast<double>(info.n));
+}
+
+// The screen of one variable, flattened into a list of scalars plus the two transform specs
+// (NULL when absent).
+// [[Rcpp::export]]
+Rcpp::List rpwb_screen_variable(Rcpp::NumericVector x, double level, double lower, double upper) {
+  pwb_screen_options opt;
+  pwb_screen_options_init(&opt);
+  opt.level = level;
+  opt.lower = lower;
+  opt.upper = upper;
+  pwb_screen_result r;
+  pwb_screen_result_init(&r);
+  rpwb::check(pwb_screen_variable(x.begin(), static_cast<size_t>(x.size()), &opt, &r));
+  using rpwb::nan_to_na;
+  Rcpp::List moments = Rcpp::List::create(
+      Rcpp::Named("n") = static_cast<double>(r.n), Rcpp::Named("mean") = nan_to_na(r.mean),
+      Rcpp::Named("sd") = nan_to_na(r.sd), Rcpp::Named("skewness") = nan_to_na(r.skewness),
+      Rcpp::Named("skewness_se") = nan_to_na(r.skewness_se),
+      Rcpp::Named("skewness_z") = nan_to_na(r.skewness_z),
+      Rcpp::Named("kurtosis") = nan_to_na(r.kurtosis),
+      Rcpp::Named("kurtosis_se") = nan_to_na(r.kurtosis_se),
+      Rcpp::Named("kurtosis_z") = nan_to_na(r.kurtosis_z));
+  Rcpp::List sw = Rcpp::List::create(
+      Rcpp::Named("w") = nan_to_na(r.sw_w), Rcpp::Named("p") = nan_to_na(r.sw_p),
+      Rcpp::Named("note") = std::string(r.sw_note),
+      Rcpp::Named("ladder_w") = nan_to_na(r.ladder_sw_w),
+      Rcpp::Named("ladder_p") = nan_to_na(r.ladder_sw_p),
+      Rcpp::Named("ladder_note") = std::string(r.ladder_sw_note),
+      Rcpp::Named("ml_w") = nan_to_na(r.ml_sw_w), Rcpp::Named("ml_p") = nan_to_na(r.ml_sw_p),
+      Rcpp::Named("ml_note") = std::string(r.ml_sw_note));
+  Rcpp::List ladder = Rcpp::List::create(
+      Rcpp::Named("spec") = r.usable ? Rcpp::RObject(spec_to_list(r.ladder)) : R_NilValue,
+      Rcpp::Named("step") = r.usable ? std::string(step_name(r.ladder_step)) : std::string(""),
+      Rcpp::Named("by_size") = r.ladder_by_size != 0,
+      Rcpp::Named("skewness") = nan_to_na(r.ladder_skewness));
+  Rcpp::List ml = Rcpp::List::create(
+      Rcpp::Named("done") = r.ml_done != 0,
+      Rcpp::Named("spec") = r.ml_done ? Rcpp::RObject(spec_to_list(r.ml)) : R_NilValue,
+      Rcpp::Named("lambda") = nan_to_na(r.ml_lambda),
+      Rcpp::Named("conf_low") = nan_to_na(r.ml_conf_low),
+      Rcpp::Named("conf_high") = nan_to_na(r.ml_conf_high),
+      Rcpp::Named("convenient") = nan_to_na(r.ml_convenient),
+      Rcpp::Named("loglik") = nan_to_na(r.ml_loglik),
+      Rcpp::Named("at_bound") = r.ml_at_bound != 0, Rcpp::Named("converged") = r.ml_converged != 0,
+      Rcpp::Named("low_open") = r.ml_low_open != 0, Rcpp::Named("high_open") = r.ml_high_open != 0,
+      Rcpp::Named("skewness") = nan_to_na(r.ml_skewness));
+  return Rcpp::List::create(Rcpp::Named("usable") = r.usable != 0,
+                            Rcpp::Named("note") = std::string(r.note),
+                            Rcpp::Named("moments") = moments, Rcpp::Named("sw") = sw,
+                            Rcpp::Named("ladder") = ladder, Rcpp::Named("ml") = ml);
+}

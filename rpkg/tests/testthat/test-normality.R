@@ -1,0 +1,90 @@
+# Normality statistics through the glue: Shapiro-Wilk and the sample moments.
+
+test_that("Shapiro-Wilk equals stats::shapiro.test on varied samples", {
+  # Source: base R stats::shapiro.test, computed here at test time. Tolerance 1e-6 absolute on
+  # W and p (the brief's figure); both implement the same published approximation.
+  set.seed(11)
+  samples <- list(c(2.1, 3.4, 7.9), c(5, 5, 6), c(1.2, 1.9, 2.2, 6.5), rexp(5), rnorm(6),
+                  round(rnorm(9, 0, 2)), rgamma(11, 2), rgamma(12, 2), rnorm(20),
+                  rlnorm(20), rpois(30, 2), runif(77), rt(350, 3), rnorm(5000),
+                  rchisq(5000, 3))
+  for (x in samples) {
+    got <- powerback:::rpwb_shapiro_wilk(x)
+    want <- stats::shapiro.test(x)
+    expect_true(got$computed)
+    expect_equal(got$n, length(x))
+    expect_equal(got$statistic, unname(want$statistic), tolerance = 1e-6, scale = 1)
+    expect_equal(got$p_value, want$p.value, tolerance = 1e-6, scale = 1)
+  }
+})
+
+test_that("Shapiro-Wilk matches the stored shapiro.test fixture used by the C++ tests", {
+  # Source: stats::shapiro.test, stored by tests/fixtures/make_r_shapiro.R (r_shapiro.csv).
+  # Tolerance 1e-9 on W and p: the same arithmetic as the C++ test.
+  ref <- utils::read.csv(fixture_path("r_shapiro.csv"), stringsAsFactors = FALSE)
+  expect_equal(nrow(ref), 17L)
+  for (i in seq_len(nrow(ref))) {
+    x <- as.numeric(strsplit(ref$values[i], " ", fixed = TRUE)[[1]])
+    got <- powerback:::rpwb_shapiro_wilk(x)
+    expect_equal(got$statistic, ref$w[i], tolerance = 1e-9, scale = 1)
+    expect_equal(got$p_value, ref$p[i], tolerance = 1e-9, scale = 1)
+  }
+})
+
+test_that("Shapiro-Wilk outside 3..5000 values or on constant data is skipped, not faked", {
+  # shapiro.test itself refuses these samples (its error text is from base R).
+  expect_error(stats::shapiro.test(c(1, 2)), "sample size")
+  two <- powerback:::rpwb_shapiro_wilk(c(1, 2))
+  expect_false(two$computed)
+  expect_true(is.na(two$statistic) && is.na(two$p_value))
+  expect_match(two$note, "fewer than 3")
+  big <- powerback:::rpwb_shapiro_wilk(sin(seq_len(5001)))
+  expect_false(big$computed)
+  expect_match(big$note, "5000")
+  flat <- powerback:::rpwb_shapiro_wilk(rep(3, 8))
+  expect_false(flat$computed)
+  expect_match(flat$note, "identical")
+})
+
+test_that("moments equal scipy.stats skew and kurtosis with bias=False", {
+  # Source: scipy.stats.skew(bias=False) / scipy.stats.kurtosis(bias=False), stored by
+  # tests/fixtures/make_scipy_moments.py (scipy_moments.csv). Tolerance 1e-6 relative: scipy's
+  # own rounding of the mean costs about 4e-7 on the offset sample (see the C++ test).
+  ref <- utils::read.csv(fixture_path("scipy_moments.csv"), stringsAsFactors = FALSE)
+  expect_equal(nrow(ref), 9L)
+  for (i in seq_len(nrow(ref))) {
+    x <- as.numeric(strsplit(ref$values[i], " ", fixed = TRUE)[[1]])
+    m <- powerback:::rpwb_moments(x)
+    expect_equal(m$skewness, ref$skew[i], tolerance = 1e-6)
+    expect_equal(m$kurtosis, ref$kurtosis[i], tolerance = 1e-6)
+  }
+})
+
+test_that("moment standard errors and z follow their formulas, and mean and sd equal base R", {
+  # SE formulas from the issue (Joanes & Gill 1998); mean and sd against base R mean() and
+  # sd(). Tolerance 1e-12: arithmetic only.
+  x <- c(1, 2, 2, 3, 3, 3, 4, 4, 5, 9, 14)
+  n <- length(x)
+  m <- powerback:::rpwb_moments(x)
+  expect_equal(m$mean, mean(x), tolerance = 1e-12)
+  expect_equal(m$sd, stats::sd(x), tolerance = 1e-12)
+  expect_equal(m$skewness_se, sqrt(6 * n * (n - 1) / ((n - 2) * (n + 1) * (n + 3))),
+               tolerance = 1e-12)
+  expect_equal(m$kurtosis_se,
+               sqrt(24 * n * (n - 1)^2 / ((n - 3) * (n - 2) * (n + 3) * (n + 5))),
+               tolerance = 1e-12)
+  expect_equal(m$skewness_z, m$skewness / m$skewness_se, tolerance = 1e-12)
+  expect_true(is.na(powerback:::rpwb_moments(c(1, 2, 4))$kurtosis))  # G2 needs 4 values
+})
+
+test_that("the R helpers leave out missing values, count them, and name infinite rows", {
+  x <- c(3.2, NA, 1.1, 4.8, 2.2, NA, 9.9)
+  sw <- powerback:::pwb_shapiro_wilk(x)
+  expect_equal(sw$n_missing, 2)
+  expect_equal(sw$n, 5)
+  expect_equal(sw$statistic, unname(stats::shapiro.test(x)$statistic), tolerance = 1e-6,
+               scale = 1)
+  expect_error(powerback:::pwb_moments(c(1, Inf, 2, -Inf), "income"),
+               "`income` has 2 infinite values at rows 2, 4")
+  expect_error(powerback:::rpwb_shapiro_wilk(c(1, NaN, 3)), "NaN or infinite at index 1")
+})
