@@ -104,13 +104,13 @@ Rcpp::List rpwb_screen_variable(Rcpp::NumericVector x, double level, double lowe
       Rcpp::Named("ml_w") = nan_to_na(r.ml_sw_w), Rcpp::Named("ml_p") = nan_to_na(r.ml_sw_p),
       Rcpp::Named("ml_note") = std::string(r.ml_sw_note));
   Rcpp::List ladder = Rcpp::List::create(
-      Rcpp::Named("spec") = r.usable ? Rcpp::RObject(spec_to_list(r.ladder)) : R_NilValue,
+      Rcpp::Named("spec") = r.usable ? Rcpp::RObject(spec_to_list(r.ladder)) : Rcpp::RObject(R_NilValue),
       Rcpp::Named("step") = r.usable ? std::string(step_name(r.ladder_step)) : std::string(""),
       Rcpp::Named("by_size") = r.ladder_by_size != 0,
       Rcpp::Named("skewness") = nan_to_na(r.ladder_skewness));
   Rcpp::List ml = Rcpp::List::create(
       Rcpp::Named("done") = r.ml_done != 0,
-      Rcpp::Named("spec") = r.ml_done ? Rcpp::RObject(spec_to_list(r.ml)) : R_NilValue,
+      Rcpp::Named("spec") = r.ml_done ? Rcpp::RObject(spec_to_list(r.ml)) : Rcpp::RObject(R_NilValue),
       Rcpp::Named("lambda") = nan_to_na(r.ml_lambda),
       Rcpp::Named("conf_low") = nan_to_na(r.ml_conf_low),
       Rcpp::Named("conf_high") = nan_to_na(r.ml_conf_high),
