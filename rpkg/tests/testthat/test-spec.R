@@ -67,7 +67,7 @@ test_that("malformed files are refused with the line and column", {
   put(c("powerback-spec 3", "end"))
   expect_error(read_transforms(path), "format version 3, newer than the version 1")
   put(c("powerback-spec 1", "transform name=\"x\" family=log shift=Inf reflect=false", "end"))
-  expect_error(read_transforms(path), "line 2, column 36: NaN and infinite values")
+  expect_error(read_transforms(path), "line 2, column 37: NaN and infinite values")
   put(c("powerback-spec 1", "transform name=\"x\" family=log shift=0 reflect=false"))
   expect_error(read_transforms(path), "the end line is missing: the spec is truncated")
   put(c("powerback-spec 1", "transform name=\"x\" family=log shift=0 shift=1 reflect=false", "end"))
