@@ -2,7 +2,7 @@
 #include <algorithm>
 #include <cmath>
 
-#include "lambda_profile.hpp"
+#include "powerback/lambda.hpp"
 #include "powerback/errors.hpp"
 #include "powerback/lambda.hpp"
 

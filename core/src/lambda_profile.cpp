@@ -1,6 +1,6 @@
 // The profile log-likelihood of a power-family lambda: input checks, the once-only preparation
 // of the data and the overflow-free evaluation at one lambda.
-#include "lambda_profile.hpp"
+#include "powerback/lambda.hpp"
 
 #include <algorithm>
 #include <cmath>

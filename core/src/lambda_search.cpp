@@ -7,7 +7,7 @@
 #include <cmath>
 #include <cstdint>
 
-#include "lambda_profile.hpp"
+#include "powerback/lambda.hpp"
 #include "powerback/errors.hpp"
 #include "powerback/lambda.hpp"
 #include "powerback/transform.hpp"
