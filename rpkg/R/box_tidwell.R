@@ -1,0 +1,129 @@
+#' Box-Tidwell powers of positive predictors
+#'
+#' Estimates the powers \eqn{\alpha_j} that make the model
+#' \eqn{y = b_0 + \sum_j b_j x_j^{\alpha_j} + \ldots + e} linear in each positive predictor
+#' \eqn{x_j}, by the iteration of Box and Tidwell (1962): starting from \eqn{\alpha = 1}, the
+#' power is updated by \eqn{g_j / b_j}, where \eqn{b_j} is the coefficient of
+#' \eqn{x_j^{\alpha_j}} and \eqn{g_j} that of the added column \eqn{x_j^{\alpha_j} \log x_j},
+#' until every power changes by less than `tol` (or `max_iter` updates are made: then
+#' `converged` is `FALSE`). Other terms of the formula stay in the model as they are.
+#'
+#' For each variable the score test of power 1 is the t statistic of the added column
+#' \eqn{x_j \log x_j} in the model with every Box-Tidwell variable linear (one added column at
+#' a time); a small p-value says the straight line in \eqn{x_j} misses curvature. Standard errors
+#' come from the linearised fit at the final powers, so the intervals are Wald intervals.
+#'
+#' The suggested transform of each variable is `"log"` when \eqn{|\hat\alpha| < 0.25} and 0 lies
+#' inside the interval (the power family approaches the log as the power goes to 0), and
+#' otherwise `"power"` with the estimated power. Feed them to `lm_transformed()` through its
+#' `predictors` argument.
+#'
+#' Cautions: a power of a predictor changes what its coefficient means (an effect per unit of
+#' \eqn{x^\alpha}, not per unit of \eqn{x}); the estimate is only as good as the rest of the
+#' model; and the result informs, but does not replace, domain knowledge and professional
+#' judgement about the form of the relationship.
+#'
+#' @param object a model formula (with `data`) or a fitted `lm`.
+#' @param data a data frame with the variables of the formula (for an `lm`, taken from its call
+#'   when `NULL`). Rows with missing values are handled by the usual `na.action`.
+#' @param vars names of the predictors whose powers are estimated; each must enter the formula
+#'   as a plain term and be positive. `NULL` takes every numeric plain-term predictor.
+#' @param max_iter the most updates of the powers.
+#' @param tol convergence tolerance on the change of the powers.
+#' @param level confidence level of the Wald intervals.
+#' @return An object of class `pwb_box_tidwell`: a list with `table` (one row per variable:
+#'   `variable`, `power`, `se`, `conf_low`, `conf_high`, `score_t`, `score_p`, `transform`),
+#'   `transforms` (named list of `pwb_transform`), `iterations`, `converged`, `max_iter`, `tol`,
+#'   `last_change`, `history` (powers after each update, one column per update, the first all 1),
+#'   `score_df`, `n`, `level` and `formula`.
+#' @references Box, G. E. P. and Tidwell, P. W. (1962). Transformation of the independent
+#'   variables. Technometrics 4, 531-550.
+#' @examples
+#' set.seed(1)
+#' d <- data.frame(x = runif(100, 1, 10), z = rnorm(100))
+#' d$y <- 2 + 3 * sqrt(d$x) + 0.5 * d$z + rnorm(100, sd = 0.2)
+#' bt <- box_tidwell(y ~ x + z, d, vars = "x")
+#' bt
+#' bt$transforms$x
+#' @export
+box_tidwell <- function(object, data = NULL, vars = NULL, max_iter = 50L, tol = 1e-6,
+                        level = 0.95) {
+  pwb_cmp_check_level(level)
+  if (!is.numeric(max_iter) || length(max_iter) != 1L || is.na(max_iter) || max_iter < 1)
+    stop("`max_iter` must be a whole number >= 1", call. = FALSE)
+  if (!is.numeric(tol) || length(tol) != 1L || is.na(tol) || tol <= 0)
+    stop("`tol` must be a positive number", call. = FALSE)
+  fr <- pwb_cmp_frame(object, data, "box_tidwell")
+  X <- pwb_cmp_design(fr, "box_tidwell")
+  labels <- attr(fr$terms, "term.labels")
+  plain <- labels[vapply(labels, function(v) v %in% names(fr$mf) && is.numeric(fr$mf[[v]]) &&
+                                               !is.matrix(fr$mf[[v]]), logical(1))]
+  if (is.null(vars)) {
+    vars <- plain
+    if (length(vars) == 0L)
+      stop("the formula has no numeric plain-term predictor for Box-Tidwell powers", call. = FALSE)
+  }
+  if (!is.character(vars) || anyNA(vars) || length(vars) == 0L)
+    stop("`vars` must name predictors of the formula", call. = FALSE)
+  bad <- setdiff(vars, plain)
+  if (length(bad) > 0L)
+    stop(sprintf("`vars` must name numeric predictors entering the formula as plain terms; not: %s",
+                 paste(bad, collapse = ", ")), call. = FALSE)
+  for (v in vars) {
+    nonpos <- which(fr$mf[[v]] <= 0)
+    if (length(nonpos) > 0L)
+      stop(sprintf(paste0("Box-Tidwell powers need positive values: `%s` has %d %s <= 0, at %s %s:",
+                          " shift it (e.g. %s + c with c > %s) or leave it out of `vars`"),
+                   v, length(nonpos), pwb_plural(length(nonpos), "value"),
+                   pwb_plural(length(nonpos), "row"), pwb_format_rows(fr$rows[nonpos]), v,
+                   format(-min(fr$mf[[v]]), digits = 4)), call. = FALSE)
+  }
+  Z <- X[, setdiff(colnames(X), vars), drop = FALSE]
+  res <- rpwb_box_tidwell(fr$y, Z, X[, vars, drop = FALSE], as.integer(max_iter), tol)
+  zq <- stats::qnorm(0.5 + level / 2)
+  lo <- res$alpha - zq * res$se
+  hi <- res$alpha + zq * res$se
+  use_log <- abs(res$alpha) < 0.25 & lo <= 0 & hi >= 0
+  transforms <- lapply(seq_along(vars), function(j) {
+    if (use_log[j]) new_transform("log") else new_transform("power", lambda = res$alpha[j])
+  })
+  names(transforms) <- vars
+  table <- data.frame(variable = vars, power = res$alpha, se = res$se, conf_low = lo,
+                      conf_high = hi, score_t = res$score_t, score_p = res$score_p,
+                      transform = vapply(transforms, format, character(1)),
+                      stringsAsFactors = FALSE)
+  rownames(table) <- NULL
+  history <- res$history[, seq_len(res$iterations + 1L), drop = FALSE]
+  history <- history[, colSums(is.na(history)) == 0L, drop = FALSE]
+  dimnames(history) <- list(vars, paste0("update", seq_len(ncol(history)) - 1L))
+  structure(list(table = table, transforms = transforms, iterations = res$iterations,
+                 converged = res$converged, max_iter = as.integer(max_iter), tol = tol,
+                 last_change = res$last_change, history = history, score_df = res$score_df,
+                 n = length(fr$y), level = level, formula = stats::formula(fr$terms)),
+            class = "pwb_box_tidwell")
+}
+
+#' @export
+print.pwb_box_tidwell <- function(x, digits = 4, ...) {
+  cat("<pwb_box_tidwell> Box-Tidwell powers for ", deparse1(x$formula), " (n = ", x$n, ")\n",
+      sep = "")
+  tab <- x$table
+  num <- c("power", "se", "conf_low", "conf_high", "score_t")
+  tab[num] <- lapply(tab[num], signif, digits = digits)
+  tab$score_p <- format.pval(tab$score_p, digits = 3)
+  names(tab)[names(tab) == "conf_low"] <- sprintf("lower %g%%", 100 * x$level)
+  names(tab)[names(tab) == "conf_high"] <- sprintf("upper %g%%", 100 * x$level)
+  print(tab, row.names = FALSE, ...)
+  cat(sprintf("score test of power 1: t on %g df; ", x$score_df))
+  if (x$converged) {
+    cat(sprintf("converged in %d updates (tol %g)\n", x$iterations, x$tol))
+  } else {
+    cat(sprintf("NOT converged after %d updates (last change %.3g, tol %g): treat the powers as rough\n",
+                x$iterations, x$last_change, x$tol))
+  }
+  cat("A power changes what a coefficient means; judge the result with knowledge of the data.\n")
+  invisible(x)
+}
+
+#' @export
+coef.pwb_box_tidwell <- function(object, ...) stats::setNames(object$table$power, object$table$variable)

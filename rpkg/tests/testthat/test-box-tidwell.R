@@ -1,0 +1,72 @@
+sim_bt <- function(alpha, n, seed) {
+  set.seed(seed)
+  d <- data.frame(x = runif(n, 0.5, 6), z = rnorm(n))
+  d$y <- 1 + 4 * d$x^alpha + 0.5 * d$z + rnorm(n, sd = 0.3)
+  d
+}
+
+test_that("known powers 0.5 and -1 are recovered within 2 standard errors", {
+  for (alpha in c(0.5, -1)) {
+    # 20 simulated data sets: an asymptotically normal estimate (Box & Tidwell 1962) lies within
+    # 2 SE about 95% of the time, so at least 16 of 20 must (binomial P(fewer) < 0.003)
+    within <- vapply(1:20, function(s) {
+      bt <- box_tidwell(y ~ x + z, sim_bt(alpha, 200, 100 * s + (alpha > 0)), vars = "x")
+      expect_true(bt$converged)
+      abs(bt$table$power - alpha) < 2 * bt$table$se
+    }, logical(1))
+    expect_gte(sum(within), 16)
+    bt <- box_tidwell(y ~ x + z, sim_bt(alpha, 300, 5), vars = "x")
+    expect_lt(bt$table$score_p, 1e-6)  # strong curvature: power 1 is rejected
+    expect_equal(bt$transforms$x$family, "power")
+    expect_equal(bt$transforms$x$lambda, bt$table$power)
+  }
+})
+
+test_that("the first update equals the closed form computed with lm()", {
+  d <- sim_bt(0.5, 150, 7)
+  # Box & Tidwell (1962): alpha_1 = 1 + g / b, b from y ~ x + z, g the coefficient of x log x
+  # in y ~ x + z + x log x; base R lm() computes both independently of the package
+  b <- coef(lm(y ~ x + z, d))[["x"]]
+  fit2 <- lm(y ~ x + z + I(x * log(x)), d)
+  g <- coef(fit2)[[4]]
+  bt1 <- box_tidwell(y ~ x + z, d, vars = "x", max_iter = 1)
+  # two QR fits of the same data: agreement to rounding, 1e-10 allows for the conditioning
+  expect_equal(bt1$history["x", 2], 1 + g / b, tolerance = 1e-10)
+  expect_false(bt1$converged)
+  # the score test of power 1 is the t value of x log x (base R summary.lm)
+  t_ref <- summary(fit2)$coefficients[4, "t value"]
+  expect_equal(bt1$table$score_t, t_ref, tolerance = 1e-10)
+  expect_equal(bt1$score_df, fit2$df.residual)
+})
+
+test_that("an lm gives the same result as its formula, and vars defaults to numeric terms", {
+  d <- sim_bt(-1, 120, 3)
+  fit <- lm(y ~ x + z, data = d)
+  a <- box_tidwell(fit, vars = "x")
+  b <- box_tidwell(y ~ x + z, d, vars = "x")
+  expect_equal(a$table, b$table)
+  d$z <- d$z + 10  # positive, so the default takes both numeric predictors
+  both <- box_tidwell(y ~ x + z, d)
+  expect_equal(both$table$variable, c("x", "z"))
+})
+
+test_that("a log relationship suggests the log transform", {
+  set.seed(11)
+  d <- data.frame(x = runif(200, 0.5, 20))
+  d$y <- 2 + 3 * log(d$x) + rnorm(200, sd = 0.2)
+  bt <- box_tidwell(y ~ x, d)
+  expect_lt(abs(bt$table$power), 2 * bt$table$se)
+  expect_equal(bt$transforms$x$family, "log")
+  expect_output(print(bt), "converged in")
+})
+
+test_that("non-positive values name the variable, count and rows", {
+  d <- sim_bt(0.5, 30, 5)
+  d$x[c(4, 9)] <- c(0, -1)
+  d$z[2] <- NA  # row 2 is dropped by na.omit: rows stay those of the data
+  expect_error(box_tidwell(y ~ x + z, d, vars = "x"),
+               "`x` has 2 values <= 0, at rows 4, 9: shift it")
+  expect_error(box_tidwell(y ~ x + z, d, vars = "w"), "plain terms; not: w")
+  expect_error(box_tidwell(y ~ x, d[1:3, ], vars = "x"), "more rows")
+  expect_error(box_tidwell(y ~ x, d, max_iter = 0), "max_iter")
+})

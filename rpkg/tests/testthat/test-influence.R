@@ -1,0 +1,57 @@
+sim_inf <- function(n, seed) {
+  set.seed(seed)
+  d <- data.frame(x = runif(n, 0, 3), g = factor(sample(c("a", "b"), n, TRUE)))
+  d$y <- (2 + d$x + 0.5 * (d$g == "b") + rnorm(n, sd = 0.25))^2
+  d
+}
+
+# Box-Cox profile log-likelihood of y given the design, by base R lm() (Box & Cox 1964, sec. 3:
+# -n/2 log(RSS/n) + (lambda - 1) sum log y, constants dropped) and its maximum by optimize().
+brute_lambda <- function(d) {
+  prof <- function(l) {
+    z <- if (abs(l) < 1e-12) log(d$y) else (d$y^l - 1) / l
+    fit <- lm(z ~ x + g, data = cbind(d, z = z))
+    -nrow(d) / 2 * log(sum(residuals(fit)^2) / nrow(d)) + (l - 1) * sum(log(d$y))
+  }
+  optimize(prof, c(-3, 3), maximum = TRUE, tol = 1e-10)$maximum
+}
+
+test_that("leave-one-out lambda equals refits without each row", {
+  d <- sim_inf(30, 4)
+  d$y[12] <- 4 * d$y[12]
+  inf <- lambda_influence(y ~ x + g, d)
+  ref <- vapply(seq_len(nrow(d)), function(i) brute_lambda(d[-i, ]), numeric(1))
+  # both maximise the same profile: optimize() to 1e-10, the package's Brent to ~1.5e-8
+  expect_lt(max(abs(inf$rows$lambda - ref)), 1e-6)
+  expect_lt(abs(inf$lambda - brute_lambda(d)), 1e-6)
+  expect_lt(max(abs(inf$rows$delta - (ref - inf$lambda))), 1e-6)
+  expect_identical(inf$rows$outside, ref < inf$conf_int[1] | ref > inf$conf_int[2])
+  expect_equal(which.max(abs(inf$rows$delta)), 12L)
+  # leverages: hatvalues() of the same design (base R stats)
+  expect_equal(inf$rows$leverage, unname(hatvalues(lm(y ~ x + g, d))), tolerance = 1e-10)
+})
+
+test_that("lm and formula inputs agree; rows refer to the data", {
+  d <- sim_inf(25, 9)
+  d$x[3] <- NA
+  a <- lambda_influence(y ~ x + g, d)
+  b <- lambda_influence(lm(y ~ x + g, data = d))
+  expect_equal(a$rows, b$rows)
+  expect_false(3L %in% a$rows$row)
+  expect_equal(nrow(a$rows), 24L)
+  expect_output(print(a), "leave-one-out box-cox power")
+  f <- tempfile(fileext = ".png")
+  grDevices::png(f)
+  expect_silent(plot(a))
+  grDevices::dev.off()
+  unlink(f)
+})
+
+test_that("bad input is named", {
+  d <- sim_inf(20, 1)
+  d$y[c(2, 5)] <- c(0, -1)
+  expect_error(lambda_influence(y ~ x, d), "`y` has 2 values <= 0, at rows 2, 5")
+  expect_error(lambda_influence(y ~ x, d, family = "yeo-johnson"), NA)
+  expect_error(lambda_influence(y ~ x), "needs `data`")
+  expect_error(lambda_influence(y ~ x, d, range = c(1, -1)), "lower < upper")
+})
