@@ -1,6 +1,10 @@
 # Reference written by R for the Python example: a spec of named transforms written by
 # powerback::write_transforms() and, for each transform, values x, R's apply_transform(x) and
 # R's invert_transform() of those. The Python module must reproduce them from the spec alone.
+# Second part: a model fitted by lm_transformed() on the invented river demo data; its
+# transforms go to r_reference_model.pwbspec, the rows it was fitted on and new rows to
+# r_reference_model_data.csv, and R's predictions (median with prediction interval, mean by
+# smearing, mean by the normal formula) to r_reference_model_pred.csv.
 #
 # Regenerate (with the powerback R package installed):
 #   Rscript examples/python/make_r_reference.R examples/python
@@ -55,9 +59,36 @@ write_transforms(trs, file.path(out, "r_reference.pwbspec"))
 utils::write.csv(values, file.path(out, "r_reference.csv"), row.names = FALSE,
                  fileEncoding = "UTF-8")
 
+# The model: response and predictor transforms fixed here (not estimated), so the reference is
+# stable; the columns of X are the formula's predictors in order.
+d <- river_data()
+fit_rows <- d[seq(1, nrow(d), by = 2), ]
+new_rows <- d[seq(2, nrow(d), by = 16), ]
+m <- lm_transformed(sediment_t_day ~ flow_m3s + rain72_mm + forest_pct, fit_rows,
+                    response = new_transform("box-cox", lambda = 0.25),
+                    predictors = list(flow_m3s = new_transform("log"),
+                                      rain72_mm = new_transform("sqrt", shift = 1),
+                                      forest_pct = new_transform("log", reflect = TRUE, pivot = 101)))
+write_transforms(m, file.path(out, "r_reference_model.pwbspec"))
+num <- function(v) sprintf("%.17g", v)
+cols <- c("sediment_t_day", "flow_m3s", "rain72_mm", "forest_pct")
+data_out <- rbind(data.frame(role = "fit", lapply(fit_rows[cols], num)),
+                  data.frame(role = "new", lapply(new_rows[cols], num)))
+utils::write.csv(data_out, file.path(out, "r_reference_model_data.csv"), row.names = FALSE)
+p_med <- predict(m, new_rows, interval = "prediction", level = 0.9)
+p_conf <- predict(m, new_rows, interval = "confidence")
+p_smear <- predict(m, new_rows, center = "mean")
+p_norm <- predict(m, new_rows, center = "mean", mean_method = "normal")
+pred_out <- data.frame(median = num(p_med$fit), pred_lwr_90 = num(p_med$lwr),
+                       pred_upr_90 = num(p_med$upr), conf_lwr_95 = num(p_conf$lwr),
+                       conf_upr_95 = num(p_conf$upr), mean_smearing = num(p_smear$fit),
+                       mean_normal = num(p_norm$fit))
+utils::write.csv(pred_out, file.path(out, "r_reference_model_pred.csv"), row.names = FALSE)
+
 if (check) {
   same <- function(f) identical(readBin(file.path(dir, f), "raw", 1e7), readBin(file.path(out, f), "raw", 1e7))
-  for (f in c("r_reference.pwbspec", "r_reference.csv"))
+  for (f in c("r_reference.pwbspec", "r_reference.csv", "r_reference_model.pwbspec",
+              "r_reference_model_data.csv", "r_reference_model_pred.csv"))
     if (!same(f)) stop(f, " differs from what R writes now; regenerate it")
   cat("r_reference reproduces:", nrow(values), "rows,", length(trs), "transforms\n")
 }

@@ -18,7 +18,10 @@
 #' means, unless corrected. The file records the transforms, not the judgement that chose them.
 #'
 #' @param x a named list of `pwb_transform` objects (from [new_transform()]); names must be
-#'   distinct, non-empty and at most 256 bytes in UTF-8.
+#'   distinct, non-empty and at most 256 bytes in UTF-8. Or a `pwb_model` (from
+#'   [lm_transformed()]): its response transform is written under the response's name, then
+#'   each predictor transform under its variable's name. The coefficients are not written (the
+#'   format has no model record yet), so a scoring service refits or stores them separately.
 #' @param file a path to write or read.
 #' @return `write_transforms()` returns `file`, invisibly. `read_transforms()` returns a named
 #'   list of `pwb_transform` objects, in the order of the file.
@@ -34,6 +37,8 @@
 #' unlink(path)
 #' @export
 write_transforms <- function(x, file) {
+  if (inherits(x, "pwb_model"))
+    x <- c(stats::setNames(list(x$response), x$yname), x$predictors)
   if (inherits(x, "pwb_transform"))
     stop("`x` must be a named list of transforms; wrap one transform as list(name = tr)",
          call. = FALSE)

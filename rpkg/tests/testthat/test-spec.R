@@ -76,3 +76,17 @@ test_that("malformed files are refused with the line and column", {
   expect_error(read_transforms(path), "spec line 1, column 1: invalid UTF-8")
   expect_error(read_transforms(file.path(tempdir(), "no-such-file.pwbspec")), "does not exist")
 })
+
+test_that("a fitted model writes its response and predictor transforms", {
+  d <- river_data()
+  m <- lm_transformed(sediment_t_day ~ flow_m3s + forest_pct, d,
+                      response = new_transform("box-cox", lambda = 0.25),
+                      predictors = list(flow_m3s = new_transform("log")))
+  path <- spec_file()
+  on.exit(unlink(path))
+  write_transforms(m, path)
+  back <- read_transforms(path)
+  expect_identical(names(back), c("sediment_t_day", "flow_m3s"))
+  expect_identical(back$sediment_t_day, m$response)
+  expect_identical(back$flow_m3s, m$predictors$flow_m3s)
+})
