@@ -1,0 +1,116 @@
+# The candidates of compare_transforms() and the work done inside one training fold.
+
+# A named list of learners: each a function(train, formula, yname, family, level) returning a
+# fitted pwb_model. Everything a learner learns comes from `train` only.
+pwb_cmp_learners <- function(candidates) {
+  if (is.character(candidates)) candidates <- as.list(candidates)
+  if (!is.list(candidates) || length(candidates) == 0L)
+    stop("`candidates` must be a character vector or a list of candidates", call. = FALSE)
+  nm <- names(candidates)
+  if (is.null(nm)) nm <- rep("", length(candidates))
+  out <- list()
+  for (i in seq_along(candidates)) {
+    c1 <- candidates[[i]]
+    if (is.character(c1) && length(c1) == 1L && !nzchar(nm[i])) nm[i] <- c1
+    if (!nzchar(nm[i]))
+      stop(sprintf("candidate %d needs a name: write list(name = ...)", i), call. = FALSE)
+    out[[nm[i]]] <- pwb_cmp_learner(c1, nm[i])
+  }
+  if (anyDuplicated(nm))
+    stop(sprintf("candidate names must differ; repeated: %s",
+                 paste(unique(nm[duplicated(nm)]), collapse = ", ")), call. = FALSE)
+  out
+}
+
+pwb_cmp_learner <- function(c1, name) {
+  if (is.character(c1) && length(c1) == 1L) {
+    if (c1 == "none")
+      return(function(train, formula, yname, family, level)
+        lm_transformed(formula, train, response = "none", level = level))
+    if (c1 == "ml")
+      return(function(train, formula, yname, family, level)
+        lm_transformed(formula, train, response = "estimate", predictors = "ml",
+                       family = family, level = level))
+    if (c1 == "ladder")
+      return(function(train, formula, yname, family, level) {
+        step <- screen_skew(train, vars = yname, level = level)$ladder[[yname]]
+        lm_transformed(formula, train, response = if (is.null(step)) "none" else step,
+                       predictors = "ladder", level = level)
+      })
+    stop(sprintf("unknown candidate \"%s\": the built-in ones are \"none\", \"ladder\" and \"ml\"",
+                 c1), call. = FALSE)
+  }
+  if (is.function(c1))
+    return(function(train, formula, yname, family, level)
+      pwb_cmp_fit_fixed(c1(train), name, formula, train, yname, level))
+  if (is.list(c1)) {
+    pwb_cmp_check_fixed(c1, name)
+    return(function(train, formula, yname, family, level)
+      pwb_cmp_fit_fixed(c1, name, formula, train, yname, level))
+  }
+  stop(sprintf("candidate `%s` must be \"none\", \"ladder\", \"ml\", a named list of pwb_transform or a function returning one",
+               name), call. = FALSE)
+}
+
+pwb_cmp_check_fixed <- function(trs, name) {
+  ok <- is.list(trs) && (length(trs) == 0L || (!is.null(names(trs)) && all(nzchar(names(trs))) &&
+          all(vapply(trs, inherits, logical(1), what = "pwb_transform"))))
+  if (!ok)
+    stop(sprintf("candidate `%s` must give a named list of pwb_transform (names = variables)",
+                 name), call. = FALSE)
+}
+
+pwb_cmp_fit_fixed <- function(trs, name, formula, train, yname, level) {
+  pwb_cmp_check_fixed(trs, name)
+  resp <- if (is.null(trs[[yname]])) "none" else trs[[yname]]
+  preds <- trs[setdiff(names(trs), yname)]
+  lm_transformed(formula, train, response = resp,
+                 predictors = if (length(preds)) preds else NULL, level = level)
+}
+
+# One candidate in one fold: list(scores = one-row data frame, lambdas = data frame) or
+# list(error = message).
+pwb_cmp_one_fold <- function(learner, formula, train, test, yname, family, level) {
+  model <- tryCatch(learner(train, formula, yname, family, level),
+                    error = function(e) conditionMessage(e))
+  if (is.character(model)) return(list(error = model))
+  aliased <- as.logical(model$aliased)
+  if (any(aliased))
+    return(list(error = sprintf("the training part is rank-deficient (aliased: %s): fold not scored",
+                                paste(names(model$aliased)[aliased], collapse = ", "))))
+  pm <- tryCatch({
+    med <- stats::predict(model, test, interval = "prediction", level = level,
+                          center = "median", invalid = "na")
+    mean <- stats::predict(model, test, center = "mean", mean_method = "smearing", invalid = "na")
+    list(med = med, mean = mean)
+  }, error = function(e) conditionMessage(e))
+  if (is.character(pm)) return(list(error = pm))
+  y <- as.double(test[[yname]])
+  s_med <- rpwb_holdout_score(y, as.double(pm$med$fit), as.double(pm$med$lwr),
+                              as.double(pm$med$upr))
+  s_mean <- rpwb_holdout_score(y, as.double(pm$mean$fit), NULL, NULL)
+  na_if <- function(v, bad) if (bad) NA_real_ else v
+  bad_med <- s_med[["n_nonfinite"]] > 0
+  bad_mean <- s_mean[["n_nonfinite"]] > 0
+  scores <- data.frame(
+    n_test = length(y),
+    rmse_median = na_if(s_med[["rmse"]], bad_med), mae_median = na_if(s_med[["mae"]], bad_med),
+    r2_median = na_if(s_med[["r2"]], bad_med),
+    rmse_mean = na_if(s_mean[["rmse"]], bad_mean), mae_mean = na_if(s_mean[["mae"]], bad_mean),
+    r2_mean = na_if(s_mean[["r2"]], bad_mean),
+    coverage = na_if(s_med[["coverage"]], bad_med), width = na_if(s_med[["width"]], bad_med),
+    n_nonfinite = as.integer(max(s_med[["n_nonfinite"]], s_mean[["n_nonfinite"]])))
+  list(scores = scores, lambdas = pwb_cmp_lambdas(model, yname))
+}
+
+# The transforms a fitted model learned: one row per transformed variable (the response first).
+pwb_cmp_lambdas <- function(model, yname) {
+  trs <- c(stats::setNames(list(model$response), yname), model$predictors)
+  est <- if (is.null(model$response_lambda)) NA_real_ else model$response_lambda$lambda
+  data.frame(variable = names(trs), role = c("response", rep("predictor", length(trs) - 1L)),
+             family = vapply(trs, function(t) t$family, character(1)),
+             lambda = vapply(trs, function(t) as.double(t$lambda), numeric(1)),
+             lambda_estimate = c(est, rep(NA_real_, length(trs) - 1L)),
+             transform = vapply(trs, format, character(1)), stringsAsFactors = FALSE,
+             row.names = NULL)
+}

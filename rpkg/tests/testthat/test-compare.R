@@ -1,0 +1,102 @@
+sim_cmp <- function(n, seed) {
+  set.seed(seed)
+  d <- data.frame(x = runif(n, 1, 10), z = rnorm(n))
+  d$y <- exp(0.5 + 0.2 * d$x + 0.2 * d$z + rnorm(n, sd = 0.35))
+  d
+}
+
+test_that("held-out scores equal a base-R computation on the same folds", {
+  d <- sim_cmp(60, 1)
+  cands <- list("none", logy = list(y = new_transform("log")))
+  cmp <- compare_transforms(y ~ x + z, d, candidates = cands, folds = 4, repeats = 2, seed = 9,
+                            progress = FALSE)
+  expect_equal(dim(cmp$fold_ids), c(60L, 2L))
+  for (r in 1:2) for (k in 1:4) {
+    test <- cmp$fold_ids[, r] == k
+    tr <- d[!test, ]
+    te <- d[test, ]
+    score <- function(pred) c(sqrt(mean((te$y - pred)^2)), mean(abs(te$y - pred)),
+                              1 - sum((te$y - pred)^2) / sum((te$y - mean(te$y))^2))
+    # "none": base R lm() and predict.lm() prediction intervals
+    fit <- lm(y ~ x + z, tr)
+    pi <- predict(fit, te, interval = "prediction", level = 0.95)
+    row <- cmp$folds[cmp$folds$candidate == "none" & cmp$folds$repeat_no == r &
+                       cmp$folds$fold == k, ]
+    # the same least-squares fits by two QR codes: agreement to rounding
+    expect_equal(c(row$rmse_median, row$mae_median, row$r2_median), score(pi[, "fit"]),
+                 tolerance = 1e-10)
+    expect_equal(row$coverage, mean(te$y >= pi[, "lwr"] & te$y <= pi[, "upr"]))
+    expect_equal(row$width, mean(pi[, "upr"] - pi[, "lwr"]), tolerance = 1e-10)
+    # "logy": exp of the log-scale fit is the median; Duan's smearing mean is
+    # exp(fit) * mean(exp(residuals)) (Duan 1983, eq. for the log case)
+    lfit <- lm(log(y) ~ x + z, tr)
+    lp <- predict(lfit, te)
+    row <- cmp$folds[cmp$folds$candidate == "logy" & cmp$folds$repeat_no == r &
+                       cmp$folds$fold == k, ]
+    expect_equal(c(row$rmse_median, row$mae_median, row$r2_median), score(exp(lp)),
+                 tolerance = 1e-10)
+    smear <- exp(lp) * mean(exp(residuals(lfit)))
+    expect_equal(c(row$rmse_mean, row$mae_mean, row$r2_mean), score(smear), tolerance = 1e-10)
+  }
+  # in-sample extras: adjusted R^2 on the own scale, AIC on the original scale
+  s <- cmp$summary
+  expect_equal(s$adj_r2_own_scale[s$candidate == "logy"],
+               summary(lm(log(y) ~ x + z, d))$adj.r.squared, tolerance = 1e-10)
+  # the log-normal log-likelihood is the normal one of log y minus sum(log y) (change of
+  # variables); base R logLik.lm and AIC with 4 parameters (3 coefficients and sigma)
+  ll <- as.numeric(logLik(lm(log(y) ~ x + z, d))) - sum(log(d$y))
+  expect_equal(s$aic[s$candidate == "logy"], -2 * ll + 2 * 4, tolerance = 1e-10)
+  expect_equal(s$aic[s$candidate == "none"], AIC(lm(y ~ x + z, d)), tolerance = 1e-10)
+})
+
+test_that("learning inside folds is not learning on all rows", {
+  d <- sim_cmp(50, 2)
+  lam_full <- estimate_response_lambda(y ~ x + z, d)$lambda
+  inside <- function(train)
+    list(y = new_transform("box-cox", lambda = estimate_response_lambda(y ~ x + z, train)$lambda))
+  leaky <- list(y = new_transform("box-cox", lambda = lam_full))
+  cmp <- compare_transforms(y ~ x + z, d, candidates = list(inside = inside, leaky = leaky),
+                            folds = 5, seed = 4, progress = FALSE)
+  lam <- cmp$lambdas[cmp$lambdas$candidate == "inside" & cmp$lambdas$role == "response", ]
+  expect_equal(nrow(lam), 5L)
+  # each training fold lacks a fifth of the rows, so its estimate moves off the full-data one
+  expect_true(all(abs(lam$lambda - lam_full) > 1e-6))
+  # ... and so do the held-out scores of the two candidates, fold by fold
+  f <- cmp$folds
+  expect_true(all(abs(f$rmse_median[f$candidate == "inside"] -
+                      f$rmse_median[f$candidate == "leaky"]) > 1e-8))
+  # the full-data fit of `inside` learns the full-data power
+  expect_equal(cmp$full$inside$lambdas$lambda[1], lam_full)
+})
+
+test_that("folds are reproducible from the seed and R's random state is untouched", {
+  d <- sim_cmp(30, 3)
+  set.seed(77)
+  before <- .Random.seed
+  a <- compare_transforms(y ~ x, d, candidates = "none", folds = 3, seed = 5, progress = FALSE)
+  expect_identical(.Random.seed, before)
+  b <- compare_transforms(y ~ x, d, candidates = "none", folds = 3, seed = 5, progress = FALSE)
+  expect_identical(a$fold_ids, b$fold_ids)
+  expect_identical(a$folds, b$folds)
+  c <- compare_transforms(y ~ x, d, candidates = "none", folds = 3, progress = FALSE)
+  again <- compare_transforms(y ~ x, d, candidates = "none", folds = 3, seed = c$seed,
+                              progress = FALSE)
+  expect_identical(c$fold_ids, again$fold_ids)
+  expect_equal(as.vector(table(a$fold_ids)), c(10L, 10L, 10L))
+})
+
+test_that("print, plot and the progress bar", {
+  d <- sim_cmp(40, 5)
+  cmp <- compare_transforms(y ~ x, d, candidates = list("none", logy = list(y = new_transform("log"))),
+                            folds = 4, seed = 1, progress = FALSE)
+  expect_output(print(cmp), "rank candidate")
+  expect_output(print(cmp), "NOT")
+  expect_output(compare_transforms(y ~ x, d, candidates = "none", folds = 2, seed = 1,
+                                   progress = TRUE), "100%")
+  f <- tempfile(fileext = ".png")
+  grDevices::png(f)
+  expect_silent(plot(cmp))
+  expect_silent(plot(cmp, "coverage"))
+  grDevices::dev.off()
+  unlink(f)
+})
