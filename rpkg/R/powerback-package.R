@@ -16,7 +16,7 @@
 #' @useDynLib powerback, .registration = TRUE
 #' @importFrom Rcpp evalCpp
 #' @importFrom stats coef confint predict residuals fitted logLik model.frame model.matrix
-#'   model.response na.omit qnorm qt pchisq pf
+#'   model.response na.omit qnorm qt pchisq pf nobs
 #' @importFrom graphics plot abline lines points legend par mtext
 #' @importFrom grDevices png dev.off
 #' @keywords internal
