@@ -41,9 +41,10 @@
 #'   numeric variable: `variable`, `n`, `n_missing`, `skewness`, `skewness_se`, `skewness_z`,
 #'   `kurtosis`, `kurtosis_se`, `kurtosis_z`, `sw_w`, `sw_p`, `ladder` (the step),
 #'   `ladder_skewness`, `ladder_sw_w`, `ladder_sw_p`, `ml_family`, `ml_lambda`, `ml_conf_low`,
-#'   `ml_conf_high`, `ml_convenient`, `ml_at_bound`, `ml_converged`, `ml_skewness`, `ml_sw_w`,
-#'   `ml_sw_p`, `note`), `ladder` and `ml` (named lists of `pwb_transform`, `NULL` where there
-#'   is none), `skipped` (names of non-numeric columns), `level` and `rule` (the ladder's
+#'   `ml_conf_high`, `ml_convenient`, `ml_at_bound`, `ml_converged`, `ml_low_open` and
+#'   `ml_high_open` (the interval runs past the search range on that side, so the endpoint is the
+#'   range edge), `ml_skewness`, `ml_sw_w`, `ml_sw_p`, `note`), `ladder` and `ml` (named lists
+#'   of `pwb_transform`, `NULL` where there is none), `skipped` (names of non-numeric columns), `level` and `rule` (the ladder's
 #'   thresholds).
 #' @seealso [estimate_lambda()], [new_transform()], [apply_transform()]
 #' @examples
@@ -136,6 +137,8 @@ pwb_screen_row <- function(name, n, n_missing, res, note = "") {
     ml_convenient = num(ml$convenient),
     ml_at_bound = if (isTRUE(ml$done)) ml$at_bound else NA,
     ml_converged = if (isTRUE(ml$done)) ml$converged else NA,
+    ml_low_open = if (isTRUE(ml$done)) ml$low_open else NA,
+    ml_high_open = if (isTRUE(ml$done)) ml$high_open else NA,
     ml_skewness = num(ml$skewness), ml_sw_w = num(sw$ml_w), ml_sw_p = num(sw$ml_p),
     note = pwb_screen_note(note, sw), stringsAsFactors = FALSE)
 }

@@ -168,3 +168,14 @@ test_that("bad arguments are clear errors", {
   expect_error(screen_skew(d, vars = c("right", "nope")), "not in `data`: nope")
   expect_error(screen_skew("text"), "`data` must be a data frame")
 })
+
+test_that("an estimate at the search bound is flagged in the table and the print", {
+  # Left-skewed positive data push the Box-Cox lambda-hat up to the range edge 3.
+  set.seed(3)
+  s <- screen_skew(data.frame(score = 100 - rexp(200, 0.2)))
+  expect_true(s$table$ml_at_bound)
+  expect_true(s$table$ml_high_open)
+  expect_equal(s$table$ml_conf_high, 3)
+  expect_output(print(s), "lambda-hat at the edge of the search range")
+  expect_output(print(summary(s)), "at the search bound, interval open at the range edge")
+})
