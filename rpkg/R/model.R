@@ -89,7 +89,7 @@ lm_transformed <- function(formula, data, response = "estimate", predictors = NU
   for (v in names(ptrs))
     tdata[[v]] <- pwb_map_values(ptrs[[v]], data[[v]], v, "error", inverse = FALSE)
 
-  resp <- pwb_choose_response_transform(response, formula, tdata, family, level)
+  resp <- pwb_choose_response_transform(response, formula, tdata, family, level, na.action)
   tdata[[yname]] <- pwb_map_values(resp$transform, data[[yname]], yname, "error", inverse = FALSE)
 
   fit <- stats::lm(formula, data = tdata, na.action = na.action)
@@ -133,7 +133,7 @@ pwb_check_level <- function(level) {
 }
 
 # list(transform, lambda, estimated) for the response.
-pwb_choose_response_transform <- function(response, formula, tdata, family, level) {
+pwb_choose_response_transform <- function(response, formula, tdata, family, level, na.action) {
   if (inherits(response, "pwb_transform"))
     return(list(transform = response, lambda = NULL, estimated = 0L))
   if (inherits(response, "pwb_lambda"))
@@ -144,7 +144,8 @@ pwb_choose_response_transform <- function(response, formula, tdata, family, leve
                 "or a pwb_lambda (estimate_response_lambda())"), call. = FALSE)
   if (response == "none")
     return(list(transform = new_transform("identity"), lambda = NULL, estimated = 0L))
-  lam <- estimate_response_lambda(formula, data = tdata, family = family, level = level)
+  lam <- estimate_response_lambda(formula, data = tdata, family = family, level = level,
+                                  na.action = na.action)
   list(transform = as_transform(lam, "convenient"), lambda = lam, estimated = 1L)
 }
 
@@ -170,7 +171,13 @@ pwb_choose_predictor_transforms <- function(predictors, data, xvars, level) {
   predictors
 }
 
-# "ladder" or "ml" transforms of the skewed numeric predictors.
+# "ladder" or "ml" transforms of the numeric predictors that screen_skew() finds skewed (its
+# ladder step is not "none"); the others stay as they are.
 pwb_auto_predictor_transforms <- function(how, data, vars, level) {
-  stop(sprintf("predictors = \"%s\" is not available in this build yet", how), call. = FALSE)
+  if (!length(vars)) return(list())
+  s <- screen_skew(data, vars = vars, level = level)
+  step <- s$table$ladder
+  skewed <- s$table$variable[!is.na(step) & step != "none"]
+  trs <- if (how == "ladder") s$ladder[skewed] else s$ml[skewed]
+  trs[!vapply(trs, is.null, logical(1))]
 }
