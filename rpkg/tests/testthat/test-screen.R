@@ -179,3 +179,17 @@ test_that("an estimate at the search bound is flagged in the table and the print
   expect_output(print(s), "lambda-hat at the edge of the search range")
   expect_output(print(summary(s)), "at the search bound, interval open at the range edge")
 })
+
+test_that("the ML columns are estimate_lambda()'s own figures", {
+  # The screen and estimate_lambda() run the same estimator: identical to 1e-12.
+  d <- screen_data()
+  s <- screen_skew(d, vars = c("right", "counts"), level = 0.9)
+  a <- estimate_lambda(d$right, family = "box-cox", level = 0.9)
+  expect_equal(s$table$ml_lambda[1], a$lambda, tolerance = 1e-12)
+  expect_equal(c(s$table$ml_conf_low[1], s$table$ml_conf_high[1]), unname(a$conf_int),
+               tolerance = 1e-12)
+  expect_equal(s$table$ml_convenient[1], a$convenient)
+  b <- estimate_lambda(d$counts, family = "yeo-johnson", level = 0.9)
+  expect_equal(s$table$ml_lambda[2], b$lambda, tolerance = 1e-12)
+  expect_equal(s$level, 0.9)
+})
