@@ -41,18 +41,23 @@ Eigen::VectorXd normal_equations(const Eigen::MatrixXd& d, const std::vector<dou
 
 TEST_CASE("known powers 0.5 and -1 are recovered within 2 standard errors", "[box_tidwell]") {
   for (const double alpha : {0.5, -1.0}) {
-    const Sim s = simulate(alpha, 300, 0.3, alpha > 0 ? 11u : 12u);
+    // 20 simulated data sets: the estimate is asymptotically normal around alpha (Box & Tidwell
+    // 1962), so about 95% lie within 2 SE; at least 16 of 20 must (binomial P(fewer) < 0.003)
+    int within = 0;
+    for (unsigned rep = 0; rep < 20; ++rep) {
+      const Sim s = simulate(alpha, 200, 0.3, 1000u * (alpha > 0 ? 1u : 2u) + rep);
+      const BoxTidwellResult r = box_tidwell(s.y.data(), s.z.data(), s.y.size(), 1, s.x.data(), 1, {});
+      CAPTURE(alpha, rep, r.alpha[0], r.se[0]);
+      CHECK(r.converged);
+      CHECK(r.se[0] > 0);
+      within += std::fabs(r.alpha[0] - alpha) < 2 * r.se[0] ? 1 : 0;
+      CHECK(r.history.front()[0] == 1.0);
+      CHECK(r.history.back()[0] == Approx(r.alpha[0]).epsilon(1e-12));
+    }
+    CHECK(within >= 16);
+    const Sim s = simulate(alpha, 300, 0.3, 11u);
     const BoxTidwellResult r = box_tidwell(s.y.data(), s.z.data(), s.y.size(), 1, s.x.data(), 1, {});
-    CAPTURE(alpha, r.alpha[0], r.se[0]);
-    CHECK(r.converged);
-    CHECK(r.se[0] > 0);
-    // The estimate is asymptotically normal around alpha (Box & Tidwell 1962): 2 SE is a
-    // ~95% band, and the seed is fixed, so this is a real check of the estimate and its SE.
-    CHECK(std::fabs(r.alpha[0] - alpha) < 2 * r.se[0]);
-    // a strongly curved truth: the score test of power 1 rejects
-    CHECK(r.score_p[0] < 1e-6);
-    CHECK(r.history.front()[0] == 1.0);
-    CHECK(r.history.back()[0] == Approx(r.alpha[0]).epsilon(1e-12));
+    CHECK(r.score_p[0] < 1e-6);  // a strongly curved truth: the score test of power 1 rejects
   }
 }
 
