@@ -136,3 +136,36 @@ TEST_CASE("binary and oversized input is rejected with bounded work", "[spec]") 
   const std::string huge(kSpecMaxBytes + 1, '#');
   CHECK_THAT(parse_error(huge), Contains("more than the limit of 16777216"));
 }
+
+TEST_CASE("every proper prefix of a spec is refused as truncated", "[spec]") {
+  const std::string full = kHead + kGood +
+                           "transform name=\"y\" family=log shift=0x1p+0 reflect=true pivot=0x1.94p+6\nend\n";
+  REQUIRE(parse_error(full).empty());
+  for (std::size_t len = 0; len < full.size(); ++len) {
+    INFO("prefix of " << len << " bytes");
+    CHECK_FALSE(parse_error(full.substr(0, len)).empty());
+  }
+}
+
+TEST_CASE("single-byte corruptions parse or fail cleanly with Error(Parse)", "[spec]") {
+  const std::string full = kHead + kGood + "end\n";
+  const unsigned char bytes[] = {0x00, 0x22, 0x5c, 0x3d, 0x20, 0x0a, 0x80, 0xff, 'x', '9'};
+  std::size_t refused = 0, total = 0;
+  for (std::size_t i = 0; i < full.size(); ++i) {
+    for (unsigned char b : bytes) {
+      std::string t = full;
+      t[i] = static_cast<char>(b);
+      try {
+        parse_spec(t.data(), t.size());
+      } catch (const Error& e) {
+        INFO("byte " << i << " set to " << int(b) << ": " << e.what());
+        CHECK(e.code() == ErrorCode::Parse);
+        CHECK_THAT(e.what(), Contains("spec line"));
+        ++refused;
+      }
+      ++total;
+    }
+  }
+  // Most corruptions break the syntax; a few (a digit in a number or a name) stay valid.
+  CHECK(refused > total / 2);
+}
