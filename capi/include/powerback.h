@@ -123,7 +123,8 @@ typedef struct pwb_transform_spec {
   double pivot;
 } pwb_transform_spec;
 
-/* Sets struct_size and the identity transform (lambda NaN, shift 0, no reflection). */
+/* Sets struct_size and the identity transform (lambda NaN, shift 0, no reflection, pivot NaN).
+ * NULL is ignored. Thread-safe. */
 PWB_API void pwb_transform_spec_init(pwb_transform_spec *spec);
 
 typedef struct pwb_transform pwb_transform; /* opaque; immutable once made */
