@@ -30,6 +30,66 @@ void check_options(const LambdaOptions& opt) {
           "the confidence level must lie strictly between 0 and 1; got " + format_number(opt.level));
 }
 
+struct Side {
+  double end;
+  bool open, converged;
+};
+
+// Where the quadratic approximation of the profile at lhat puts the interval's half-width:
+// sqrt(q / curvature), the curvature from a central difference. Only a starting guess for the
+// bracketing below, which never relies on it being right.
+template <class G>
+double predicted_half_width(G& g, double lhat, double half_q, const LambdaOptions& opt) {
+  const double width = opt.upper - opt.lower;
+  double d = 1e-2 * width, h = 0.25 * width;
+  for (int pass = 0; pass < 2; ++pass) {
+    const double a = std::max(opt.lower, lhat - d), b = std::min(opt.upper, lhat + d);
+    if (!(b > a)) break;
+    const double ga = g(a), gb = g(b), gm = half_q;  // g(lhat) = half_q
+    // second difference on possibly uneven steps
+    const double da = lhat - a, db = b - lhat;
+    double curv = 0.0;
+    if (da > 0 && db > 0) curv = -2.0 * (ga * db + gb * da - gm * (da + db)) / (da * db * (da + db));
+    else if (da > 0) curv = -2.0 * (ga - gm) / (da * da);
+    else curv = -2.0 * (gb - gm) / (db * db);
+    if (!(curv > 0.0) || !std::isfinite(curv)) break;
+    h = std::sqrt(2.0 * half_q / curv);
+    if (h >= 0.25 * d) break;  // the difference step was on the scale of the interval
+    d = h;                      // far too coarse: measure again on the interval's scale
+  }
+  return std::min(h, width);
+}
+
+// One side of the interval (dir = -1 below lhat, +1 above): probe just inside and just outside
+// the predicted endpoint, widen geometrically until the profile falls below the cut or the
+// range ends (an open side), then solve on the bracket with TOMS 748.
+template <class G>
+Side solve_side(G& g, double lhat, double g_hat, double h, double edge, double dir) {
+  if (dir * (edge - lhat) <= 0.0) return {edge, true, true};
+  double x_in = lhat, g_in = g_hat;
+  const double steps[] = {0.95, 1.05};
+  double step = steps[0] * h;
+  for (int k = 0; k < 200; ++k) {
+    double x = lhat + dir * step;
+    const bool at_edge = dir * (x - edge) >= 0.0;
+    if (at_edge) x = edge;
+    const double gx = g(x);
+    if (!(gx > 0.0)) {
+      if (gx == 0.0) return {x, false, true};
+      std::uintmax_t it = kMaxIter;
+      const auto tol = boost::math::tools::eps_tolerance<double>(kRootBits);
+      const auto r = dir < 0 ? boost::math::tools::toms748_solve(g, x, x_in, gx, g_in, tol, it)
+                             : boost::math::tools::toms748_solve(g, x_in, x, g_in, gx, tol, it);
+      return {0.5 * (r.first + r.second), false, it < kMaxIter};
+    }
+    if (at_edge) return {edge, true, true};
+    x_in = x;
+    g_in = gx;
+    step = k == 0 ? steps[1] * h : step * 1.6;
+  }
+  return {x_in, false, false};
+}
+
 LambdaEstimate search(const detail::LambdaProfile& prof, const LambdaOptions& opt) {
   LambdaEstimate est;
   est.family = prof.family();
@@ -60,42 +120,17 @@ LambdaEstimate search(const detail::LambdaProfile& prof, const LambdaOptions& op
   est.loglik = lmax;
 
   // Interval: the lambdas whose profile lies within chi2_1(level) / 2 of the maximum.
-  const double cut = lmax - 0.5 * boost::math::quantile(boost::math::chi_squared(1.0), opt.level);
+  const double half_q = 0.5 * boost::math::quantile(boost::math::chi_squared(1.0), opt.level);
+  const double cut = lmax - half_q;
   const auto g = [&](double l) { return prof.loglik(l) - cut; };
-  const auto tol = boost::math::tools::eps_tolerance<double>(kRootBits);
-  const double g_hat = lmax - cut;
-  // Lower side.
-  if (lhat <= opt.lower) {
-    est.low_open = true;
-    est.conf_low = opt.lower;
-  } else {
-    const double g_lo = g(opt.lower);
-    if (g_lo > 0.0) {
-      est.low_open = true;
-      est.conf_low = opt.lower;
-    } else {
-      std::uintmax_t ri = kMaxIter;
-      const auto r = boost::math::tools::toms748_solve(g, opt.lower, lhat, g_lo, g_hat, tol, ri);
-      ok = ok && ri < kMaxIter;
-      est.conf_low = 0.5 * (r.first + r.second);
-    }
-  }
-  // Upper side.
-  if (lhat >= opt.upper) {
-    est.high_open = true;
-    est.conf_high = opt.upper;
-  } else {
-    const double g_up = g(opt.upper);
-    if (g_up > 0.0) {
-      est.high_open = true;
-      est.conf_high = opt.upper;
-    } else {
-      std::uintmax_t ri = kMaxIter;
-      const auto r = boost::math::tools::toms748_solve(g, lhat, opt.upper, g_hat, g_up, tol, ri);
-      ok = ok && ri < kMaxIter;
-      est.conf_high = 0.5 * (r.first + r.second);
-    }
-  }
+  const double h = predicted_half_width(g, lhat, half_q, opt);
+  const Side low = solve_side(g, lhat, half_q, h, opt.lower, -1.0);
+  const Side high = solve_side(g, lhat, half_q, h, opt.upper, +1.0);
+  est.conf_low = low.end;
+  est.low_open = low.open;
+  est.conf_high = high.end;
+  est.high_open = high.open;
+  ok = ok && low.converged && high.converged;
   est.converged = ok && std::isfinite(lmax);
   est.convenient = convenient_lambda(est.lambda, est.conf_low, est.conf_high);
   return est;
