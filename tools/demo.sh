@@ -13,4 +13,4 @@ export MAKEFLAGS="-j$(nproc 2>/dev/null || echo 2)"
 tarball=$(tools/build_rpkg.sh "$out/rbuild" --no-build-vignettes | tail -n 1)
 R CMD INSTALL --no-test-load -l "$out/Rlib" "$tarball" >"$out/install.log" 2>&1 \
   || { tail -n 40 "$out/install.log"; exit 1; }
-R_LIBS="$out/Rlib" Rscript --vanilla tools/demo.R "$root/vignettes-data" "$out"
+R_LIBS="$out/Rlib" Rscript --vanilla tools/demo.R "$out"
