@@ -95,6 +95,7 @@ void LambdaProfile::prepare(const double* v, std::size_t n, const std::string& /
     any_pos_ = true;
     pos_min_ = t_.minCoeff();
     pos_max_ = t_.maxCoeff();
+    make_binned();
     return;
   }
   neg_.resize(nn);
@@ -117,6 +118,27 @@ void LambdaProfile::prepare(const double* v, std::size_t n, const std::string& /
       pos_max_ = std::max(pos_max_, t);
     }
   }
+  // One sign only: centre the logs as for Box-Cox. The constant -1/k then drops out of the RSS
+  // (there is an intercept), so spreads far below 1/k (huge values, negative k) are not lost.
+  if (!any_neg_ || !any_pos_) {
+    centre_ = t_.mean();
+    t_ -= centre_;
+    centre_on_second_ = any_neg_;
+    if (any_neg_) {
+      neg_min_ -= centre_;
+      neg_max_ -= centre_;
+    } else {
+      pos_min_ -= centre_;
+      pos_max_ -= centre_;
+    }
+  }
+  make_binned();
+}
+
+void LambdaProfile::make_binned() {
+  if (static_cast<std::size_t>(t_.size()) < kBinnedMinimumN) return;
+  binned_.reset(new BinnedProfile(t_, neg_, family_ == Family::YeoJohnson, design_, kBinnedKValid));
+  if (!binned_->useful()) binned_.reset();
 }
 
 namespace {
@@ -129,6 +151,13 @@ inline double power_term(double t, double k, double m, bool scaled) {
 }  // namespace
 
 double LambdaProfile::log_rss(double lambda) const {
+  double fast;
+  const double shift = 2.0 * (centre_on_second_ ? 2.0 - lambda : lambda) * centre_;
+  if (binned_ && binned_->log_rss(lambda, &fast)) return fast + shift;
+  return log_rss_direct(lambda) + shift;
+}
+
+double LambdaProfile::log_rss_direct(double lambda) const {
   const double k1 = lambda, k2 = 2.0 - lambda;
   double m = -std::numeric_limits<double>::infinity();
   if (any_pos_) m = std::max({m, k1 * pos_min_, k1 * pos_max_});
@@ -157,15 +186,16 @@ double LambdaProfile::log_rss(double lambda) const {
   }
   double out = std::log(rss);
   if (scaled) out += 2.0 * m;
-  if (family_ == Family::BoxCox) out += 2.0 * lambda * centre_;
   return out;
 }
 
-double LambdaProfile::loglik(double lambda) const {
+double LambdaProfile::loglik(double lambda, bool direct) const {
   const double n = static_cast<double>(t_.size());
   const double jac = family_ == Family::BoxCox ? (lambda - 1.0) * n * centre_
                                                : (lambda - 1.0) * (sum_pos_ - sum_neg_);
-  return -0.5 * n * (kLog2PiPlus1 + log_rss(lambda) - std::log(n)) + jac;
+  const double lr = direct ? log_rss_direct(lambda) + 2.0 * (centre_on_second_ ? 2.0 - lambda : lambda) * centre_
+                           : log_rss(lambda);
+  return -0.5 * n * (kLog2PiPlus1 + lr - std::log(n)) + jac;
 }
 
 }  // namespace detail

@@ -1,0 +1,67 @@
+// The binned fast path of the lambda profile against the direct evaluation, value by value.
+#include <catch2/catch.hpp>
+
+#include <cmath>
+#include <random>
+#include <vector>
+
+#include "powerback/lambda.hpp"
+
+using namespace powerback;
+
+namespace {
+const double kLambdas[] = {-3.0, -2.2, -1.0, -0.3, 0.0, 1e-7, 0.4, 1.0, 1.9, 2.0, 2.5, 3.0};
+
+void same_profile(const detail::LambdaProfile& prof) {
+  REQUIRE(prof.binned());
+  for (double lam : kLambdas) {
+    INFO("lambda " << lam);
+    // 1e-12 relative: the series are exact to rounding; what differs is the order of sums.
+    CHECK(prof.loglik(lam) == Approx(prof.loglik(lam, true)).epsilon(1e-12));
+  }
+}
+}  // namespace
+
+TEST_CASE("binned profile equals the direct one for Box-Cox and Yeo-Johnson", "[lambda][binned]") {
+  std::mt19937_64 g(21);
+  std::lognormal_distribution<double> ln(1.0, 1.2);
+  std::normal_distribution<double> nd(0.0, 1.0);
+  std::vector<double> x(50000), s(50000), huge(40000);
+  for (auto& v : x) v = ln(g);
+  for (auto& v : s) v = 3.0 * nd(g) + 1.0;                // both signs
+  for (auto& v : huge) v = std::exp(138.0 + nd(g));       // k t > 300: the rescaled branch
+  same_profile(detail::LambdaProfile(x.data(), x.size(), Family::BoxCox, "x"));
+  same_profile(detail::LambdaProfile(x.data(), x.size(), Family::YeoJohnson, "x"));
+  same_profile(detail::LambdaProfile(s.data(), s.size(), Family::YeoJohnson, "x"));
+  same_profile(detail::LambdaProfile(huge.data(), huge.size(), Family::YeoJohnson, "x"));
+  // Outside the covered |k| the direct evaluation is used: still the same number.
+  const detail::LambdaProfile p(x.data(), x.size(), Family::BoxCox, "x");
+  CHECK(p.loglik(7.5) == p.loglik(7.5, true));
+}
+
+TEST_CASE("binned response profile equals the projection of each transformed response", "[lambda][binned]") {
+  std::mt19937_64 g(22);
+  std::normal_distribution<double> nd(0.0, 1.0);
+  const std::size_t n = 60000, p = 3;
+  std::vector<double> X(n * p), y(n), yj(n), tight(n);
+  for (auto& v : X) v = nd(g);
+  for (std::size_t i = 0; i < n; ++i) {
+    const double eta = 0.3 * X[i] - 0.5 * X[n + i] + 0.2 * X[2 * n + i];
+    y[i] = std::exp(1.0 + eta + 0.6 * nd(g));
+    yj[i] = 2.0 * eta + nd(g);
+    tight[i] = std::exp(1.0 + eta + 1e-5 * nd(g));  // R^2 about 1 at lambda 0: direct fallback
+  }
+  const LeastSquares ls(X.data(), n, p);
+  same_profile(detail::LambdaProfile(y.data(), ls, Family::BoxCox, "y"));
+  same_profile(detail::LambdaProfile(yj.data(), ls, Family::YeoJohnson, "y"));
+  const detail::LambdaProfile t(tight.data(), ls, Family::BoxCox, "y");
+  CHECK(t.loglik(0.0) == Approx(t.loglik(0.0, true)).epsilon(1e-12));
+  CHECK(t.loglik(0.5) == Approx(t.loglik(0.5, true)).epsilon(1e-12));
+
+  // The estimate is a maximum of the direct profile too.
+  const LambdaEstimate e = estimate_response_lambda(y.data(), ls, Family::BoxCox);
+  const detail::LambdaProfile d(y.data(), ls, Family::BoxCox, "y");
+  CHECK(d.loglik(e.lambda - 1e-3, true) < d.loglik(e.lambda, true));
+  CHECK(d.loglik(e.lambda + 1e-3, true) < d.loglik(e.lambda, true));
+  CHECK(e.lambda == Approx(0.0).margin(0.05));  // generated on the log scale, n = 60000
+}
