@@ -33,9 +33,11 @@ pwb_cmp_learner <- function(c1, name) {
                        family = family, level = level))
     if (c1 == "ladder")
       return(function(train, formula, yname, family, level) {
-        step <- screen_skew(train, vars = yname, level = level)$ladder[[yname]]
-        lm_transformed(formula, train, response = if (is.null(step)) "none" else step,
-                       predictors = "ladder", level = level)
+        s <- screen_skew(train, vars = yname, level = level)
+        step <- s$table$ladder[1L]
+        resp <- if (is.na(step) || step == "none" || is.null(s$ladder[[yname]])) "none"
+                else s$ladder[[yname]]
+        lm_transformed(formula, train, response = resp, predictors = "ladder", level = level)
       })
     stop(sprintf("unknown candidate \"%s\": the built-in ones are \"none\", \"ladder\" and \"ml\"",
                  c1), call. = FALSE)

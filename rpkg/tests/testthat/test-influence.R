@@ -55,3 +55,13 @@ test_that("bad input is named", {
   expect_error(lambda_influence(y ~ x), "needs `data`")
   expect_error(lambda_influence(y ~ x, d, range = c(1, -1)), "lower < upper")
 })
+
+test_that("a pwb_model uses its transformed predictors and its response family", {
+  d <- sim_inf(30, 12)
+  m <- lm_transformed(y ~ x + g, d, response = "estimate")
+  expect_equal(lambda_influence(m)$rows, lambda_influence(y ~ x + g, d)$rows)
+  m2 <- lm_transformed(y ~ x + g, d, response = "none", predictors = list(x = new_transform("sqrt")))
+  expect_equal(lambda_influence(m2)$rows, lambda_influence(y ~ sqrt(x) + g, d)$rows)
+  my <- lm_transformed(y ~ x + g, d, response = "estimate", family = "yeo-johnson")
+  expect_equal(lambda_influence(my)$family, "yeo-johnson")
+})
