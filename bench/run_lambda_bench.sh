@@ -1,0 +1,34 @@
+#!/usr/bin/env bash
+# Lambda estimation benchmarks, measured in one run; prints the ratios. Not part of the tests.
+#   bash bench/run_lambda_bench.sh [BUILDDIR]   (default /tmp/pwb-bench)
+# 1. response lambda + 95% interval, n = 1e6, p = 10, against (a) one least-squares fit of the
+#    same design in the same process and (b) the by-hand base-R way (optimize + uniroot over
+#    lm.fit refits), timed on the first 1e5 rows and scaled linearly to 1e6 (each refit is
+#    O(n p^2)).
+# 2. univariate Box-Cox lambda + 95% interval, n = 1e7, against scipy.stats.boxcox(x, alpha=0.05).
+set -euo pipefail
+here=$(cd "$(dirname "$0")" && pwd)
+build=${1:-/tmp/pwb-bench}
+cmake -S "$here" -B "$build" -DCMAKE_BUILD_TYPE=Release >/dev/null
+cmake --build "$build" -j2 >/dev/null
+data=$(mktemp -d)
+trap 'rm -rf "$data"' EXIT
+val() { sed -n "s/^$1=//p" <<<"$2"; }
+
+r1=$("$build/lambda_response_bench" "$data/resp.bin" 1000000 10)
+echo "$r1"
+r2=$(Rscript "$here/lambda_response_byhand.R" "$data/resp.bin" 1000000 10 100000)
+echo "$r2"
+u1=$("$build/lambda_univariate_bench" "$data/uni.bin" 10000000)
+echo "$u1"
+u2=$(/usr/bin/python3 "$here/lambda_univariate_scipy.py" "$data/uni.bin")
+echo "$u2"
+
+t_fit=$(val one_fit_seconds "$r1"); t_lam=$(val response_lambda_ci_seconds "$r1")
+t_hand=$(val byhand_seconds "$r2"); t_uni=$(val univariate_lambda_ci_seconds "$u1")
+t_sp=$(val scipy_seconds "$u2")
+awk -v f="$t_fit" -v l="$t_lam" -v h="$t_hand" -v u="$t_uni" -v s="$t_sp" 'BEGIN {
+  printf "\nresponse lambda+CI / one least-squares fit      = %.2f  (target <= 2)\n", l / f
+  printf "by-hand base R (scaled x10 to n=1e6) / powerback = %.1f  (target >= 100)\n", h * 10 / l
+  printf "scipy boxcox(alpha=0.05) / powerback univariate  = %.1f  (target >= 30)\n", s / u
+}'
