@@ -6,7 +6,7 @@
 // rescaled so that the squares sum to one. W = (sum a_i x_(i))^2 / sum (x_i - mean)^2.
 // p-value: exact for n = 3; for 4 <= n <= 11 a normal approximation to -log(gamma - log(1 - W));
 // for n >= 12 a normal approximation to log(1 - W). All polynomial constants below are the
-// published ones (Royston 1992, Tables 1-2; Royston 1995, the algorithm's DATA statements).
+// published ones (Royston 1992; the same values appear in the published algorithm, Royston 1995).
 #include <algorithm>
 #include <cmath>
 #include <vector>
