@@ -9,6 +9,9 @@ pwb_cmp_assemble <- function(learners, formula, dat, yname, family, level, fold_
   fail_tab <- if (length(fail_rows)) do.call(rbind, fail_rows)
               else data.frame(candidate = character(0), repeat_no = integer(0),
                               fold = integer(0), message = character(0))
+  if (!is.null(fold_tab)) rownames(fold_tab) <- NULL
+  if (!is.null(lam_tab)) rownames(lam_tab) <- NULL
+  rownames(fail_tab) <- NULL
   full <- list()
   summ <- lapply(names(learners), function(cand) {
     f <- if (is.null(fold_tab)) NULL else fold_tab[fold_tab$candidate == cand, , drop = FALSE]

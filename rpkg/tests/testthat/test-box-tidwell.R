@@ -19,6 +19,10 @@ test_that("known powers 0.5 and -1 are recovered within 2 standard errors", {
     expect_lt(bt$table$score_p, 1e-6)  # strong curvature: power 1 is rejected
     expect_equal(bt$transforms$x$family, "power")
     expect_equal(bt$transforms$x$lambda, bt$table$power)
+    # the transforms feed lm_transformed(): the curved fit beats the straight line (base R AIC)
+    m <- lm_transformed(y ~ x + z, sim_bt(alpha, 300, 5), response = "none",
+                        predictors = bt$transforms)
+    expect_lt(AIC(m), AIC(lm(y ~ x + z, sim_bt(alpha, 300, 5))) - 10)
   }
 })
 
