@@ -38,6 +38,7 @@ NULL
 print.pwb_model <- function(x, ...) {
   cat("<pwb_model> linear model on the transformed scale\n")
   cat("  response ", x$yname, ": ", format(x$response), "\n", sep = "")
+  pwb_lambda_warnings(x$response_lambda)
   if (length(x$predictors)) {
     for (v in names(x$predictors))
       cat("  predictor ", v, ": ", format(x$predictors[[v]]), "\n", sep = "")
@@ -71,6 +72,7 @@ print.summary.pwb_model <- function(x, ...) {
   if (!is.null(x$response_lambda))
     cat(sprintf("    estimated lambda %.4g, interval [%.4g, %.4g]\n", x$response_lambda$lambda,
                 x$response_lambda$conf_int[1L], x$response_lambda$conf_int[2L]))
+  pwb_lambda_warnings(x$response_lambda)
   for (v in names(x$predictors))
     cat("  predictor ", v, ": ", format(x$predictors[[v]]), "\n", sep = "")
   cat("\nFit on the transformed scale:")
@@ -128,3 +130,13 @@ logLik.pwb_model <- function(object, ...) {
 #' @rdname pwb_model_methods
 #' @export
 nobs.pwb_model <- function(object, ...) object$n
+
+# Say so when the response power was not a clean interior maximum.
+pwb_lambda_warnings <- function(lam) {
+  if (is.null(lam)) return(invisible())
+  if (isTRUE(lam$at_bound))
+    cat("    note: the estimated power lies at the edge of its search range\n")
+  if (isFALSE(lam$converged))
+    cat("    note: the search for the power did not converge\n")
+  invisible()
+}

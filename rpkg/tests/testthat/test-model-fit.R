@@ -92,3 +92,16 @@ test_that("bad input is refused with the variable, rows and remedy", {
                               predictors = list(age = new_transform("log"))), "not a predictor")
   expect_error(lm_transformed(cost ~ area, d, response = "cube"), "`response` must be")
 })
+
+test_that("print and summary show the transforms and the original-scale fit", {
+  d <- pwb_sim_cost(40, 6)
+  m <- lm_transformed(cost ~ area + age, d, response = new_transform("log"),
+                      predictors = list(area = new_transform("log")))
+  expect_output(print(m), "response cost: log of x")
+  expect_output(print(m), "predictor area: log")
+  s <- summary(m)
+  expect_s3_class(s, "summary.pwb_model")
+  expect_equal(s$lm$coefficients, summary(m$lm)$coefficients)
+  expect_output(print(s), "Original-scale log-likelihood")
+  expect_equal(nobs(m), 40)
+})
