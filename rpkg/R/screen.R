@@ -90,7 +90,7 @@ screen_skew <- function(data, vars = NULL, level = 0.95) {
     if (!is.null(one$ladder)) ladder[[vars[i]]] <- one$ladder
     if (!is.null(one$ml)) ml[[vars[i]]] <- one$ml
   }
-  table <- if (length(rows)) do.call(rbind, rows) else pwb_screen_row(vars[0], 0L, 0L, NULL)[0, ]
+  table <- if (length(rows)) do.call(rbind, rows) else pwb_screen_row("", 0L, 0L, NULL)[0, ]
   rownames(table) <- NULL
   structure(list(table = table, ladder = ladder, ml = ml, skipped = skipped, level = level,
                  rule = pwb_ladder_rule()),

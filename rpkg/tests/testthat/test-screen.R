@@ -193,3 +193,23 @@ test_that("the ML columns are estimate_lambda()'s own figures", {
   expect_equal(s$table$ml_lambda[2], b$lambda, tolerance = 1e-12)
   expect_equal(s$level, 0.9)
 })
+
+test_that("a data set without numeric columns gives an empty screen that says so", {
+  s <- screen_skew(data.frame(a = letters[1:5], b = factor(1:5)))
+  expect_equal(nrow(s$table), 0L)
+  expect_true("ml_sw_p" %in% names(s$table))
+  expect_equal(s$skipped, c("a", "b"))
+  expect_output(print(s), "skewness screen of 0 variables")
+  expect_output(print(s), "Skipped \\(not numeric\\): a, b")
+})
+
+test_that("the ladder glue gives the screen's ladder transform", {
+  d <- screen_data()
+  s <- screen_skew(d, vars = "left")
+  g <- powerback:::rpwb_ladder(d$left)
+  expect_equal(g$spec$pivot, s$ladder$left$pivot)
+  expect_equal(g$spec$family, s$ladder$left$family)
+  expect_equal(g$step, s$table$ladder)
+  expect_false(g$by_size)
+  expect_error(powerback:::rpwb_ladder(c(2, 2, 2)), "identical")
+})
