@@ -15,10 +15,12 @@ namespace {
 constexpr int kThreads = 8;
 constexpr size_t kRows = 400;
 
-// Everything one worker computes: transforms, a spec round trip, a model fit and prediction.
+// Everything one worker computes: transforms, a spec round trip, a lambda estimate, a model fit
+// and prediction.
 struct Outcome {
   std::vector<double> z, back, fit, lwr, upr;
   std::string spec_text, bad_message;
+  double lambda = 0.0, conf_low = 0.0, conf_high = 0.0;
   pwb_status bad_status = PWB_OK;
   bool ok = false;
 };
@@ -60,6 +62,13 @@ Outcome work(int k) {
          pwb_model_fit(y.data(), x.data(), kRows, 1, t, nullptr, &m) == PWB_OK &&
          pwb_model_predict(m, x.data(), kRows, 1, &po, o.fit.data(), o.lwr.data(), o.upr.data(),
                            nullptr) == PWB_OK;
+  pwb_lambda_result lr;
+  pwb_lambda_result_init(&lr);
+  o.ok = o.ok && pwb_estimate_response_lambda(y.data(), x.data(), kRows, 1, PWB_BOX_COX, nullptr,
+                                              &lr) == PWB_OK;
+  o.lambda = lr.lambda;
+  o.conf_low = lr.conf_low;
+  o.conf_high = lr.conf_high;
   if (o.ok) {
     std::vector<char> buf(need + 1);
     o.ok = pwb_spec_write(s, buf.data(), buf.size(), nullptr) == PWB_OK;
@@ -108,6 +117,9 @@ TEST_CASE("separate handles on 8 threads give the serial results bit for bit", "
       CHECK(same(serial[k].lwr, parallel[k].lwr));
       CHECK(same(serial[k].upr, parallel[k].upr));
       CHECK(serial[k].spec_text == parallel[k].spec_text);
+      CHECK(std::memcmp(&serial[k].lambda, &parallel[k].lambda, sizeof(double)) == 0);
+      CHECK(std::memcmp(&serial[k].conf_low, &parallel[k].conf_low, sizeof(double)) == 0);
+      CHECK(std::memcmp(&serial[k].conf_high, &parallel[k].conf_high, sizeof(double)) == 0);
       CHECK(parallel[k].bad_status == PWB_ERR_DOMAIN);
       CHECK(serial[k].bad_message == parallel[k].bad_message);
       CHECK_THAT(parallel[k].bad_message, Catch::Matchers::Contains(std::to_string(k + 1)));
