@@ -57,6 +57,18 @@ def main(lib_path, ref_dir):
     with open(os.path.join(ref_dir, "r_reference.pwbspec"), encoding="utf-8") as fh:
         if spec.text() != fh.read():
             sys.exit("the spec written back from Python differs from R's file")
+    # Rebuilt in Python from the constants alone, the spec is written as R wrote it.
+    rebuilt = lib.new_spec({n: lib.transform(**{("lambda_" if k == "lambda" else k): v
+                                                for k, v in spec[n].spec.items()})
+                            for n in spec.names()})
+    if rebuilt.text() != spec.text():
+        sys.exit("a spec rebuilt in Python differs from R's")
+    try:
+        rebuilt.add(spec.names()[0], spec[spec.names()[0]])
+        sys.exit("a repeated name was accepted")
+    except powerback.PowerbackError as e:
+        if e.status != "PWB_ERR_ARGUMENT":
+            sys.exit("unexpected error for a repeated name: %s" % e)
     try:
         lib.parse_spec("powerback-spec 9\nend\n")
         sys.exit("a spec from the future was accepted")

@@ -129,6 +129,7 @@ class Library:
             "pwb_spec_write": (st, [vp, ctypes.c_char_p, _size_t, ctypes.POINTER(_size_t)]),
             "pwb_spec_read": (st, [ctypes.c_char_p, _size_t, ctypes.POINTER(vp)]),
             "pwb_spec_read_file": (st, [ctypes.c_char_p, ctypes.POINTER(vp)]),
+            "pwb_spec_write_file": (st, [vp, ctypes.c_char_p]),
             "pwb_model_options_init": (None, [ctypes.POINTER(_ModelOptions)]),
             "pwb_model_fit": (st, [_c_double_p, _c_double_p, _size_t, _size_t, vp,
                                    ctypes.POINTER(_ModelOptions), ctypes.POINTER(vp)]),
@@ -175,6 +176,15 @@ class Library:
         h = ctypes.c_void_p()
         self.check(self._c.pwb_spec_read_file(os.fsencode(path), ctypes.byref(h)))
         return Spec(self, h)
+
+    def new_spec(self, transforms=None):
+        """A new Spec, optionally filled from a dict {name: Transform} (in its order)."""
+        h = ctypes.c_void_p()
+        self.check(self._c.pwb_spec_new(ctypes.byref(h)))
+        spec = Spec(self, h)
+        for name, tr in (transforms or {}).items():
+            spec.add(name, tr)
+        return spec
 
     def parse_spec(self, text):
         """The same from text (str or bytes)."""
@@ -277,7 +287,17 @@ class Spec(_Handle):
         self._lib.check(self._lib._c.pwb_spec_transform(self._h, names.index(name), ctypes.byref(h)))
         return Transform(self._lib, h)
 
+    def add(self, name, transform):
+        """Appends a copy of transform under name (distinct, non-empty UTF-8)."""
+        self._lib.check(self._lib._c.pwb_spec_add_transform(self._h, name.encode("utf-8"),
+                                                            transform._h))
+
+    def write(self, path):
+        """Writes the spec to the file at path; R's read_transforms() reads it."""
+        self._lib.check(self._lib._c.pwb_spec_write_file(self._h, os.fsencode(path)))
+
     def text(self):
+        """The spec as text ("powerback-spec 1" ... "end")."""
         need = _size_t()
         self._lib.check(self._lib._c.pwb_spec_write(self._h, None, 0, ctypes.byref(need)))
         buf = ctypes.create_string_buffer(need.value + 1)
