@@ -528,8 +528,9 @@ PWB_API pwb_status pwb_model_predict(const pwb_model *m, const double *Xnew, siz
  * A part that cannot be computed has NaN fields (and, for Shapiro-Wilk, sw_computed = 0).
  *   Shapiro-Wilk W and p of the residuals; their sample skewness.
  *   Koenker's studentized Breusch-Pagan: n R^2 of the squared residuals regressed on the model's
- *     regressors, chi-square with bp_df = rank - 1 degrees of freedom (Breusch & Pagan 1979,
- *     Koenker 1981). NaN when the model has no regressor besides the intercept.
+ *     regressors and an intercept, chi-square with bp_df = the regressors besides the intercept
+ *     (rank - 1 for a model with one) degrees of freedom (Breusch & Pagan 1979, Koenker 1981).
+ *     NaN when the model has no regressor besides the intercept.
  *   Ramsey's RESET: F test of adding fitted^2 and fitted^3, reset_df1 (normally 2) and
  *     reset_df2 = n - rank - reset_df1 degrees of freedom (Ramsey 1969). */
 typedef struct pwb_residual_checks {

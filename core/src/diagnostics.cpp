@@ -16,14 +16,27 @@ namespace {
 
 void breusch_pagan(const Model& m, ResidualChecks& out) {
   const LeastSquares& ls = m.least_squares();
-  const double df = static_cast<double>(ls.rank()) - (m.intercept() ? 1.0 : 0.0);
-  if (df < 1.0) return;
   const Eigen::VectorXd u = m.residuals().array().square().matrix();
   const double tss = (u.array() - u.mean()).square().sum();
   if (!(tss > 0.0)) return;
-  // The auxiliary regression uses the model's own design, so its factorisation is reused.
-  const double r2 = 1.0 - ls.rss(u) / tss;
-  out.bp_statistic = static_cast<double>(m.n()) * r2;
+  double df, rss;
+  if (m.intercept()) {
+    // The auxiliary regression [1 Z] is the model's own design: its factorisation is reused.
+    df = static_cast<double>(ls.rank()) - 1.0;
+    rss = ls.rss(u);
+  } else {
+    // A model without an intercept: the auxiliary regression still has one, so that R^2 is the
+    // centred one; its df are the regressors not aliased with it.
+    const Eigen::Index n = static_cast<Eigen::Index>(m.n());
+    Eigen::MatrixXd z(n, static_cast<Eigen::Index>(ls.rank()));
+    for (std::size_t i = 0; i < ls.rank(); ++i)
+      z.col(static_cast<Eigen::Index>(i)) = ls.design().col(static_cast<Eigen::Index>(ls.kept()[i]));
+    const LeastSquares aux(z.data(), m.n(), ls.rank(), true);
+    df = static_cast<double>(aux.rank()) - 1.0;
+    rss = aux.rss(u);
+  }
+  if (df < 1.0) return;
+  out.bp_statistic = static_cast<double>(m.n()) * (1.0 - rss / tss);
   out.bp_df = df;
   const boost::math::chi_squared cs(df);
   out.bp_p = boost::math::cdf(boost::math::complement(cs, std::max(out.bp_statistic, 0.0)));

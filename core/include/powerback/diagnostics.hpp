@@ -1,9 +1,9 @@
 // powerback/diagnostics.hpp — checks of a linear model's residuals on its own scale.
 //
 //   Koenker's studentized Breusch-Pagan test: regress the squared residuals e_i^2 on the
-//     model's regressors (the kept design columns); the statistic is n R^2 of that auxiliary
-//     regression, chi-square with (rank - 1) df under homoscedasticity (rank without the
-//     intercept column when the model has none).
+//     model's regressors (the kept design columns) and an intercept; the statistic is n R^2 of
+//     that auxiliary regression, chi-square with as many df as regressors besides the intercept
+//     (rank - 1 for a model with one) under homoscedasticity.
 //     Breusch, T. S. & Pagan, A. R. (1979). Econometrica 47, 1287-1294;
 //     Koenker, R. (1981). A note on studentizing a test for heteroscedasticity. J. Econometrics
 //     17, 107-112.

@@ -71,3 +71,14 @@ test_that("bad objects are refused", {
   expect_error(residual_checks(lm(y ~ x1, d), compare = TRUE), "needs a pwb_model")
   expect_error(residual_checks(list()), "pwb_model")
 })
+
+test_that("Breusch-Pagan of a model without an intercept keeps one in the auxiliary fit", {
+  d <- pwb_sim_checks(80, 9)
+  fit <- lm(y ~ 0 + x1 + x2, d)
+  ch <- residual_checks(fit)
+  # Koenker (1981): the auxiliary regression has an intercept; base R lm() and summary().
+  aux <- lm(residuals(fit)^2 ~ x1 + x2, d)
+  expect_equal(ch$breusch_pagan$statistic, 80 * summary(aux)$r.squared, tolerance = 1e-10)
+  expect_equal(ch$breusch_pagan$df, 2)
+  expect_true(is.finite(ch$reset$statistic))
+})
