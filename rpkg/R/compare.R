@@ -59,8 +59,11 @@
 #'   `r2_sd`, `folds_scored`, `folds_failed`, `adj_r2_own_scale`, `aic`, ranked by
 #'   `rmse_median`), `folds` (one row per candidate, repeat and fold), `lambdas` (the transform
 #'   of every variable learned in each training fold, with its power), `full` (the transforms
-#'   learned from all rows), `failures`, `fold_ids` (rows by repeats), `rows` (the data rows
-#'   used), `seed`, `level`, `folds_k`, `repeats` and `formula`.
+#'   learned from all rows), `failures`, `predictions` (every held-out prediction: candidate,
+#'   repeat, fold, `row` of `data`, `y`, `fit_median`, `fit_mean`, and the interval `lwr`,
+#'   `upr`), `fold_ids` (one row per used row of `data`, one column per repeat), `rows` (the
+#'   rows of `data` used, after `na.action`), `seed`, `level`, `folds_k`, `repeats` and
+#'   `formula`.
 #' @examples
 #' set.seed(3)
 #' d <- data.frame(x = runif(80, 1, 10))
@@ -110,7 +113,7 @@ compare_transforms <- function(formula, data, candidates = c("none", "ladder", "
   steps <- repeats * folds * length(learners)
   bar <- if (isTRUE(progress)) utils::txtProgressBar(min = 0, max = steps, style = 3)
   step <- 0L
-  fold_rows <- lambda_rows <- fail_rows <- list()
+  fold_rows <- lambda_rows <- fail_rows <- pred_rows <- list()
   for (r in seq_len(repeats)) {
     for (k in seq_len(folds)) {
       test <- fold_ids[, r] == k
@@ -123,6 +126,8 @@ compare_transforms <- function(formula, data, candidates = c("none", "ladder", "
           fold_rows[[length(fold_rows) + 1L]] <- cbind(tag, one$scores)
           lambda_rows[[length(lambda_rows) + 1L]] <- cbind(tag[rep(1L, nrow(one$lambdas)), ],
                                                            one$lambdas)
+          pred_rows[[length(pred_rows) + 1L]] <- cbind(tag[rep(1L, sum(test)), ],
+                                                       row = rows[test], one$predictions)
         } else {
           fail_rows[[length(fail_rows) + 1L]] <- cbind(tag, message = one$error)
         }
@@ -132,6 +137,9 @@ compare_transforms <- function(formula, data, candidates = c("none", "ladder", "
     }
   }
   if (!is.null(bar)) close(bar)
-  pwb_cmp_assemble(learners, formula, dat, yname, family, level, fold_rows, lambda_rows,
-                   fail_rows, fold_ids, rows, seed, folds, repeats)
+  out <- pwb_cmp_assemble(learners, formula, dat, yname, family, level, fold_rows, lambda_rows,
+                          fail_rows, fold_ids, rows, seed, folds, repeats)
+  out$predictions <- if (length(pred_rows)) do.call(rbind, pred_rows)
+  if (!is.null(out$predictions)) rownames(out$predictions) <- NULL
+  out
 }

@@ -102,7 +102,9 @@ pwb_cmp_one_fold <- function(learner, formula, train, test, yname, family, level
     r2_mean = na_if(s_mean[["r2"]], bad_mean),
     coverage = na_if(s_med[["coverage"]], bad_med), width = na_if(s_med[["width"]], bad_med),
     n_nonfinite = as.integer(max(s_med[["n_nonfinite"]], s_mean[["n_nonfinite"]])))
-  list(scores = scores, lambdas = pwb_cmp_lambdas(model, yname))
+  preds <- data.frame(y = y, fit_median = pm$med$fit, fit_mean = pm$mean$fit, lwr = pm$med$lwr,
+                      upr = pm$med$upr, row.names = NULL)
+  list(scores = scores, lambdas = pwb_cmp_lambdas(model, yname), predictions = preds)
 }
 
 # The transforms a fitted model learned: one row per transformed variable (the response first).
@@ -113,6 +115,10 @@ pwb_cmp_lambdas <- function(model, yname) {
              family = vapply(trs, function(t) t$family, character(1)),
              lambda = vapply(trs, function(t) as.double(t$lambda), numeric(1)),
              lambda_estimate = c(est, rep(NA_real_, length(trs) - 1L)),
-             transform = vapply(trs, format, character(1)), stringsAsFactors = FALSE,
+             transform = vapply(names(trs), function(v) pwb_cmp_describe(trs[[v]], v),
+                                character(1)), stringsAsFactors = FALSE,
              row.names = NULL)
 }
+
+# The transform's one-line text with the variable's name in place of the generic x.
+pwb_cmp_describe <- function(tr, v) gsub("\\bx\\b", v, format(tr), perl = TRUE)

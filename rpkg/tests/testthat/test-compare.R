@@ -118,3 +118,19 @@ test_that("the built-in candidates learn their powers inside each fold", {
   # the skewed predictor x gets its own per-fold transform under "ml" and "ladder"
   expect_true(all(c("ml", "ladder") %in% cmp$lambdas$candidate[cmp$lambdas$variable == "x"]))
 })
+
+test_that("held-out predictions are kept and aligned to the rows of the data", {
+  d <- sim_cmp(24, 8)
+  d$x[5] <- NA  # omitted: no prediction for row 5, the other rows keep their numbers
+  cmp <- compare_transforms(y ~ x, d, candidates = "none", folds = 3, repeats = 2, seed = 1,
+                            progress = FALSE)
+  p <- cmp$predictions
+  expect_equal(nrow(p), 2L * 23L)
+  expect_false(5L %in% p$row)
+  expect_equal(sort(p$row[p$repeat_no == 1]), setdiff(1:24, 5L))
+  expect_equal(p$y, d$y[p$row])
+  # each row's prediction comes from the fit without its fold (base R lm(), predict.lm())
+  one <- p[p$repeat_no == 2 & p$row == 10, ]
+  tr <- d[-5, ][cmp$fold_ids[, 2] != one$fold, ]
+  expect_equal(one$fit_median, unname(predict(lm(y ~ x, tr), d[10, ])), tolerance = 1e-10)
+})
