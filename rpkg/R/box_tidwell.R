@@ -78,6 +78,13 @@ box_tidwell <- function(object, data = NULL, vars = NULL, max_iter = 50L, tol = 
                    pwb_plural(length(nonpos), "row"), pwb_format_rows(fr$rows[nonpos]), v,
                    format(-min(fr$mf[[v]]), digits = 4)), call. = FALSE)
   }
+  fac <- attr(fr$terms, "factors")
+  shared <- vars[vapply(vars, function(v) sum(fac[v, ] != 0) > 1L, logical(1))]
+  if (length(shared) > 0L)
+    stop(sprintf(paste0("%s also %s in another term (an interaction): Box-Tidwell powers need ",
+                        "each variable in one plain term only"),
+                 paste0("`", shared, "`", collapse = ", "),
+                 if (length(shared) == 1L) "appears" else "appear"), call. = FALSE)
   Z <- X[, setdiff(colnames(X), vars), drop = FALSE]
   res <- rpwb_box_tidwell(fr$y, Z, X[, vars, drop = FALSE], as.integer(max_iter), tol)
   zq <- stats::qnorm(0.5 + level / 2)

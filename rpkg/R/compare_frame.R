@@ -16,6 +16,9 @@ pwb_cmp_frame <- function(object, data, caller) {
                  class(object)[1L]), call. = FALSE)
   }
   tt <- attr(mf, "terms")
+  if ("(weights)" %in% names(mf) || !is.null(attr(tt, "offset")) || "(offset)" %in% names(mf))
+    stop(sprintf("%s() does not support weights or offsets: fit the model without them",
+                 caller), call. = FALSE)
   if (attr(tt, "response") == 0L)
     stop("the formula has no response: write it as y ~ x1 + x2", call. = FALSE)
   y <- stats::model.response(mf)

@@ -73,4 +73,6 @@ test_that("non-positive values name the variable, count and rows", {
   expect_error(box_tidwell(y ~ x + z, d, vars = "w"), "plain terms; not: w")
   expect_error(box_tidwell(y ~ x, d[1:3, ], vars = "x"), "more rows")
   expect_error(box_tidwell(y ~ x, d, max_iter = 0), "max_iter")
+  expect_error(box_tidwell(y ~ x * z, d[-c(4, 9), ], vars = "x"), "`x` also appears in another term")
+  expect_error(box_tidwell(lm(y ~ x, d, weights = rep(2, 30))), "does not support weights")
 })
