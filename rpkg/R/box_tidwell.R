@@ -118,6 +118,9 @@ print.pwb_box_tidwell <- function(x, digits = 4, ...) {
   num <- c("power", "se", "conf_low", "conf_high", "score_t")
   tab[num] <- lapply(tab[num], signif, digits = digits)
   tab$score_p <- format.pval(tab$score_p, digits = 3)
+  tab$transform <- vapply(x$transforms, function(t)
+    if (t$family == "power") sprintf("power(%s)", signif(t$lambda, digits)) else t$family,
+    character(1))
   names(tab)[names(tab) == "conf_low"] <- sprintf("lower %g%%", 100 * x$level)
   names(tab)[names(tab) == "conf_high"] <- sprintf("upper %g%%", 100 * x$level)
   print(tab, row.names = FALSE, ...)

@@ -62,6 +62,7 @@ test_that("a log relationship suggests the log transform", {
   expect_lt(abs(bt$table$power), 2 * bt$table$se)
   expect_equal(bt$transforms$x$family, "log")
   expect_output(print(bt), "converged in")
+  expect_output(print(bt), "x .* log\n")
 })
 
 test_that("non-positive values name the variable, count and rows", {
