@@ -593,7 +593,8 @@ typedef struct pwb_box_tidwell_result {
  * Outputs (caller-owned, m values each): alpha (the powers), se (their standard errors from the
  * linearised fit at the final powers), score_t and score_p (t statistic and two-sided p-value of
  * the added column X_j log X_j in the fit with every X linear: the test of power 1). score_t and
- * score_p may be NULL. history may be NULL or hold m * (max_iter + 1) values: column k
+ * score_p may be NULL. history may be NULL or hold m * (max_iter + 1) values (max_iter from
+ * opt, 50 when opt is NULL): column k
  * (history[k*m + j]) holds the powers after k updates (column 0 is all 1), NaN after the last.
  * Non-convergence is reported in out->converged, not as an error; the powers are then the last
  * finite iterate. Errors: PWB_ERR_ARGUMENT (NULL pointers, m == 0, n too small for the fit,
