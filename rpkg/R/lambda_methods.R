@@ -108,6 +108,7 @@ as_transform.pwb_lambda <- function(x, which = c("convenient", "estimate"), ...)
 #' @export
 as_transform.pwb_transform <- function(x, which = c("convenient", "estimate"), ...) x
 
+#' @rdname as_transform
 #' @export
 as_transform.default <- function(x, which = c("convenient", "estimate"), ...) {
   stop("`x` must be a pwb_lambda (estimate_lambda(), estimate_response_lambda()) or a ",
