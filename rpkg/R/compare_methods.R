@@ -62,6 +62,14 @@ print.pwb_comparison <- function(x, digits = 4, ...) {
                      "smearing mean), %g%% prediction intervals. aic is comparable across ",
                      "candidates; adj_r2_own is on each candidate's own scale and is NOT.\n"),
               100 * x$level))
+  nonfinite <- tapply(x$folds$n_nonfinite, x$folds$candidate, sum)
+  nonfinite <- nonfinite[nonfinite > 0]
+  if (length(nonfinite)) {
+    cat(sprintf(paste0("%s: %d held-out %s left the transform's range (non-finite back-transform), ",
+                       "so the folds holding them score NA; see $predictions.\n"),
+                names(nonfinite), as.integer(nonfinite),
+                ifelse(nonfinite == 1, "prediction", "predictions")), sep = "")
+  }
   if (nrow(x$failures)) {
     cat(sprintf("%d candidate-fold %s failed:\n", nrow(x$failures),
                 pwb_plural(nrow(x$failures), "fit")))
