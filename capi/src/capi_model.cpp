@@ -1,4 +1,5 @@
 // The model handle of the C ABI: fit, accessors, predictions in original units.
+#include <cstring>
 #include <memory>
 
 #include "capi_internal.hpp"
@@ -23,6 +24,16 @@ Transform transform_of(const pwb_transform* t) {
   ts.reflect = s.reflect != 0;
   ts.pivot = s.pivot;
   return Transform(ts);
+}
+
+// A C caller may pass any int where an enum is declared; reading it as the C++ enum type would
+// be undefined for values outside the enumerators, so read its bytes as an int.
+template <class E>
+int enum_value(const E& e) {
+  static_assert(sizeof(E) == sizeof(int), "C enums are int-sized");
+  int v;
+  std::memcpy(&v, &e, sizeof v);
+  return v;
 }
 
 }  // namespace
@@ -104,14 +115,14 @@ pwb_status pwb_model_vector_get(const pwb_model* m, pwb_model_vector which, doub
     require(n == f.n(), "n is " + std::to_string(n) + " but the model has " +
                             std::to_string(f.n()) + " rows");
     Eigen::VectorXd v;
-    switch (which) {
+    switch (enum_value(which)) {
       case PWB_MODEL_RESIDUALS: v = f.residuals(); break;
       case PWB_MODEL_FITTED: v = f.fitted(); break;
       case PWB_MODEL_LEVERAGES: v = f.leverages(); break;
       case PWB_MODEL_TRANSFORMED_RESPONSE: v = f.transformed_response(); break;
       default:
         throw Error(ErrorCode::Argument,
-                    "unknown model vector " + std::to_string(static_cast<int>(which)));
+                    "unknown model vector " + std::to_string(enum_value(which)));
     }
     for (std::size_t i = 0; i < n; ++i) out[i] = v(static_cast<Eigen::Index>(i));
   });
@@ -142,21 +153,21 @@ pwb_status pwb_model_predict(const pwb_model* m, const double* Xnew, size_t rows
     }
     PredictOptions po;
     po.level = o.level;
-    switch (o.interval) {
+    switch (enum_value(o.interval)) {
       case PWB_INTERVAL_NONE: po.interval = IntervalKind::None; break;
       case PWB_INTERVAL_CONFIDENCE: po.interval = IntervalKind::Confidence; break;
       case PWB_INTERVAL_PREDICTION: po.interval = IntervalKind::Prediction; break;
-      default: throw Error(ErrorCode::Argument, "unknown interval kind " + std::to_string(static_cast<int>(o.interval)));
+      default: throw Error(ErrorCode::Argument, "unknown interval kind " + std::to_string(enum_value(o.interval)));
     }
-    switch (o.center) {
+    switch (enum_value(o.center)) {
       case PWB_CENTER_MEDIAN: po.center = Center::Median; break;
       case PWB_CENTER_MEAN: po.center = Center::Mean; break;
-      default: throw Error(ErrorCode::Argument, "unknown center " + std::to_string(static_cast<int>(o.center)));
+      default: throw Error(ErrorCode::Argument, "unknown center " + std::to_string(enum_value(o.center)));
     }
-    switch (o.mean_method) {
+    switch (enum_value(o.mean_method)) {
       case PWB_MEAN_SMEARING: po.mean_method = MeanMethod::Smearing; break;
       case PWB_MEAN_NORMAL: po.mean_method = MeanMethod::Normal; break;
-      default: throw Error(ErrorCode::Argument, "unknown mean method " + std::to_string(static_cast<int>(o.mean_method)));
+      default: throw Error(ErrorCode::Argument, "unknown mean method " + std::to_string(enum_value(o.mean_method)));
     }
     po.transformed_scale = o.transformed_scale != 0;
     const Prediction pr = m->impl.predict(Xnew, rows, p, po);

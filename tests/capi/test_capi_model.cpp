@@ -83,6 +83,10 @@ TEST_CASE("a log model through the C ABI", "[capi][model]") {
   CHECK(pwb_model_predict(h.m, xn, 3, 1, &o, fit, lwr, upr, flags) == PWB_ERR_ARGUMENT);
   CHECK_THAT(pwb_last_error(), Contains("level"));
   o.level = 0.9;
+  o.interval = static_cast<pwb_interval>(7);
+  CHECK(pwb_model_predict(h.m, xn, 3, 1, &o, fit, lwr, upr, flags) == PWB_ERR_ARGUMENT);
+  CHECK_THAT(pwb_last_error(), Contains("unknown interval kind 7"));
+  o.interval = PWB_INTERVAL_NONE;
   o.struct_size = 8;
   CHECK(pwb_model_predict(h.m, xn, 3, 1, &o, fit, lwr, upr, flags) == PWB_ERR_ARGUMENT);
   CHECK(pwb_model_predict(h.m, xn, 3, 2, nullptr, fit, lwr, upr, flags) == PWB_ERR_ARGUMENT);
