@@ -3,6 +3,7 @@
 #include <vector>
 
 #include "capi_internal.hpp"
+#include "capi_sizes.hpp"
 #include "powerback/box_tidwell.hpp"
 
 using namespace powerback;
@@ -24,8 +25,9 @@ pwb_status pwb_box_tidwell(const double* y, const double* Z, size_t n, size_t q,
                            pwb_box_tidwell_result* out) {
   return capi::guarded([&] {
     capi::need(y, "y");
-    capi::need_array(Z, n * q, "Z");
+    capi::need_array(Z, capi::checked_matrix_size(n, q, "Z"), "Z");
     capi::need(X, "X");
+    (void)capi::checked_matrix_size(n, m, "X");
     capi::need(alpha, "alpha");
     capi::need(se, "se");
     capi::need(out, "out");

@@ -1,5 +1,6 @@
 // Leave-one-out lambda through the C ABI.
 #include "capi_internal.hpp"
+#include "capi_sizes.hpp"
 #include "powerback/influence.hpp"
 
 using namespace powerback;
@@ -21,7 +22,7 @@ pwb_status pwb_lambda_influence(const double* y, const double* X, size_t n, size
                                 double* loo_lambda, double* leverage, int* outside, int* at_bound) {
   return capi::guarded([&] {
     capi::need(y, "y");
-    capi::need_array(X, n * p, "X");
+    capi::need_array(X, capi::checked_matrix_size(n, p, "X"), "X");
     capi::need(summary, "summary");
     capi::need_struct(summary->struct_size, sizeof(pwb_influence_summary), "pwb_influence_summary");
     LambdaOptions o;

@@ -2,6 +2,7 @@
 #include <vector>
 
 #include "capi_internal.hpp"
+#include "capi_sizes.hpp"
 #include "powerback/lambda.hpp"
 
 using namespace powerback;
@@ -96,7 +97,7 @@ pwb_status pwb_estimate_response_lambda(const double* y, const double* X, size_t
   return capi::guarded([&] {
     check_out(out);
     capi::need_array(y, n, "y");
-    capi::need_array(X, n * p, "X");
+    capi::need_array(X, capi::checked_matrix_size(n, p, "X"), "X");
     write_result(estimate_response_lambda(y, X, n, p, lambda_family(family), options_of(opt)), out);
   });
 }
@@ -117,7 +118,7 @@ pwb_status pwb_response_lambda_profile(const double* y, const double* X, size_t 
                                        double* loglik_out) {
   return capi::guarded([&] {
     capi::need_array(y, n, "y");
-    capi::need_array(X, n * p, "X");
+    capi::need_array(X, capi::checked_matrix_size(n, p, "X"), "X");
     capi::need_array(grid, n_grid, "grid");
     capi::need_array(loglik_out, n_grid, "loglik_out");
     const Family f = lambda_family(family);
@@ -149,7 +150,7 @@ pwb_status pwb_estimate_response_lambda_curve(const double* y, const double* X, 
   return capi::guarded([&] {
     check_out(out);
     capi::need_array(y, n, "y");
-    capi::need_array(X, n * p, "X");
+    capi::need_array(X, capi::checked_matrix_size(n, p, "X"), "X");
     check_curve(n_grid, grid_out, loglik_out);
     const Family f = lambda_family(family);
     const LambdaOptions o = options_of(opt);
