@@ -242,7 +242,7 @@ PWB_API pwb_status pwb_response_lambda_profile(const double *y, const double *X,
 
 /* An estimate and its profile curve for plotting in one call (one factorisation of the design).
  * As pwb_estimate_lambda / pwb_estimate_response_lambda, then n_grid (>= 2) equally spaced
- * lambdas spanning the interval with a margin of max(0.5, half its width) on each side, clipped
+ * lambdas spanning the interval with a margin of max(0.1, 1.5 times its width) on each side, clipped
  * to [lower, upper], go to grid_out and their profile log-likelihoods to loglik_out (both
  * caller-owned, n_grid doubles). n_grid = 101 is a good default. Thread-safe. */
 PWB_API pwb_status pwb_estimate_lambda_curve(const double *x, size_t n, pwb_family family,

@@ -38,7 +38,9 @@ std::vector<double> profile_grid(const LambdaEstimate& est, std::size_t m) {
   require(m >= 2, "a profile grid needs at least 2 points");
   require(std::isfinite(est.conf_low) && std::isfinite(est.conf_high) && est.lower < est.upper,
           "the estimate has no finite interval to draw a grid around");
-  const double margin = std::max(0.5, 0.5 * (est.conf_high - est.conf_low));
+  // 1.5 interval widths on each side (at least 0.1): the interval fills about a quarter of the
+  // plot, so its cut line stays visible however narrow it is.
+  const double margin = std::max(0.1, 1.5 * (est.conf_high - est.conf_low));
   const double lo = std::max(est.lower, std::min(est.conf_low, est.lambda) - margin);
   const double hi = std::min(est.upper, std::max(est.conf_high, est.lambda) + margin);
   std::vector<double> g(m);

@@ -80,7 +80,7 @@ std::vector<double> response_lambda_profile(const double* y, const LeastSquares&
                                             Family family, const double* grid, std::size_t m);
 
 // A grid of m points (m >= 2) for plotting an estimate's profile: it spans the interval with a
-// margin of half its width on each side (at least 0.5 each side), clipped to the search range.
+// margin of 1.5 times its width on each side (at least 0.1 each side), clipped to the search range.
 std::vector<double> profile_grid(const LambdaEstimate& est, std::size_t m = 101);
 
 // ---- internals shared by the core's lambda sources (not a stable interface) ----------------
