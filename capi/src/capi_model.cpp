@@ -3,6 +3,7 @@
 #include <memory>
 
 #include "capi_internal.hpp"
+#include "capi_sizes.hpp"
 #include "capi_model_handle.hpp"
 #include "powerback/model.hpp"
 #include "powerback/transform.hpp"
@@ -54,7 +55,7 @@ pwb_status pwb_model_fit(const double* y, const double* X, size_t n, size_t p,
   return capi::guarded([&] {
     capi::need(out, "out");
     capi::need(y, "y");
-    capi::need_array(X, n * p, "X");
+    capi::need_array(X, capi::checked_matrix_size(n, p, "X"), "X");
     pwb_model_options o;
     pwb_model_options_init(&o);
     if (opt) {
@@ -144,7 +145,7 @@ pwb_status pwb_model_predict(const pwb_model* m, const double* Xnew, size_t rows
   return capi::guarded([&] {
     capi::need(m, "m");
     capi::need_array(fit, rows, "fit");
-    capi::need_array(Xnew, rows * p, "Xnew");
+    capi::need_array(Xnew, capi::checked_matrix_size(rows, p, "Xnew"), "Xnew");
     pwb_predict_options o;
     pwb_predict_options_init(&o);
     if (opt) {

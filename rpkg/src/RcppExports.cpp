@@ -11,6 +11,232 @@ Rcpp::Rostream<true>&  Rcpp::Rcout = Rcpp::Rcpp_cout_get();
 Rcpp::Rostream<false>& Rcpp::Rcerr = Rcpp::Rcpp_cerr_get();
 #endif
 
+// rpwb_box_tidwell
+Rcpp::List rpwb_box_tidwell(Rcpp::NumericVector y, Rcpp::NumericMatrix Z, Rcpp::NumericMatrix X, int max_iter, double tol);
+RcppExport SEXP _powerback_rpwb_box_tidwell(SEXP ySEXP, SEXP ZSEXP, SEXP XSEXP, SEXP max_iterSEXP, SEXP tolSEXP) {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< Rcpp::NumericVector >::type y(ySEXP);
+    Rcpp::traits::input_parameter< Rcpp::NumericMatrix >::type Z(ZSEXP);
+    Rcpp::traits::input_parameter< Rcpp::NumericMatrix >::type X(XSEXP);
+    Rcpp::traits::input_parameter< int >::type max_iter(max_iterSEXP);
+    Rcpp::traits::input_parameter< double >::type tol(tolSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_box_tidwell(y, Z, X, max_iter, tol));
+    return rcpp_result_gen;
+END_RCPP
+}
+// rpwb_lambda_influence
+Rcpp::List rpwb_lambda_influence(Rcpp::NumericVector y, Rcpp::NumericMatrix X, std::string family, double lower, double upper, double level);
+RcppExport SEXP _powerback_rpwb_lambda_influence(SEXP ySEXP, SEXP XSEXP, SEXP familySEXP, SEXP lowerSEXP, SEXP upperSEXP, SEXP levelSEXP) {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< Rcpp::NumericVector >::type y(ySEXP);
+    Rcpp::traits::input_parameter< Rcpp::NumericMatrix >::type X(XSEXP);
+    Rcpp::traits::input_parameter< std::string >::type family(familySEXP);
+    Rcpp::traits::input_parameter< double >::type lower(lowerSEXP);
+    Rcpp::traits::input_parameter< double >::type upper(upperSEXP);
+    Rcpp::traits::input_parameter< double >::type level(levelSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_lambda_influence(y, X, family, lower, upper, level));
+    return rcpp_result_gen;
+END_RCPP
+}
+// rpwb_cv_folds
+Rcpp::IntegerMatrix rpwb_cv_folds(int n, int folds, int repeats, double seed);
+RcppExport SEXP _powerback_rpwb_cv_folds(SEXP nSEXP, SEXP foldsSEXP, SEXP repeatsSEXP, SEXP seedSEXP) {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< int >::type n(nSEXP);
+    Rcpp::traits::input_parameter< int >::type folds(foldsSEXP);
+    Rcpp::traits::input_parameter< int >::type repeats(repeatsSEXP);
+    Rcpp::traits::input_parameter< double >::type seed(seedSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_cv_folds(n, folds, repeats, seed));
+    return rcpp_result_gen;
+END_RCPP
+}
+// rpwb_holdout_score
+Rcpp::NumericVector rpwb_holdout_score(Rcpp::NumericVector y, Rcpp::NumericVector fit, Rcpp::Nullable<Rcpp::NumericVector> lwr, Rcpp::Nullable<Rcpp::NumericVector> upr);
+RcppExport SEXP _powerback_rpwb_holdout_score(SEXP ySEXP, SEXP fitSEXP, SEXP lwrSEXP, SEXP uprSEXP) {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< Rcpp::NumericVector >::type y(ySEXP);
+    Rcpp::traits::input_parameter< Rcpp::NumericVector >::type fit(fitSEXP);
+    Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::NumericVector> >::type lwr(lwrSEXP);
+    Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::NumericVector> >::type upr(uprSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_holdout_score(y, fit, lwr, upr));
+    return rcpp_result_gen;
+END_RCPP
+}
+// rpwb_model_checks
+Rcpp::List rpwb_model_checks(Rcpp::NumericVector y, Rcpp::NumericMatrix X, bool intercept, Rcpp::Nullable<Rcpp::List> response);
+RcppExport SEXP _powerback_rpwb_model_checks(SEXP ySEXP, SEXP XSEXP, SEXP interceptSEXP, SEXP responseSEXP) {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< Rcpp::NumericVector >::type y(ySEXP);
+    Rcpp::traits::input_parameter< Rcpp::NumericMatrix >::type X(XSEXP);
+    Rcpp::traits::input_parameter< bool >::type intercept(interceptSEXP);
+    Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::List> >::type response(responseSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_model_checks(y, X, intercept, response));
+    return rcpp_result_gen;
+END_RCPP
+}
+// rpwb_estimate_lambda
+Rcpp::List rpwb_estimate_lambda(Rcpp::NumericVector x, std::string family, double lower, double upper, double level, int n_grid);
+RcppExport SEXP _powerback_rpwb_estimate_lambda(SEXP xSEXP, SEXP familySEXP, SEXP lowerSEXP, SEXP upperSEXP, SEXP levelSEXP, SEXP n_gridSEXP) {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< Rcpp::NumericVector >::type x(xSEXP);
+    Rcpp::traits::input_parameter< std::string >::type family(familySEXP);
+    Rcpp::traits::input_parameter< double >::type lower(lowerSEXP);
+    Rcpp::traits::input_parameter< double >::type upper(upperSEXP);
+    Rcpp::traits::input_parameter< double >::type level(levelSEXP);
+    Rcpp::traits::input_parameter< int >::type n_grid(n_gridSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_estimate_lambda(x, family, lower, upper, level, n_grid));
+    return rcpp_result_gen;
+END_RCPP
+}
+// rpwb_estimate_response_lambda
+Rcpp::List rpwb_estimate_response_lambda(Rcpp::NumericVector y, Rcpp::NumericMatrix X, std::string family, double lower, double upper, double level, int n_grid);
+RcppExport SEXP _powerback_rpwb_estimate_response_lambda(SEXP ySEXP, SEXP XSEXP, SEXP familySEXP, SEXP lowerSEXP, SEXP upperSEXP, SEXP levelSEXP, SEXP n_gridSEXP) {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< Rcpp::NumericVector >::type y(ySEXP);
+    Rcpp::traits::input_parameter< Rcpp::NumericMatrix >::type X(XSEXP);
+    Rcpp::traits::input_parameter< std::string >::type family(familySEXP);
+    Rcpp::traits::input_parameter< double >::type lower(lowerSEXP);
+    Rcpp::traits::input_parameter< double >::type upper(upperSEXP);
+    Rcpp::traits::input_parameter< double >::type level(levelSEXP);
+    Rcpp::traits::input_parameter< int >::type n_grid(n_gridSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_estimate_response_lambda(y, X, family, lower, upper, level, n_grid));
+    return rcpp_result_gen;
+END_RCPP
+}
+// rpwb_lambda_profile
+Rcpp::NumericVector rpwb_lambda_profile(Rcpp::NumericVector y, Rcpp::Nullable<Rcpp::NumericMatrix> X, std::string family, Rcpp::NumericVector grid);
+RcppExport SEXP _powerback_rpwb_lambda_profile(SEXP ySEXP, SEXP XSEXP, SEXP familySEXP, SEXP gridSEXP) {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< Rcpp::NumericVector >::type y(ySEXP);
+    Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::NumericMatrix> >::type X(XSEXP);
+    Rcpp::traits::input_parameter< std::string >::type family(familySEXP);
+    Rcpp::traits::input_parameter< Rcpp::NumericVector >::type grid(gridSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_lambda_profile(y, X, family, grid));
+    return rcpp_result_gen;
+END_RCPP
+}
+// rpwb_model_fit
+Rcpp::List rpwb_model_fit(Rcpp::NumericVector y, Rcpp::NumericMatrix X, bool intercept, Rcpp::Nullable<Rcpp::List> response, int estimated);
+RcppExport SEXP _powerback_rpwb_model_fit(SEXP ySEXP, SEXP XSEXP, SEXP interceptSEXP, SEXP responseSEXP, SEXP estimatedSEXP) {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< Rcpp::NumericVector >::type y(ySEXP);
+    Rcpp::traits::input_parameter< Rcpp::NumericMatrix >::type X(XSEXP);
+    Rcpp::traits::input_parameter< bool >::type intercept(interceptSEXP);
+    Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::List> >::type response(responseSEXP);
+    Rcpp::traits::input_parameter< int >::type estimated(estimatedSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_model_fit(y, X, intercept, response, estimated));
+    return rcpp_result_gen;
+END_RCPP
+}
+// rpwb_model_predict
+Rcpp::List rpwb_model_predict(Rcpp::NumericVector y, Rcpp::NumericMatrix X, bool intercept, Rcpp::Nullable<Rcpp::List> response, int estimated, Rcpp::NumericMatrix Xnew, double level, int interval, int center, int mean_method, bool transformed);
+RcppExport SEXP _powerback_rpwb_model_predict(SEXP ySEXP, SEXP XSEXP, SEXP interceptSEXP, SEXP responseSEXP, SEXP estimatedSEXP, SEXP XnewSEXP, SEXP levelSEXP, SEXP intervalSEXP, SEXP centerSEXP, SEXP mean_methodSEXP, SEXP transformedSEXP) {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< Rcpp::NumericVector >::type y(ySEXP);
+    Rcpp::traits::input_parameter< Rcpp::NumericMatrix >::type X(XSEXP);
+    Rcpp::traits::input_parameter< bool >::type intercept(interceptSEXP);
+    Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::List> >::type response(responseSEXP);
+    Rcpp::traits::input_parameter< int >::type estimated(estimatedSEXP);
+    Rcpp::traits::input_parameter< Rcpp::NumericMatrix >::type Xnew(XnewSEXP);
+    Rcpp::traits::input_parameter< double >::type level(levelSEXP);
+    Rcpp::traits::input_parameter< int >::type interval(intervalSEXP);
+    Rcpp::traits::input_parameter< int >::type center(centerSEXP);
+    Rcpp::traits::input_parameter< int >::type mean_method(mean_methodSEXP);
+    Rcpp::traits::input_parameter< bool >::type transformed(transformedSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_model_predict(y, X, intercept, response, estimated, Xnew, level, interval, center, mean_method, transformed));
+    return rcpp_result_gen;
+END_RCPP
+}
+// rpwb_shapiro_wilk
+Rcpp::List rpwb_shapiro_wilk(Rcpp::NumericVector x);
+RcppExport SEXP _powerback_rpwb_shapiro_wilk(SEXP xSEXP) {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< Rcpp::NumericVector >::type x(xSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_shapiro_wilk(x));
+    return rcpp_result_gen;
+END_RCPP
+}
+// rpwb_moments
+Rcpp::List rpwb_moments(Rcpp::NumericVector x);
+RcppExport SEXP _powerback_rpwb_moments(SEXP xSEXP) {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< Rcpp::NumericVector >::type x(xSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_moments(x));
+    return rcpp_result_gen;
+END_RCPP
+}
+// rpwb_ladder
+Rcpp::List rpwb_ladder(Rcpp::NumericVector x);
+RcppExport SEXP _powerback_rpwb_ladder(SEXP xSEXP) {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< Rcpp::NumericVector >::type x(xSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_ladder(x));
+    return rcpp_result_gen;
+END_RCPP
+}
+// rpwb_screen_variable
+Rcpp::List rpwb_screen_variable(Rcpp::NumericVector x, double level, double lower, double upper);
+RcppExport SEXP _powerback_rpwb_screen_variable(SEXP xSEXP, SEXP levelSEXP, SEXP lowerSEXP, SEXP upperSEXP) {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< Rcpp::NumericVector >::type x(xSEXP);
+    Rcpp::traits::input_parameter< double >::type level(levelSEXP);
+    Rcpp::traits::input_parameter< double >::type lower(lowerSEXP);
+    Rcpp::traits::input_parameter< double >::type upper(upperSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_screen_variable(x, level, lower, upper));
+    return rcpp_result_gen;
+END_RCPP
+}
+// rpwb_spec_write_file
+void rpwb_spec_write_file(Rcpp::List transforms, Rcpp::CharacterVector names, std::string path);
+RcppExport SEXP _powerback_rpwb_spec_write_file(SEXP transformsSEXP, SEXP namesSEXP, SEXP pathSEXP) {
+BEGIN_RCPP
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< Rcpp::List >::type transforms(transformsSEXP);
+    Rcpp::traits::input_parameter< Rcpp::CharacterVector >::type names(namesSEXP);
+    Rcpp::traits::input_parameter< std::string >::type path(pathSEXP);
+    rpwb_spec_write_file(transforms, names, path);
+    return R_NilValue;
+END_RCPP
+}
+// rpwb_spec_read_file
+Rcpp::List rpwb_spec_read_file(std::string path);
+RcppExport SEXP _powerback_rpwb_spec_read_file(SEXP pathSEXP) {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< std::string >::type path(pathSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_spec_read_file(path));
+    return rcpp_result_gen;
+END_RCPP
+}
 // rpwb_transform_normalise
 Rcpp::List rpwb_transform_normalise(Rcpp::List spec);
 RcppExport SEXP _powerback_rpwb_transform_normalise(SEXP specSEXP) {
@@ -59,6 +285,22 @@ END_RCPP
 }
 
 static const R_CallMethodDef CallEntries[] = {
+    {"_powerback_rpwb_box_tidwell", (DL_FUNC) &_powerback_rpwb_box_tidwell, 5},
+    {"_powerback_rpwb_lambda_influence", (DL_FUNC) &_powerback_rpwb_lambda_influence, 6},
+    {"_powerback_rpwb_cv_folds", (DL_FUNC) &_powerback_rpwb_cv_folds, 4},
+    {"_powerback_rpwb_holdout_score", (DL_FUNC) &_powerback_rpwb_holdout_score, 4},
+    {"_powerback_rpwb_model_checks", (DL_FUNC) &_powerback_rpwb_model_checks, 4},
+    {"_powerback_rpwb_estimate_lambda", (DL_FUNC) &_powerback_rpwb_estimate_lambda, 6},
+    {"_powerback_rpwb_estimate_response_lambda", (DL_FUNC) &_powerback_rpwb_estimate_response_lambda, 7},
+    {"_powerback_rpwb_lambda_profile", (DL_FUNC) &_powerback_rpwb_lambda_profile, 4},
+    {"_powerback_rpwb_model_fit", (DL_FUNC) &_powerback_rpwb_model_fit, 5},
+    {"_powerback_rpwb_model_predict", (DL_FUNC) &_powerback_rpwb_model_predict, 11},
+    {"_powerback_rpwb_shapiro_wilk", (DL_FUNC) &_powerback_rpwb_shapiro_wilk, 1},
+    {"_powerback_rpwb_moments", (DL_FUNC) &_powerback_rpwb_moments, 1},
+    {"_powerback_rpwb_ladder", (DL_FUNC) &_powerback_rpwb_ladder, 1},
+    {"_powerback_rpwb_screen_variable", (DL_FUNC) &_powerback_rpwb_screen_variable, 4},
+    {"_powerback_rpwb_spec_write_file", (DL_FUNC) &_powerback_rpwb_spec_write_file, 3},
+    {"_powerback_rpwb_spec_read_file", (DL_FUNC) &_powerback_rpwb_spec_read_file, 1},
     {"_powerback_rpwb_transform_normalise", (DL_FUNC) &_powerback_rpwb_transform_normalise, 1},
     {"_powerback_rpwb_transform_map", (DL_FUNC) &_powerback_rpwb_transform_map, 3},
     {"_powerback_rpwb_transform_describe", (DL_FUNC) &_powerback_rpwb_transform_describe, 2},

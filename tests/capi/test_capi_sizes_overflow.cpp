@@ -34,3 +34,19 @@ TEST_CASE("lambda influence and Box-Tidwell refuse an n x p that overflows", "[c
   CHECK(pwb_box_tidwell(tiny, tiny, kHugeN, 2, tiny, 1, nullptr, alpha, se, nullptr, nullptr,
                         nullptr, &r) == PWB_ERR_MEMORY);
 }
+
+TEST_CASE("model fit and predict refuse sizes that overflow", "[capi][sizes]") {
+  pwb_model* m = nullptr;
+  CHECK(pwb_model_fit(tiny, tiny, kHugeN, 2, nullptr, nullptr, &m) == PWB_ERR_MEMORY);
+  CHECK(m == nullptr);
+  // a real model, then a prediction request whose rows x p overflows
+  const double y[4] = {1.0, 2.5, 2.9, 4.2};
+  const double x[4] = {1.0, 2.0, 3.0, 4.0};
+  REQUIRE(pwb_model_fit(y, x, 4, 1, nullptr, nullptr, &m) == PWB_OK);
+  // 2^62 rows of 1 column: the count fits in size_t but its bytes (x 8) do not
+  double fit[1];
+  const std::size_t rows = static_cast<std::size_t>(1) << 62;
+  CHECK(pwb_model_predict(m, tiny, rows, 1, nullptr, fit, nullptr, nullptr, nullptr) ==
+        PWB_ERR_MEMORY);
+  pwb_model_free(m);
+}
