@@ -3,6 +3,7 @@
 #include <memory>
 
 #include "capi_internal.hpp"
+#include "capi_transform_handle.hpp"
 #include "capi_sizes.hpp"
 #include "capi_model_handle.hpp"
 #include "powerback/model.hpp"
@@ -12,20 +13,6 @@
 using namespace powerback;
 
 namespace {
-
-Transform transform_of(const pwb_transform* t) {
-  pwb_transform_spec s;
-  pwb_transform_spec_init(&s);
-  if (pwb_transform_get_spec(t, &s) != PWB_OK)
-    throw Error(ErrorCode::Internal, "could not read the response transform");
-  TransformSpec ts;
-  ts.family = static_cast<Family>(s.family);
-  ts.lambda = s.lambda;
-  ts.shift = s.shift;
-  ts.reflect = s.reflect != 0;
-  ts.pivot = s.pivot;
-  return Transform(ts);
-}
 
 // A C caller may pass any int where an enum is declared; reading it as the C++ enum type would
 // be undefined for values outside the enumerators, so read its bytes as an int.
@@ -63,7 +50,7 @@ pwb_status pwb_model_fit(const double* y, const double* X, size_t n, size_t p,
       o = *opt;
     }
     std::unique_ptr<Transform> tr;
-    if (response) tr.reset(new Transform(transform_of(response)));
+    if (response) tr.reset(new Transform(capi::transform_of(response, "response")));
     *out = new pwb_model{Model(y, X, n, p, o.intercept != 0, tr.get(), o.estimated_parameters)};
   });
 }

@@ -2,6 +2,7 @@
 #include <string>
 
 #include "capi_internal.hpp"
+#include "capi_transform_handle.hpp"
 #include "powerback/spec.hpp"
 #include "powerback/transform.hpp"
 
@@ -9,24 +10,9 @@ struct pwb_spec {
   powerback::Spec impl;
 };
 
-// The transform handle's layout is private to capi_transform.cpp; it is rebuilt here from its
-// public spec through the ABI's own functions, so this file needs no knowledge of that layout.
 using namespace powerback;
 
 namespace {
-
-Transform transform_of(const pwb_transform* t) {
-  pwb_transform_spec s;
-  s.struct_size = sizeof s;
-  if (pwb_transform_get_spec(t, &s) != PWB_OK) throw Error(ErrorCode::Argument, pwb_last_error());
-  TransformSpec ts;
-  ts.family = static_cast<Family>(s.family);
-  ts.lambda = s.lambda;
-  ts.shift = s.shift;
-  ts.reflect = s.reflect != 0;
-  ts.pivot = s.pivot;
-  return Transform(ts);
-}
 
 pwb_spec* new_handle(Spec&& s) { return new pwb_spec{std::move(s)}; }
 
@@ -49,7 +35,7 @@ pwb_status pwb_spec_add_transform(pwb_spec* s, const char* name, const pwb_trans
     capi::need(s, "s");
     capi::need(name, "name");
     capi::need(t, "t");
-    s->impl.add(name, transform_of(t));
+    s->impl.add(name, capi::transform_of(t, "t"));
   });
 }
 
@@ -85,15 +71,7 @@ pwb_status pwb_spec_transform(const pwb_spec* s, size_t i, pwb_transform** out) 
   return capi::guarded([&] {
     capi::need(s, "s");
     capi::need(out, "out");
-    const TransformSpec& ts = s->impl.at(i).transform.spec();
-    pwb_transform_spec c;
-    pwb_transform_spec_init(&c);
-    c.family = static_cast<pwb_family>(ts.family);
-    c.lambda = ts.lambda;
-    c.shift = ts.shift;
-    c.reflect = ts.reflect ? 1 : 0;
-    c.pivot = ts.pivot;
-    if (pwb_transform_new(&c, out) != PWB_OK) throw Error(ErrorCode::Internal, pwb_last_error());
+    *out = capi::new_transform_handle(s->impl.at(i).transform);
   });
 }
 

@@ -1,10 +1,5 @@
 // The transform handle of the C ABI.
-#include "capi_internal.hpp"
-#include "powerback/transform.hpp"
-
-struct pwb_transform {
-  powerback::Transform impl;
-};
+#include "capi_transform_handle.hpp"
 
 using namespace powerback;
 
@@ -56,7 +51,7 @@ pwb_status pwb_transform_new(const pwb_transform_spec* spec, pwb_transform** out
     capi::need(spec, "spec");
     capi::need(out, "out");
     capi::need_struct(spec->struct_size, sizeof(pwb_transform_spec), "pwb_transform_spec");
-    *out = new pwb_transform{Transform(from_c(*spec))};
+    *out = capi::new_transform_handle(Transform(from_c(*spec)));
   });
 }
 
