@@ -40,6 +40,19 @@ testthat_line=$(grep -hE '^\[ FAIL [0-9]+ \| WARN [0-9]+ \| SKIP [0-9]+ \| PASS 
   "$checkdir"/tests/testthat.Rout* 2>/dev/null | tail -n 1 || true)
 [ -f "$checkdir/tests/testthat.Rout.fail" ] && tail -n 80 "$checkdir/tests/testthat.Rout.fail"
 
+# The R -> Python chain: the reference files the Python example checks against are what the
+# freshly checked R package writes now (skipped by ctest above, when no package was installed).
+echo "== R reference of the Python example, with the package R CMD check installed"
+ref_rc=0
+if [ -d "$checkdir/powerback" ]; then
+  cmake "$build" -DPWB_R_LIBS="$checkdir" >/dev/null
+  (cd "$build" && ctest --output-on-failure -R '^example\.r_reference_reproduces$') | tee "$build/ctest-rref.log" || ref_rc=1
+  grep -q "100% tests passed" "$build/ctest-rref.log" || ref_rc=1
+  if grep -q "(Skipped)" "$build/ctest-rref.log"; then ref_rc=1; fi
+else
+  echo "no installed package under $checkdir"; ref_rc=1
+fi
+
 # One closing line over both suites.
 c_total=$(sed -nE 's/.* tests failed out of ([0-9]+).*/\1/p' "$build/ctest.log" | tail -n 1)
 c_failed=$(sed -nE 's/.*, ([0-9]+) tests failed out of.*/\1/p' "$build/ctest.log" | tail -n 1)
@@ -50,6 +63,7 @@ echo
 echo "ctest: $((c_total - c_failed)) of $c_total passed; testthat: $testthat_line; R CMD check: $status_line"
 rc=0
 [ "$ctest_rc" -eq 0 ] || { echo "FAILED: ctest"; rc=1; }
+[ "$ref_rc" -eq 0 ] || { echo "FAILED: the R reference of the Python example"; rc=1; c_failed=$((c_failed + 1)); }
 [ "$check_rc" -eq 0 ] || { echo "FAILED: R CMD check exited $check_rc"; rc=1; }
 [ -n "$status_line" ] || { echo "FAILED: no R CMD check status"; rc=1; }
 if grep -qE 'WARNING|ERROR' <<<"$status_line"; then echo "FAILED: R CMD check reported $status_line"; rc=1; fi
