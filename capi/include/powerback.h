@@ -767,6 +767,51 @@ PWB_API pwb_status pwb_spec_read(const char *text, size_t len, pwb_spec **out);
  * opened (the message names the path and the reason). */
 PWB_API pwb_status pwb_spec_read_file(const char *path, pwb_spec **out);
 
+/* Model records. A spec may also hold one fitted model (see docs/spec-format.md): the response's
+ * name, the coefficients in design order (intercept first when there is one) with their names,
+ * the residual standard deviation sigma and the residual degrees of freedom df. The transforms of
+ * the response and predictors are stored as ordinary transforms. PWB_SPEC_MAX_COEFFICIENTS bounds
+ * the number of coefficients. Thread safety as for the rest of the section: pwb_spec_set_model
+ * changes s and must not run while another thread uses s. */
+#define PWB_SPEC_MAX_COEFFICIENTS 65536u
+
+/* Attaches a model record to s, replacing any earlier one. response and names[0..ncoef-1] are
+ * NUL-terminated UTF-8 names (copied; the same rules as transform names, and the coefficient
+ * names distinct); coef[0..ncoef-1] the values (copied), NaN marking an aliased coefficient
+ * (written NA); sigma finite and >= 0, or NaN when not available (e.g. df = 0). names and coef
+ * may be NULL only when ncoef is 0. Errors: PWB_ERR_ARGUMENT for a NULL s or response, NULL
+ * arrays with ncoef > 0, a NULL names[j], an invalid or repeated name, an infinite coefficient,
+ * a negative or infinite sigma; PWB_ERR_MEMORY when ncoef exceeds PWB_SPEC_MAX_COEFFICIENTS. On
+ * failure s is unchanged. */
+PWB_API pwb_status pwb_spec_set_model(pwb_spec *s, const char *response, const char *const *names,
+                                      const double *coef, size_t ncoef, double sigma, size_t df);
+
+/* Stores 1 in *has when s holds a model record, else 0. Errors: PWB_ERR_ARGUMENT for NULL
+ * arguments. */
+PWB_API pwb_status pwb_spec_has_model(const pwb_spec *s, int *has);
+
+/* Stores the model's number of coefficients, sigma (NaN when not available) and residual degrees
+ * of freedom in those of ncoef, sigma and df that are not NULL. Errors: PWB_ERR_ARGUMENT for a
+ * NULL s or a spec without a model record. */
+PWB_API pwb_status pwb_spec_model_info(const pwb_spec *s, size_t *ncoef, double *sigma,
+                                       size_t *df);
+
+/* The model's response name, copied like pwb_spec_name (snprintf-like into buf of cap bytes; the
+ * full length in *needed when needed is not NULL). Errors: PWB_ERR_ARGUMENT for a NULL s or a
+ * spec without a model record. */
+PWB_API pwb_status pwb_spec_model_response(const pwb_spec *s, char *buf, size_t cap,
+                                           size_t *needed);
+
+/* The name of coefficient j (0-based, design order), copied like pwb_spec_name. Errors:
+ * PWB_ERR_ARGUMENT for a NULL s, a spec without a model record, or j >= the coefficient count. */
+PWB_API pwb_status pwb_spec_model_coef_name(const pwb_spec *s, size_t j, char *buf, size_t cap,
+                                            size_t *needed);
+
+/* Copies the model's ncoef coefficients into the caller's coef (NaN for an aliased one). ncoef
+ * must equal the count from pwb_spec_model_info. Errors: PWB_ERR_ARGUMENT for a NULL s, a spec
+ * without a model record, a different ncoef, or a NULL coef with ncoef > 0. */
+PWB_API pwb_status pwb_spec_model_coefficients(const pwb_spec *s, double *coef, size_t ncoef);
+
 /* @@PWB_SECTION_SPEC@@ (declarations of this section go above this line) */
 
 

@@ -2,6 +2,7 @@
 #include <string>
 
 #include "capi_internal.hpp"
+#include "capi_sizes.hpp"
 #include "capi_transform_handle.hpp"
 #include "powerback/spec.hpp"
 #include "powerback/transform.hpp"
@@ -115,6 +116,84 @@ pwb_status pwb_spec_read_file(const char* path, pwb_spec** out) {
     capi::need(path, "path");
     capi::need(out, "out");
     *out = new_handle(read_spec_file(path));
+  });
+}
+
+pwb_status pwb_spec_set_model(pwb_spec* s, const char* response, const char* const* names,
+                              const double* coef, size_t ncoef, double sigma, size_t df) {
+  return capi::guarded([&] {
+    capi::need(s, "s");
+    capi::need(response, "response");
+    capi::need_array(names, ncoef, "names");
+    capi::need_array(coef, ncoef, "coef");
+    if (ncoef > kSpecMaxCoefficients)
+      throw Error(ErrorCode::Memory, "ncoef is " + std::to_string(ncoef) + "; a spec's model holds at most " +
+                                         std::to_string(kSpecMaxCoefficients) + " coefficients");
+    (void)capi::checked_mul(ncoef, sizeof(double), "coef");
+    SpecModel m;
+    m.response = response;
+    m.names.reserve(ncoef);
+    for (size_t j = 0; j < ncoef; ++j) {
+      if (!names[j])
+        throw Error(ErrorCode::Argument, "names[" + std::to_string(j) + "] is NULL");
+      m.names.emplace_back(names[j]);
+    }
+    m.coefficients.assign(coef, coef + ncoef);
+    m.sigma = sigma;
+    m.df = df;
+    s->impl.set_model(m);
+  });
+}
+
+pwb_status pwb_spec_has_model(const pwb_spec* s, int* has) {
+  return capi::guarded([&] {
+    capi::need(s, "s");
+    capi::need(has, "has");
+    *has = s->impl.has_model() ? 1 : 0;
+  });
+}
+
+pwb_status pwb_spec_model_info(const pwb_spec* s, size_t* ncoef, double* sigma, size_t* df) {
+  return capi::guarded([&] {
+    capi::need(s, "s");
+    const SpecModel& m = s->impl.model();
+    if (ncoef) *ncoef = m.names.size();
+    if (sigma) *sigma = m.sigma;
+    if (df) *df = m.df;
+  });
+}
+
+pwb_status pwb_spec_model_response(const pwb_spec* s, char* buf, size_t cap, size_t* needed) {
+  return capi::guarded([&] {
+    capi::need(s, "s");
+    capi::copy_text(s->impl.model().response, buf, cap, needed);
+  });
+}
+
+pwb_status pwb_spec_model_coef_name(const pwb_spec* s, size_t j, char* buf, size_t cap,
+                                    size_t* needed) {
+  return capi::guarded([&] {
+    capi::need(s, "s");
+    const SpecModel& m = s->impl.model();
+    if (j >= m.names.size())
+      throw Error(ErrorCode::Argument, "coefficient index " + std::to_string(j) +
+                                           " is out of range: the model has " +
+                                           std::to_string(m.names.size()) + " coefficients");
+    capi::copy_text(m.names[j], buf, cap, needed);
+  });
+}
+
+pwb_status pwb_spec_model_coefficients(const pwb_spec* s, double* coef, size_t ncoef) {
+  return capi::guarded([&] {
+    capi::need(s, "s");
+    const SpecModel& m = s->impl.model();
+    if (ncoef != m.coefficients.size())
+      throw Error(ErrorCode::Argument, "ncoef is " + std::to_string(ncoef) + " but the model has " +
+                                           std::to_string(m.coefficients.size()) +
+                                           " coefficients (see pwb_spec_model_info)");
+    capi::need_array(coef, ncoef, "coef");
+    (void)capi::checked_mul(ncoef, sizeof(double), "coef");
+    for (size_t j = 0; j < ncoef; ++j) coef[j] = m.coefficients[j];
   });
 }
 

@@ -9,6 +9,7 @@
 #include <cstring>
 #include <fstream>
 #include <iterator>
+#include <set>
 
 #include "powerback/errors.hpp"
 
@@ -60,17 +61,21 @@ std::string format_hex_double(double x) {
   return std::string(std::signbit(x) ? "-0x" : "0x") + std::string(buf, res.ptr);
 }
 
-void Spec::add(const std::string& name, const Transform& t) {
-  require(!name.empty(), "a transform in a spec needs a non-empty name");
+void check_spec_name(const std::string& name, const std::string& what) {
+  require(!name.empty(), what + " needs a non-empty name");
   require(name.size() <= kSpecMaxNameLength,
-          "the name \"" + name.substr(0, 40) + "...\" has " + std::to_string(name.size()) +
-              " bytes; a spec allows at most " + std::to_string(kSpecMaxNameLength));
+          "the name \"" + name.substr(0, 40) + "...\" of " + what + " has " +
+              std::to_string(name.size()) + " bytes; a spec allows at most " +
+              std::to_string(kSpecMaxNameLength));
   std::size_t bad = 0;
   const bool utf8 = valid_utf8_text(name.data(), name.size(), &bad);
-  require(utf8,
-          "the name of transform " + std::to_string(items_.size()) + " has " +
-              (name[bad] == '\0' ? std::string("a NUL byte") : std::string("invalid UTF-8")) +
-              " at byte " + std::to_string(bad) + "; names must be UTF-8 text");
+  require(utf8, "the name of " + what + " has " +
+                    (name[bad] == '\0' ? std::string("a NUL byte") : std::string("invalid UTF-8")) +
+                    " at byte " + std::to_string(bad) + "; names must be UTF-8 text");
+}
+
+void Spec::add(const std::string& name, const Transform& t) {
+  check_spec_name(name, "transform " + std::to_string(items_.size()));
   require(find(name) == items_.size(),
           "the name \"" + name + "\" is used twice; names in a spec must be distinct");
   if (items_.size() >= kSpecMaxRecords)
@@ -83,6 +88,35 @@ const NamedTransform& Spec::at(std::size_t i) const {
   require(i < items_.size(), "index " + std::to_string(i) + " is out of range: the spec holds " +
                                  std::to_string(items_.size()) + " transforms");
   return items_[i];
+}
+
+void Spec::set_model(const SpecModel& m) {
+  check_spec_name(m.response, "the model's response");
+  require(m.names.size() == m.coefficients.size(),
+          "the model has " + std::to_string(m.names.size()) + " coefficient names but " +
+              std::to_string(m.coefficients.size()) + " values; give one value per name");
+  if (m.names.size() > kSpecMaxCoefficients)
+    throw Error(ErrorCode::Memory, "a spec's model holds at most " +
+                                       std::to_string(kSpecMaxCoefficients) + " coefficients");
+  std::set<std::string> seen;
+  for (std::size_t j = 0; j < m.names.size(); ++j) {
+    check_spec_name(m.names[j], "coefficient " + std::to_string(j));
+    require(seen.insert(m.names[j]).second,
+            "the coefficient name \"" + m.names[j] + "\" is used twice; names must be distinct");
+    require(!std::isinf(m.coefficients[j]),
+            "coefficient \"" + m.names[j] + "\" is infinite; a spec holds finite values or NaN "
+            "for an aliased coefficient");
+  }
+  require(std::isnan(m.sigma) || (std::isfinite(m.sigma) && m.sigma >= 0.0),
+          "sigma must be finite and non-negative (or NaN when not available); got " +
+              format_number(m.sigma));
+  model_ = m;
+  has_model_ = true;
+}
+
+const SpecModel& Spec::model() const {
+  require(has_model_, "the spec has no model record");
+  return model_;
 }
 
 std::size_t Spec::find(const std::string& name) const noexcept {
@@ -121,6 +155,15 @@ std::string write_spec(const Spec& spec) {
     out += " shift=" + format_hex_double(s.shift);
     out += s.reflect ? " reflect=true pivot=" + format_hex_double(s.pivot) : " reflect=false";
     out += "\n";
+  }
+  if (spec.has_model()) {
+    const SpecModel& m = spec.model();
+    auto num_or_na = [](double v) { return std::isnan(v) ? std::string("NA") : format_hex_double(v); };
+    out += "model response=" + quote(m.response) + " coefficients=" +
+           std::to_string(m.names.size()) + " sigma=" + num_or_na(m.sigma) +
+           " df=" + std::to_string(m.df) + "\n";
+    for (std::size_t j = 0; j < m.names.size(); ++j)
+      out += "coefficient name=" + quote(m.names[j]) + " value=" + num_or_na(m.coefficients[j]) + "\n";
   }
   return out + "end\n";
 }

@@ -2,6 +2,7 @@
 #include <charconv>
 #include <cmath>
 #include <cstring>
+#include <set>
 
 #include "powerback/errors.hpp"
 #include "powerback/spec.hpp"
@@ -167,11 +168,11 @@ void parse_header(Line& L) {
   fail(1, 1, "not a powerback spec: the first line must be \"" + want + "\"");
 }
 
-void parse_transform(Line& L, Spec& spec) {
-  bool seen[kKeyCount] = {};
-  std::size_t name_col = 0;
-  std::string name;
-  TransformSpec s;
+// Reads the fields of a record: for each "key=value" calls value(k) with the cursor on the value,
+// after rejecting unknown and repeated keys. seen[k] tells which keys were given.
+template <class F>
+void parse_fields(Line& L, const char* const* keys, int nkeys, const char* known, bool* seen,
+                  F&& value) {
   for (;;) {
     if (L.done()) break;
     if (!is_space(L.p[L.i])) L.error("expected a space before the next field");
@@ -184,12 +185,23 @@ void parse_transform(Line& L, Spec& spec) {
     if (e >= L.n || L.p[e] != '=')
       fail(L.no, key_col, "expected key=value, got " + show(key.data(), key.size()));
     int k = 0;
-    while (k < kKeyCount && key != kKeys[k]) ++k;
-    if (k == kKeyCount)
-      fail(L.no, key_col, "unknown key " + show(key.data(), key.size()) + "; known keys: " + kKnownKeys);
+    while (k < nkeys && key != keys[k]) ++k;
+    if (k == nkeys)
+      fail(L.no, key_col, "unknown key " + show(key.data(), key.size()) + "; known keys: " + known);
     if (seen[k]) fail(L.no, key_col, "the key " + key + " appears twice");
     seen[k] = true;
     L.i = e + 1;
+    value(k);
+    if (!L.done() && !is_space(L.p[L.i])) L.error("unexpected text after the value of " + key);
+  }
+}
+
+void parse_transform(Line& L, Spec& spec) {
+  bool seen[kKeyCount] = {};
+  std::size_t name_col = 0;
+  std::string name;
+  TransformSpec s;
+  parse_fields(L, kKeys, kKeyCount, kKnownKeys, seen, [&](int k) {
     switch (k) {
       case kName: name_col = L.col(); name = parse_string(L); break;
       case kFamily: s.family = parse_family(L); break;
@@ -198,8 +210,7 @@ void parse_transform(Line& L, Spec& spec) {
       case kReflect: s.reflect = parse_bool(L); break;
       case kPivot: s.pivot = parse_number(L); break;
     }
-    if (!L.done() && !is_space(L.p[L.i])) L.error("unexpected text after the value of " + key);
-  }
+  });
   const std::size_t end_col = L.n + 1;
   for (int k : {kName, kFamily, kShift, kReflect})
     if (!seen[k]) fail(L.no, end_col, std::string("the transform lacks the key ") + kKeys[k]);
@@ -221,6 +232,107 @@ void parse_transform(Line& L, Spec& spec) {
   }
 }
 
+// A number, or the keyword NA (returned as NaN) for a value that is not available.
+double parse_number_or_na(Line& L) {
+  if (L.n - L.i >= 2 && L.p[L.i] == 'N' && L.p[L.i + 1] == 'A' &&
+      (L.n - L.i == 2 || is_space(L.p[L.i + 2]))) {
+    L.i += 2;
+    return std::nan("");
+  }
+  return parse_number(L);
+}
+
+// A non-negative decimal integer without sign or leading zeros, at most max.
+std::size_t parse_count(Line& L, std::size_t max) {
+  const std::size_t col = L.col();
+  const std::string t = token(L);
+  bool ok = !t.empty() && t.size() <= 15 && (t == "0" || t[0] != '0');
+  for (char c : t) ok = ok && c >= '0' && c <= '9';
+  if (!ok)
+    fail(L.no, col, "expected a whole number like 12, got " + show(t.data(), t.size()));
+  const unsigned long long v = std::stoull(t);
+  if (v > max) fail(L.no, col, "the number " + t + " exceeds the limit of " + std::to_string(max));
+  return static_cast<std::size_t>(v);
+}
+
+// A model record being read: its header line and the coefficient records that follow it.
+struct PendingModel {
+  SpecModel m;
+  std::size_t line = 0;      // line of the model record; 0 when none was seen
+  std::size_t declared = 0;  // coefficients=N
+  bool open = false;         // coefficient records may still follow
+  std::set<std::string> names;
+};
+
+enum ModelKey { kResponse, kCoefficients, kSigma, kDf, kModelKeyCount };
+constexpr const char* kModelKeys[kModelKeyCount] = {"response", "coefficients", "sigma", "df"};
+enum CoefKey { kCoefName, kCoefValue, kCoefKeyCount };
+constexpr const char* kCoefKeys[kCoefKeyCount] = {"name", "value"};
+
+void parse_model(Line& L, PendingModel& pm) {
+  if (pm.line != 0)
+    fail(L.no, 1, "a second model record; a spec holds at most one (the first is on line " +
+                      std::to_string(pm.line) + ")");
+  bool seen[kModelKeyCount] = {};
+  std::size_t sigma_col = 0;
+  parse_fields(L, kModelKeys, kModelKeyCount, "response, coefficients, sigma, df", seen, [&](int k) {
+    switch (k) {
+      case kResponse: pm.m.response = parse_string(L); break;
+      case kCoefficients: pm.declared = parse_count(L, kSpecMaxCoefficients); break;
+      case kSigma: sigma_col = L.col(); pm.m.sigma = parse_number_or_na(L); break;
+      case kDf: pm.m.df = parse_count(L, std::size_t(999999999999999)); break;
+    }
+  });
+  for (int k = 0; k < kModelKeyCount; ++k)
+    if (!seen[k]) fail(L.no, L.n + 1, std::string("the model lacks the key ") + kModelKeys[k]);
+  if (pm.m.sigma < 0.0) fail(L.no, sigma_col, "sigma must not be negative");
+  pm.line = L.no;
+  pm.open = true;
+}
+
+void parse_coefficient(Line& L, PendingModel& pm) {
+  if (!pm.open)
+    fail(L.no, 1, pm.line == 0 ? "a coefficient record before any model record"
+                               : "a coefficient record that does not follow the model record");
+  if (pm.m.names.size() >= pm.declared)
+    fail(L.no, 1, "more coefficient records than the " + std::to_string(pm.declared) +
+                      " declared by the model record on line " + std::to_string(pm.line));
+  bool seen[kCoefKeyCount] = {};
+  std::size_t name_col = 0;
+  std::string name;
+  double value = 0.0;
+  parse_fields(L, kCoefKeys, kCoefKeyCount, "name, value", seen, [&](int k) {
+    if (k == kCoefName) {
+      name_col = L.col();
+      name = parse_string(L);
+    } else {
+      value = parse_number_or_na(L);
+    }
+  });
+  for (int k = 0; k < kCoefKeyCount; ++k)
+    if (!seen[k]) fail(L.no, L.n + 1, std::string("the coefficient lacks the key ") + kCoefKeys[k]);
+  if (name.empty()) fail(L.no, name_col, "a coefficient needs a non-empty name");
+  if (!pm.names.insert(name).second)
+    fail(L.no, name_col, "the coefficient name \"" + name + "\" is used twice; names must be distinct");
+  pm.m.names.push_back(name);
+  pm.m.coefficients.push_back(value);
+}
+
+// Called at any record other than a coefficient: closes an open model record.
+void close_model(std::size_t no, PendingModel& pm, Spec& spec) {
+  if (!pm.open) return;
+  pm.open = false;
+  if (pm.m.names.size() != pm.declared)
+    fail(no, 1, "the model record on line " + std::to_string(pm.line) + " declares " +
+                    std::to_string(pm.declared) + " coefficients but " +
+                    std::to_string(pm.m.names.size()) + " coefficient records follow it");
+  try {
+    spec.set_model(pm.m);
+  } catch (const Error& err) {
+    fail(pm.line, 1, std::string("invalid model: ") + err.what());
+  }
+}
+
 }  // namespace
 
 Spec parse_spec(const char* text, std::size_t size) {
@@ -230,6 +342,7 @@ Spec parse_spec(const char* text, std::size_t size) {
                                       " bytes, more than the limit of " + std::to_string(kSpecMaxBytes));
   if (size == 0) fail(1, 1, "empty input: not a powerback spec");
   Spec spec;
+  PendingModel pm;
   bool ended = false;
   std::size_t pos = 0, no = 0;
   while (pos < size) {
@@ -256,13 +369,21 @@ Spec parse_spec(const char* text, std::size_t size) {
     if (first == len || L.p[0] == '#') continue;  // blank line or comment
     if (first > 0) fail(no, 1, "a record starts at column 1, without leading spaces");
     const std::string kind = token(L);
+    if (kind == "coefficient") {
+      parse_coefficient(L, pm);
+      continue;
+    }
+    if (kind == "transform" || kind == "model" || kind == "end") close_model(no, pm, spec);
     if (kind == "transform") {
       parse_transform(L, spec);
+    } else if (kind == "model") {
+      parse_model(L, pm);
     } else if (kind == "end") {
       if (!L.done()) L.error("text after end on the same line");
       ended = true;
     } else {
-      fail(no, 1, "unknown record " + show(kind.data(), kind.size()) + "; expected transform or end");
+      fail(no, 1, "unknown record " + show(kind.data(), kind.size()) +
+                      "; expected transform, model, coefficient or end");
     }
   }
   if (!ended) fail(no + 1, 1, "the end line is missing: the spec is truncated");

@@ -69,8 +69,9 @@ TEST_CASE("unknown, repeated and missing keys", "[spec]") {
              Contains("pivot is used only with reflect=true"));
   CHECK_THAT(parse_error(kHead + "transform name=\"x\" family=log shift=0 reflect=false extra\nend\n"),
              Contains("expected key=value"));
-  CHECK_THAT(parse_error(kHead + "model name=\"m\"\nend\n"),
-             Contains("line 2, column 1: unknown record model"));
+  CHECK_THAT(parse_error(kHead + "interval name=\"m\"\nend\n"),
+             Contains("line 2, column 1: unknown record interval; expected transform, model, "
+                      "coefficient or end"));
   CHECK_THAT(parse_error(kHead + " " + kGood + "end\n"), Contains("without leading spaces"));
 }
 

@@ -28,13 +28,29 @@ constexpr std::size_t kSpecMaxBytes = std::size_t(16) << 20;  // whole input: 16
 constexpr std::size_t kSpecMaxLineLength = 4096;               // bytes per line, without newline
 constexpr std::size_t kSpecMaxRecords = 65536;                 // transform records per spec
 constexpr std::size_t kSpecMaxNameLength = 256;                // bytes of a name once unescaped
+constexpr std::size_t kSpecMaxCoefficients = 65536;            // coefficients of a model record
 
 struct NamedTransform {
   std::string name;  // UTF-8, non-empty, no NUL, at most kSpecMaxNameLength bytes
   Transform transform;
 };
 
-// An ordered set of transforms with distinct names.
+// A fitted model's record: the response's name, the coefficients in design order (intercept
+// first when there is one), the residual standard deviation and the residual degrees of freedom.
+// A NaN coefficient marks an aliased one (written NA); sigma is NaN when not available (df = 0).
+struct SpecModel {
+  std::string response;
+  std::vector<std::string> names;   // distinct, each a valid spec name
+  std::vector<double> coefficients; // same length as names; finite or NaN
+  double sigma = 0.0;               // finite and >= 0, or NaN
+  std::size_t df = 0;
+};
+
+// Checks that name is a valid spec name (non-empty, at most kSpecMaxNameLength bytes, UTF-8
+// without NUL); Error(Argument) naming `what` otherwise.
+void check_spec_name(const std::string& name, const std::string& what);
+
+// An ordered set of transforms with distinct names, and at most one model record.
 class Spec {
  public:
   // Appends a transform. Error(Argument) for an empty, over-long, duplicate or non-UTF-8 name,
@@ -45,8 +61,18 @@ class Spec {
   // Index of the transform called name, or size() when there is none.
   std::size_t find(const std::string& name) const noexcept;
 
+  // Attaches (or replaces) the model record. Error(Argument) for an invalid response or
+  // coefficient name, repeated coefficient names, lengths that differ, an infinite coefficient,
+  // or a negative or infinite sigma; Error(Memory) past kSpecMaxCoefficients. On failure the
+  // spec is unchanged.
+  void set_model(const SpecModel& m);
+  bool has_model() const noexcept { return has_model_; }
+  const SpecModel& model() const;  // Error(Argument) when there is no model record
+
  private:
   std::vector<NamedTransform> items_;
+  SpecModel model_;
+  bool has_model_ = false;
 };
 
 // The spec as text (ends with "end\n").
