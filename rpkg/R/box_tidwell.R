@@ -39,12 +39,12 @@
 #' @references Box, G. E. P. and Tidwell, P. W. (1962). Transformation of the independent
 #'   variables. Technometrics 4, 531-550.
 #' @examples
-#' set.seed(1)
-#' d <- data.frame(x = runif(100, 1, 10), z = rnorm(100))
-#' d$y <- 2 + 3 * sqrt(d$x) + 0.5 * d$z + rnorm(100, sd = 0.2)
-#' bt <- box_tidwell(y ~ x + z, d, vars = "x")
+#' river <- river_data()
+#' # is flow linear on the log scale of the load? (its power comes out near 0: use its log)
+#' bt <- box_tidwell(log(sediment_t_day) ~ flow_m3s + rain72_mm + forest_pct + season, river,
+#'                   vars = c("flow_m3s", "forest_pct"))
 #' bt
-#' bt$transforms$x
+#' bt$transforms$flow_m3s
 #' @export
 box_tidwell <- function(object, data = NULL, vars = NULL, max_iter = 50L, tol = 1e-6,
                         level = 0.95) {

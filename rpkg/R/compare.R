@@ -65,12 +65,12 @@
 #'   rows of `data` used, after `na.action`), `seed`, `level`, `folds_k`, `repeats` and
 #'   `formula`.
 #' @examples
-#' set.seed(3)
-#' d <- data.frame(x = runif(80, 1, 10))
-#' d$y <- exp(0.5 + 0.25 * d$x + rnorm(80, sd = 0.3))
-#' cmp <- compare_transforms(y ~ x, d, candidates = list("none", "ml",
-#'                           logy = list(y = new_transform("log"))), folds = 4, seed = 1,
-#'                           progress = FALSE)
+#' river <- river_data()
+#' cmp <- compare_transforms(sediment_t_day ~ flow_m3s + rain72_mm + season, river,
+#'                           candidates = list("none", "ml",
+#'                                             logs = list(sediment_t_day = new_transform("log"),
+#'                                                         flow_m3s = new_transform("log"))),
+#'                           folds = 3, seed = 1, progress = FALSE)
 #' cmp
 #' plot(cmp)
 #' @export

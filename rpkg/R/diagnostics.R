@@ -27,12 +27,12 @@
 #'   `compare = TRUE`, `untransformed` (the twin's `pwb_checks`) and `comparison` (a data frame
 #'   with the statistics and p-values before and after).
 #' @examples
-#' set.seed(4)
-#' d <- data.frame(x = runif(100, 0, 3))
-#' d$y <- exp(1 + 0.6 * d$x + rnorm(100, sd = 0.5))
-#' m <- lm_transformed(y ~ x, d, response = new_transform("log"))
+#' river <- river_data()
+#' m <- lm_transformed(sediment_t_day ~ flow_m3s + rain72_mm + forest_pct + season, river,
+#'                     response = new_transform("log"),
+#'                     predictors = list(flow_m3s = new_transform("log")))
 #' residual_checks(m, compare = TRUE)
-#' residual_checks(lm(y ~ x, d))
+#' residual_checks(lm(sediment_t_day ~ flow_m3s + season, river))
 #' @export
 residual_checks <- function(object, compare = FALSE) {
   if (!is.logical(compare) || length(compare) != 1L || is.na(compare))

@@ -27,11 +27,8 @@
 #'   full-data power; `leverage`; `outside`, the flag; `at_bound`), and `lambda`, `conf_int`,
 #'   `family`, `level`, `range` and `n`.
 #' @examples
-#' set.seed(2)
-#' d <- data.frame(x = runif(40, 0, 3))
-#' d$y <- exp(1 + 0.5 * d$x + rnorm(40, sd = 0.2))
-#' d$y[7] <- 30 * d$y[7]
-#' inf <- lambda_influence(y ~ x, d)
+#' river <- river_data()
+#' inf <- lambda_influence(sediment_t_day ~ log(flow_m3s) + rain72_mm + season, river)
 #' inf
 #' plot(inf)
 #' @export

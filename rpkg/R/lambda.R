@@ -43,18 +43,15 @@
 #'   case) and `na_action`. Methods: print, plot, coef, confint, [as_transform()].
 #' @seealso [as_transform()], [new_transform()], [lm_transformed()]
 #' @examples
-#' set.seed(1)
-#' x <- rlnorm(200, 1, 0.6)
-#' fit <- estimate_lambda(x)
-#' fit
-#' coef(fit)
-#' confint(fit)
-#' as_transform(fit)
+#' river <- river_data()
+#' flow <- estimate_lambda(river$flow_m3s)
+#' flow
+#' coef(flow)
+#' confint(flow)
+#' as_transform(flow)
 #'
-#' # response given predictors: a factor and a numeric predictor
-#' d <- data.frame(g = gl(3, 20), u = runif(60))
-#' d$y <- exp(1 + as.integer(d$g) / 2 + d$u + rnorm(60, sd = 0.3))
-#' estimate_response_lambda(y ~ g + u, data = d)
+#' # the response given predictors (a factor and a log-transformed flow)
+#' estimate_response_lambda(sediment_t_day ~ log(flow_m3s) + rain72_mm + season, river)
 #' @export
 estimate_lambda <- function(x, family = c("box-cox", "yeo-johnson"), range = c(-3, 3),
                             level = 0.95) {

@@ -54,12 +54,13 @@ confint.pwb_lambda <- function(object, parm, level = object$level, ...) {
 #' @param ... further graphical arguments passed to [graphics::plot()].
 #' @return `x`, invisibly.
 #' @examples
-#' set.seed(2)
-#' fit <- estimate_lambda(rgamma(100, shape = 2))
+#' river <- river_data()
+#' fit <- estimate_response_lambda(sediment_t_day ~ log(flow_m3s) + rain72_mm + season, river)
 #' f <- file.path(tempdir(), "lambda-profile.png")
 #' grDevices::png(f)
 #' plot(fit)
 #' grDevices::dev.off()
+#' unlink(f)
 #' @export
 plot.pwb_lambda <- function(x, ...) {
   pr <- x$profile
@@ -90,8 +91,8 @@ plot.pwb_lambda <- function(x, ...) {
 #' @param ... unused.
 #' @return A `pwb_transform` of the estimate's family (see [new_transform()]).
 #' @examples
-#' set.seed(3)
-#' fit <- estimate_lambda(rlnorm(100))
+#' river <- river_data()
+#' fit <- estimate_lambda(river$sediment_t_day)
 #' as_transform(fit)
 #' as_transform(fit, "estimate")
 #' @export

@@ -49,13 +49,14 @@
 #'   `sigma`, `df_residual`, `rank`, `loglik`, `loglik_df`, and what prediction needs.
 #' @seealso [predict.pwb_model()], [residual_checks()], [plot.pwb_model()]
 #' @examples
-#' set.seed(1)
-#' d <- data.frame(area = runif(60, 50, 300), age = runif(60, 0, 40))
-#' d$cost <- exp(2 + 0.01 * d$area - 0.02 * d$age + rnorm(60, sd = 0.3))
-#' m <- lm_transformed(cost ~ area + age, d, response = new_transform("log"))
+#' river <- river_data()
+#' new <- river_data("new")
+#' m <- lm_transformed(sediment_t_day ~ flow_m3s + rain72_mm + forest_pct + season, river,
+#'                     predictors = list(flow_m3s = new_transform("log")))
 #' m
-#' predict(m, data.frame(area = 120, age = 10), interval = "prediction")
-#' AIC(m, lm_transformed(cost ~ area + age, d, response = "none"))
+#' predict(m, head(new), interval = "prediction")
+#' AIC(m, lm_transformed(sediment_t_day ~ flow_m3s + rain72_mm + forest_pct + season, river,
+#'                       response = "none"))
 #' @export
 lm_transformed <- function(formula, data, response = "estimate", predictors = NULL,
                            family = "box-cox", level = 0.95, na.action = NULL) {

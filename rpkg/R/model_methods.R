@@ -21,10 +21,10 @@
 #'   object; `summary`: a `summary.pwb_model` list holding the `lm` summary, the transforms and
 #'   the original-scale log-likelihood.
 #' @examples
-#' set.seed(3)
-#' d <- data.frame(x = runif(50, 1, 5))
-#' d$y <- (1 + 0.5 * d$x + rnorm(50, sd = 0.2))^2
-#' m <- lm_transformed(y ~ x, d, response = new_transform("sqrt"))
+#' river <- river_data()
+#' m <- lm_transformed(sediment_t_day ~ flow_m3s + rain72_mm + season, river,
+#'                     response = new_transform("log"),
+#'                     predictors = list(flow_m3s = new_transform("log")))
 #' coef(m)
 #' confint(m)
 #' head(fitted(m))

@@ -35,14 +35,15 @@
 #'   `interval = "none"`), `bounded` and `invalid` (logical). Rows with missing predictor values
 #'   are `NA`, in place.
 #' @examples
-#' set.seed(2)
-#' d <- data.frame(x = runif(80, 0, 4))
-#' d$y <- exp(1 + 0.5 * d$x + rnorm(80, sd = 0.5))
-#' m <- lm_transformed(y ~ x, d, response = new_transform("log"))
-#' nd <- data.frame(x = c(1, 2, NA, 3))
-#' predict(m, nd, interval = "prediction")
-#' predict(m, nd, center = "mean")
-#' predict(m, nd, center = "mean", mean_method = "normal")
+#' river <- river_data()
+#' m <- lm_transformed(sediment_t_day ~ flow_m3s + rain72_mm + season, river,
+#'                     response = new_transform("log"),
+#'                     predictors = list(flow_m3s = new_transform("log")))
+#' new <- head(river_data("new"), 4)
+#' new$flow_m3s[3] <- NA   # a missing predictor gives an NA row, alignment kept
+#' predict(m, new, interval = "prediction")
+#' predict(m, new, center = "mean")
+#' predict(m, new, center = "mean", mean_method = "normal")
 #' @export
 predict.pwb_model <- function(object, newdata, interval = c("none", "confidence", "prediction"),
                               level = 0.95, center = c("median", "mean"),

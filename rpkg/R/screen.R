@@ -48,16 +48,13 @@
 #'   thresholds).
 #' @seealso [estimate_lambda()], [new_transform()], [apply_transform()]
 #' @examples
-#' set.seed(1)
-#' d <- data.frame(income = rlnorm(200, 10, 0.8), score = 100 - rexp(200, 0.2),
-#'                 age = round(runif(200, 20, 70)), group = sample(letters[1:3], 200, TRUE))
-#' d$income[c(3, 40)] <- NA
-#' s <- screen_skew(d)
+#' river <- river_data()
+#' s <- screen_skew(river)
 #' s
 #' summary(s)
-#' # the ladder's transform of income, reused on new data
-#' s$ladder$income
-#' apply_transform(s$ladder$income, c(15000, 30000))
+#' # the ladder's transform of forest cover (reflected), reused on new data
+#' s$ladder$forest_pct
+#' apply_transform(s$ladder$forest_pct, river_data("new")$forest_pct[1:5])
 #' @export
 screen_skew <- function(data, vars = NULL, level = 0.95) {
   if (is.numeric(data) && is.null(dim(data))) {
