@@ -17,14 +17,24 @@
 #' estimates effects on that scale, and its back-transformed fitted values are medians, not
 #' means, unless corrected. The file records the transforms, not the judgement that chose them.
 #'
+#' A fitted model can be saved too: its transforms, and a model record holding the response's
+#' name, the coefficients on the transformed scale in design order (intercept first; an aliased
+#' coefficient is written `NA`), the residual standard deviation and the residual degrees of
+#' freedom. These are the values of `coef(x)`, `x$sigma` and `x$df_residual`; they describe
+#' the model on the transformed scale, where a back-transformed prediction is a median unless
+#' corrected.
+#'
 #' @param x a named list of `pwb_transform` objects (from [new_transform()]); names must be
 #'   distinct, non-empty and at most 256 bytes in UTF-8. Or a `pwb_model` (from
 #'   [lm_transformed()]): its response transform is written under the response's name, then
-#'   each predictor transform under its variable's name. The coefficients are not written (the
-#'   format has no model record yet), so a scoring service refits or stores them separately.
+#'   each predictor transform under its variable's name, then its model record.
 #' @param file a path to write or read.
 #' @return `write_transforms()` returns `file`, invisibly. `read_transforms()` returns a named
-#'   list of `pwb_transform` objects, in the order of the file.
+#'   list of `pwb_transform` objects, in the order of the file. When the file holds a model
+#'   record, the list carries it as the attribute `"model"`: a list with `response` (the
+#'   response's name), `coefficients` (a named numeric vector, `NA` for an aliased
+#'   coefficient), `sigma` (`NA` when not available) and `df` (residual degrees of freedom);
+#'   without one, `attr(result, "model")` is `NULL`.
 #' @seealso [new_transform()], [apply_transform()]
 #' @examples
 #' trs <- list(income = new_transform("box-cox", lambda = 0.5, shift = 1),
@@ -34,11 +44,21 @@
 #' cat(readLines(path), sep = "\n")
 #' back <- read_transforms(path)
 #' apply_transform(back$income, c(0, 3, 8))
+#'
+#' # a fitted model: its transforms and its coefficients
+#' d <- data.frame(x = c(1, 2, 4, 8, 16, 32), y = c(2.1, 2.9, 4.2, 5.8, 8.3, 11.9))
+#' fit <- lm_transformed(y ~ x, d, response = new_transform("log"),
+#'                       predictors = list(x = new_transform("log")))
+#' write_transforms(fit, path)
+#' attr(read_transforms(path), "model")
 #' unlink(path)
 #' @export
 write_transforms <- function(x, file) {
-  if (inherits(x, "pwb_model"))
+  model <- list()
+  if (inherits(x, "pwb_model")) {
+    model <- pwb_spec_model_record(x)
     x <- c(stats::setNames(list(x$response), x$yname), x$predictors)
+  }
   if (inherits(x, "pwb_transform"))
     stop("`x` must be a named list of transforms; wrap one transform as list(name = tr)",
          call. = FALSE)
@@ -61,7 +81,7 @@ write_transforms <- function(x, file) {
     stop(sprintf("names in `x` must be distinct; repeated: %s", paste(dup, collapse = ", ")),
          call. = FALSE)
   pwb_check_path(file)
-  rpwb_spec_write_file(unname(lapply(x, unclass)), enc2utf8(nms), path.expand(file))
+  rpwb_spec_write_file(unname(lapply(x, unclass)), enc2utf8(nms), path.expand(file), model)
   invisible(file)
 }
 
@@ -74,7 +94,19 @@ read_transforms <- function(file) {
   specs <- tryCatch(rpwb_spec_read_file(path.expand(file)), error = function(e)
     stop(sprintf("cannot read transforms from \"%s\": %s", file, conditionMessage(e)),
          call. = FALSE))
-  lapply(specs, function(s) structure(s, class = "pwb_transform"))
+  out <- lapply(specs, function(s) structure(s, class = "pwb_transform"))
+  attr(out, "model") <- attr(specs, "model")
+  out
+}
+
+# The model record of a pwb_model for the glue: list(response, names, coefficients, sigma, df).
+pwb_spec_model_record <- function(x) {
+  cf <- stats::coef(x)
+  sg <- x$sigma
+  list(response = enc2utf8(x$yname), names = enc2utf8(names(cf)),
+       coefficients = as.double(unname(cf)),
+       sigma = if (is.finite(sg)) as.double(sg) else NA_real_,
+       df = as.double(x$df_residual))
 }
 
 pwb_check_path <- function(file) {
