@@ -692,9 +692,9 @@ PWB_API pwb_status pwb_holdout_score(const double *y, const double *fit, const d
  * PWB_SPEC_MAX_LINE bytes per line, PWB_SPEC_MAX_RECORDS transforms, PWB_SPEC_MAX_NAME bytes per
  * name. Names are non-empty UTF-8 without NUL bytes and distinct within a spec.
  *
- * Thread safety: a spec handle is changed only by pwb_spec_add_transform; other calls only read
- * it, so one handle may be read from several threads at once, but not while one thread adds to
- * it. Distinct handles are independent. */
+ * Thread safety: a spec handle is changed only by pwb_spec_add_transform and
+ * pwb_spec_set_model; other calls only read it, so one handle may be read from several threads
+ * at once, but not while one thread changes it. Distinct handles are independent. */
 #define PWB_SPEC_FORMAT_VERSION 1
 #define PWB_SPEC_MAX_BYTES 16777216u
 #define PWB_SPEC_MAX_LINE 4096u

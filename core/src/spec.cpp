@@ -82,6 +82,7 @@ void Spec::add(const std::string& name, const Transform& t) {
     throw Error(ErrorCode::Memory,
                 "a spec holds at most " + std::to_string(kSpecMaxRecords) + " transforms");
   items_.push_back(NamedTransform{name, t});
+  index_.emplace(name, items_.size() - 1);
 }
 
 const NamedTransform& Spec::at(std::size_t i) const {
@@ -120,9 +121,9 @@ const SpecModel& Spec::model() const {
 }
 
 std::size_t Spec::find(const std::string& name) const noexcept {
-  for (std::size_t i = 0; i < items_.size(); ++i)
-    if (items_[i].name == name) return i;
-  return items_.size();
+  // A hash index keeps parsing linear in the record count (a hostile file may hold 65536).
+  const auto it = index_.find(name);
+  return it == index_.end() ? items_.size() : it->second;
 }
 
 namespace {

@@ -16,6 +16,7 @@
 
 #include <cstddef>
 #include <string>
+#include <unordered_map>
 #include <vector>
 
 #include "powerback/transform.hpp"
@@ -71,6 +72,7 @@ class Spec {
 
  private:
   std::vector<NamedTransform> items_;
+  std::unordered_map<std::string, std::size_t> index_;  // name -> position in items_
   SpecModel model_;
   bool has_model_ = false;
 };
