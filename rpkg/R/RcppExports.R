@@ -57,8 +57,8 @@ rpwb_screen_variable <- function(x, level, lower, upper) {
     .Call(`_powerback_rpwb_screen_variable`, x, level, lower, upper)
 }
 
-rpwb_spec_write_file <- function(transforms, names, path) {
-    invisible(.Call(`_powerback_rpwb_spec_write_file`, transforms, names, path))
+rpwb_spec_write_file <- function(transforms, names, path, model) {
+    invisible(.Call(`_powerback_rpwb_spec_write_file`, transforms, names, path, model))
 }
 
 rpwb_spec_read_file <- function(path) {

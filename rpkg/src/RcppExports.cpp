@@ -215,14 +215,15 @@ BEGIN_RCPP
 END_RCPP
 }
 // rpwb_spec_write_file
-void rpwb_spec_write_file(Rcpp::List transforms, Rcpp::CharacterVector names, std::string path);
-RcppExport SEXP _powerback_rpwb_spec_write_file(SEXP transformsSEXP, SEXP namesSEXP, SEXP pathSEXP) {
+void rpwb_spec_write_file(Rcpp::List transforms, Rcpp::CharacterVector names, std::string path, Rcpp::List model);
+RcppExport SEXP _powerback_rpwb_spec_write_file(SEXP transformsSEXP, SEXP namesSEXP, SEXP pathSEXP, SEXP modelSEXP) {
 BEGIN_RCPP
     Rcpp::RNGScope rcpp_rngScope_gen;
     Rcpp::traits::input_parameter< Rcpp::List >::type transforms(transformsSEXP);
     Rcpp::traits::input_parameter< Rcpp::CharacterVector >::type names(namesSEXP);
     Rcpp::traits::input_parameter< std::string >::type path(pathSEXP);
-    rpwb_spec_write_file(transforms, names, path);
+    Rcpp::traits::input_parameter< Rcpp::List >::type model(modelSEXP);
+    rpwb_spec_write_file(transforms, names, path, model);
     return R_NilValue;
 END_RCPP
 }
@@ -299,7 +300,7 @@ static const R_CallMethodDef CallEntries[] = {
     {"_powerback_rpwb_moments", (DL_FUNC) &_powerback_rpwb_moments, 1},
     {"_powerback_rpwb_ladder", (DL_FUNC) &_powerback_rpwb_ladder, 1},
     {"_powerback_rpwb_screen_variable", (DL_FUNC) &_powerback_rpwb_screen_variable, 4},
-    {"_powerback_rpwb_spec_write_file", (DL_FUNC) &_powerback_rpwb_spec_write_file, 3},
+    {"_powerback_rpwb_spec_write_file", (DL_FUNC) &_powerback_rpwb_spec_write_file, 4},
     {"_powerback_rpwb_spec_read_file", (DL_FUNC) &_powerback_rpwb_spec_read_file, 1},
     {"_powerback_rpwb_transform_normalise", (DL_FUNC) &_powerback_rpwb_transform_normalise, 1},
     {"_powerback_rpwb_transform_map", (DL_FUNC) &_powerback_rpwb_transform_map, 3},
