@@ -1,6 +1,8 @@
 // Normality statistics, the ladder and the variable screen through the C ABI.
 #include <catch2/catch.hpp>
 
+#include "test_support.hpp"
+
 #include <cmath>
 #include <sstream>
 #include <string>
@@ -13,13 +15,7 @@ using Catch::Matchers::Contains;
 
 namespace {
 
-std::vector<double> parse_values(const std::string& text) {
-  std::vector<double> v;
-  std::stringstream ss(text);
-  std::string tok;
-  while (ss >> tok) v.push_back(std::stod(tok));
-  return v;
-}
+using pwbtest::parse_values;
 
 }  // namespace
 

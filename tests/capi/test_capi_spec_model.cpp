@@ -1,6 +1,8 @@
 // The model record of a spec through the ABI: attach, write, read back bit for bit, errors.
 #include <catch2/catch.hpp>
 
+#include "test_support.hpp"
+
 #include <cmath>
 #include <cstring>
 #include <string>
@@ -15,7 +17,7 @@ struct Spec {
   pwb_spec* s = nullptr;
   ~Spec() { pwb_spec_free(s); }
 };
-bool same_bits(double a, double b) { return std::memcmp(&a, &b, sizeof a) == 0; }
+using pwbtest::same_bits;
 std::string written(const pwb_spec* s) {
   size_t need = 0;
   REQUIRE(pwb_spec_write(s, nullptr, 0, &need) == PWB_OK);

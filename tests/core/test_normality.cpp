@@ -1,6 +1,8 @@
 // Normality statistics of the core: Shapiro-Wilk W and p, sample skewness and kurtosis.
 #include <catch2/catch.hpp>
 
+#include "test_support.hpp"
+
 #include <cmath>
 #include <sstream>
 #include <string>
@@ -14,13 +16,7 @@ using namespace powerback;
 
 namespace {
 
-std::vector<double> parse_values(const std::string& text) {
-  std::vector<double> v;
-  std::stringstream ss(text);
-  std::string tok;
-  while (ss >> tok) v.push_back(std::stod(tok));
-  return v;
-}
+using pwbtest::parse_values;
 
 }  // namespace
 

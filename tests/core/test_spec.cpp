@@ -1,6 +1,8 @@
 // The text spec in the core: exact round trips, the written layout, names with escapes.
 #include <catch2/catch.hpp>
 
+#include "test_support.hpp"
+
 #include <cmath>
 #include <cstring>
 #include <limits>
@@ -22,7 +24,7 @@ Transform make(Family f, double lambda, double shift = 0.0, bool reflect = false
   s.pivot = pivot;
   return Transform(s);
 }
-bool same_bits(double a, double b) { return std::memcmp(&a, &b, sizeof a) == 0; }
+using pwbtest::same_bits;
 }  // namespace
 
 TEST_CASE("hexadecimal numbers are the C99 form and exact", "[spec]") {

@@ -1,6 +1,8 @@
 // The strict spec reader: every malformed input is an Error(Parse) naming line and column.
 #include <catch2/catch.hpp>
 
+#include "spec_test_support.hpp"
+
 #include <string>
 
 #include "powerback/errors.hpp"
@@ -13,16 +15,7 @@ namespace {
 const std::string kHead = "powerback-spec 1\n";
 const std::string kGood = "transform name=\"x\" family=box-cox lambda=0x1p-1 shift=0x0p+0 reflect=false\n";
 
-// The message of the parse error text raises; "" when it parses.
-std::string parse_error(const std::string& text) {
-  try {
-    parse_spec(text.data(), text.size());
-  } catch (const Error& e) {
-    CHECK(e.code() == ErrorCode::Parse);
-    return e.what();
-  }
-  return "";
-}
+using pwbtest::parse_error;
 }  // namespace
 
 TEST_CASE("a well-formed spec parses", "[spec]") {

@@ -1,6 +1,10 @@
 // The model record of the text spec: round trips, layout, the strict reader and the docs example.
 #include <catch2/catch.hpp>
 
+#include "spec_test_support.hpp"
+
+#include "test_support.hpp"
+
 #include <cmath>
 #include <cstring>
 #include <fstream>
@@ -19,17 +23,9 @@ const std::string kModel = "model response=\"y\" coefficients=2 sigma=0x1p-1 df=
 const std::string kC1 = "coefficient name=\"(Intercept)\" value=0x1p+0\n";
 const std::string kC2 = "coefficient name=\"x\" value=NA\n";
 
-bool same_bits(double a, double b) { return std::memcmp(&a, &b, sizeof a) == 0; }
+using pwbtest::same_bits;
 
-std::string parse_error(const std::string& text) {
-  try {
-    parse_spec(text.data(), text.size());
-  } catch (const Error& e) {
-    CHECK(e.code() == ErrorCode::Parse);
-    return e.what();
-  }
-  return "";
-}
+using pwbtest::parse_error;
 
 SpecModel sample() {
   SpecModel m;
