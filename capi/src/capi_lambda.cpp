@@ -121,9 +121,8 @@ pwb_status pwb_response_lambda_profile(const double* y, const double* X, size_t 
     capi::need_array(X, capi::checked_matrix_size(n, p, "X"), "X");
     capi::need_array(grid, n_grid, "grid");
     capi::need_array(loglik_out, n_grid, "loglik_out");
-    const Family f = lambda_family(family);
-    const LeastSquares design(X, n, p, true);
-    const std::vector<double> ll = response_lambda_profile(y, design, f, grid, n_grid);
+    const std::vector<double> ll =
+        response_lambda_profile(y, X, n, p, lambda_family(family), grid, n_grid);
     for (std::size_t i = 0; i < n_grid; ++i) loglik_out[i] = ll[i];
   });
 }
@@ -135,10 +134,10 @@ pwb_status pwb_estimate_lambda_curve(const double* x, size_t n, pwb_family famil
     check_out(out);
     capi::need_array(x, n, "x");
     check_curve(n_grid, grid_out, loglik_out);
-    const Family f = lambda_family(family);
-    const LambdaEstimate e = estimate_lambda(x, n, f, options_of(opt));
-    const std::vector<double> grid = profile_grid(e, n_grid);
-    write_curve(grid, lambda_profile(x, n, f, grid.data(), n_grid), grid_out, loglik_out);
+    std::vector<double> grid, loglik;
+    const LambdaEstimate e =
+        estimate_lambda_curve(x, n, lambda_family(family), options_of(opt), n_grid, &grid, &loglik);
+    write_curve(grid, loglik, grid_out, loglik_out);
     write_result(e, out);
   });
 }
@@ -152,13 +151,10 @@ pwb_status pwb_estimate_response_lambda_curve(const double* y, const double* X, 
     capi::need_array(y, n, "y");
     capi::need_array(X, capi::checked_matrix_size(n, p, "X"), "X");
     check_curve(n_grid, grid_out, loglik_out);
-    const Family f = lambda_family(family);
-    const LambdaOptions o = options_of(opt);
-    const LeastSquares design(X, n, p, true);
-    const LambdaEstimate e = estimate_response_lambda(y, design, f, o);
-    const std::vector<double> grid = profile_grid(e, n_grid);
-    write_curve(grid, response_lambda_profile(y, design, f, grid.data(), n_grid), grid_out,
-                loglik_out);
+    std::vector<double> grid, loglik;
+    const LambdaEstimate e = estimate_response_lambda_curve(
+        y, X, n, p, lambda_family(family), options_of(opt), n_grid, &grid, &loglik);
+    write_curve(grid, loglik, grid_out, loglik_out);
     write_result(e, out);
   });
 }

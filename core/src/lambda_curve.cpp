@@ -2,7 +2,6 @@
 #include <algorithm>
 #include <cmath>
 
-#include "powerback/lambda.hpp"
 #include "powerback/errors.hpp"
 #include "powerback/lambda.hpp"
 
@@ -31,6 +30,13 @@ std::vector<double> lambda_profile(const double* x, std::size_t n, Family family
 std::vector<double> response_lambda_profile(const double* y, const LeastSquares& design,
                                             Family family, const double* grid, std::size_t m) {
   const detail::LambdaProfile prof(y, design, family, "y");
+  return along(prof, grid, m);
+}
+
+std::vector<double> response_lambda_profile(const double* y, const double* X, std::size_t n,
+                                            std::size_t p, Family family, const double* grid,
+                                            std::size_t m) {
+  const detail::LambdaProfile prof(y, X, n, p, family, "y");
   return along(prof, grid, m);
 }
 

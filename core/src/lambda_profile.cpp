@@ -7,6 +7,7 @@
 #include <limits>
 
 #include "powerback/errors.hpp"
+#include "powerback/tall_qr.hpp"
 #include "powerback/transform.hpp"
 
 namespace powerback {
@@ -66,24 +67,81 @@ void check_values(const double* v, std::size_t n, Family family, const std::stri
 LambdaProfile::LambdaProfile(const double* x, std::size_t n, Family family, const std::string& what)
     : family_(family) {
   check_values(x, n, family, what);
-  prepare(x, n, what);
+  prepare(x, n);
+  make_binned(0);
 }
 
 LambdaProfile::LambdaProfile(const double* y, const LeastSquares& design, Family family,
                              const std::string& what)
-    : family_(family), design_(&design) {
+    : family_(family), design_(&design), response_(true) {
   const std::size_t n = design.n();
   check_values(y, n, family, what);
   require(design.has_intercept(), "the response lambda needs a design with an intercept column");
-  if (n <= design.rank() + 1)
-    throw Error(ErrorCode::Singular,
-                what + " has " + std::to_string(n) + " observations but the design has rank " +
-                    std::to_string(design.rank()) +
-                    " (intercept included): the profile needs n > rank + 1; use fewer predictors");
-  prepare(y, n, what);
+  check_rank(n, design.rank(), what);
+  rank_ = design.rank();
+  kept_ = design.kept();
+  aliased_ = design.aliased();
+  prepare(y, n);
+  make_binned(design.columns());
+  if (!binned_) return;
+  const Eigen::MatrixXd& D = design.design();
+  for (Eigen::Index r0 = 0; r0 < D.rows(); r0 += static_cast<Eigen::Index>(kTallBlockRows)) {
+    const Eigen::Index nr = std::min(static_cast<Eigen::Index>(kTallBlockRows), D.rows() - r0);
+    binned_->add_rows(static_cast<std::size_t>(r0), D.middleRows(r0, nr));
+  }
+  binned_->set_design(kept_, design.r());
+  if (!binned_->useful()) binned_.reset();
 }
 
-void LambdaProfile::prepare(const double* v, std::size_t n, const std::string& /*what*/) {
+LambdaProfile::LambdaProfile(const double* y, const double* X, std::size_t n, std::size_t p,
+                             Family family, const std::string& what)
+    : family_(family), X_(X), p_(p), response_(true) {
+  check_values(y, n, family, what);
+  prepare(y, n);
+  make_binned(p + 1);
+  DesignBlockVisitor gather;
+  if (binned_)
+    gather = [this](std::size_t r0, const Eigen::Ref<const Eigen::MatrixXd>& block) {
+      binned_->add_rows(r0, block);
+    };
+  const TallFactor f = factor_tall(X, n, p, true, kRankTolerance, gather);
+  check_rank(n, f.rank(), what);
+  rank_ = f.rank();
+  kept_ = f.kept;
+  aliased_ = f.aliased;
+  if (!binned_) return;
+  binned_->set_design(kept_, f.r);
+  if (!binned_->useful()) binned_.reset();
+}
+
+LambdaProfile::~LambdaProfile() = default;
+
+void LambdaProfile::check_rank(std::size_t n, std::size_t rank, const std::string& what) const {
+  if (n <= rank + 1)
+    throw Error(ErrorCode::Singular,
+                what + " has " + std::to_string(n) + " observations but the design has rank " +
+                    std::to_string(rank) +
+                    " (intercept included): the profile needs n > rank + 1; use fewer predictors");
+}
+
+const LeastSquares& LambdaProfile::direct_design() const {
+  if (design_) return *design_;
+  if (!owned_) {
+    // The kept columns only, so that the rank decision made on R stands (tolerance 0: nothing
+    // more is dropped).
+    const Eigen::Index n = t_.size(), k = static_cast<Eigen::Index>(kept_.size());
+    Eigen::MatrixXd d(n, k);
+    for (Eigen::Index c = 0; c < k; ++c) {
+      const std::size_t col = kept_[static_cast<std::size_t>(c)];
+      if (col == 0) d.col(c).setOnes();
+      else d.col(c) = Eigen::Map<const Eigen::VectorXd>(X_ + (col - 1) * static_cast<std::size_t>(n), n);
+    }
+    owned_.reset(new LeastSquares(d, 0.0));
+  }
+  return *owned_;
+}
+
+void LambdaProfile::prepare(const double* v, std::size_t n) {
   const Eigen::Index nn = static_cast<Eigen::Index>(n);
   t_.resize(nn);
   w_.resize(nn);
@@ -95,7 +153,6 @@ void LambdaProfile::prepare(const double* v, std::size_t n, const std::string& /
     any_pos_ = true;
     pos_min_ = t_.minCoeff();
     pos_max_ = t_.maxCoeff();
-    make_binned();
     return;
   }
   neg_.resize(nn);
@@ -132,12 +189,11 @@ void LambdaProfile::prepare(const double* v, std::size_t n, const std::string& /
       pos_max_ -= centre_;
     }
   }
-  make_binned();
 }
 
-void LambdaProfile::make_binned() {
+void LambdaProfile::make_binned(std::size_t columns) {
   if (static_cast<std::size_t>(t_.size()) < kBinnedMinimumN) return;
-  binned_.reset(new BinnedProfile(t_, neg_, family_ == Family::YeoJohnson, design_, kBinnedKValid));
+  binned_.reset(new BinnedProfile(t_, neg_, family_ == Family::YeoJohnson, kBinnedKValid, columns));
   if (!binned_->useful()) binned_.reset();
 }
 
@@ -178,8 +234,8 @@ double LambdaProfile::log_rss_direct(double lambda) const {
       w[i] = neg_(i) ? -power_term(t[i], k2, m, scaled) : power_term(t[i], k1, m, scaled);
   }
   double rss;
-  if (design_) {
-    rss = design_->rss(w_);
+  if (response_) {
+    rss = direct_design().rss(w_);
   } else {
     const double mean = w_.mean();
     rss = (w_.array() - mean).square().sum();

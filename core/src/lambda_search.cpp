@@ -6,8 +6,8 @@
 #include <boost/math/tools/toms748_solve.hpp>
 #include <cmath>
 #include <cstdint>
+#include <utility>
 
-#include "powerback/lambda.hpp"
 #include "powerback/errors.hpp"
 #include "powerback/lambda.hpp"
 #include "powerback/transform.hpp"
@@ -136,6 +136,22 @@ LambdaEstimate search(const detail::LambdaProfile& prof, const LambdaOptions& op
   return est;
 }
 
+LambdaEstimate with_design(LambdaEstimate est, const detail::LambdaProfile& prof) {
+  est.rank = prof.rank();
+  est.aliased = prof.aliased();
+  return est;
+}
+
+void curve_of(const detail::LambdaProfile& prof, const LambdaEstimate& est, std::size_t m,
+              std::vector<double>* grid, std::vector<double>* loglik) {
+  std::vector<double> g = profile_grid(est, m);
+  if (loglik) {
+    loglik->resize(m);
+    for (std::size_t i = 0; i < m; ++i) (*loglik)[i] = prof.loglik(g[i]);
+  }
+  if (grid) *grid = std::move(g);
+}
+
 }  // namespace
 
 double convenient_lambda(double lambda, double lo, double hi) {
@@ -159,17 +175,38 @@ LambdaEstimate estimate_response_lambda(const double* y, const LeastSquares& des
                                         const LambdaOptions& opt) {
   check_options(opt);
   const detail::LambdaProfile prof(y, design, family, "y");
-  LambdaEstimate est = search(prof, opt);
-  est.rank = design.rank();
-  est.aliased = design.aliased();
-  return est;
+  return with_design(search(prof, opt), prof);
 }
 
 LambdaEstimate estimate_response_lambda(const double* y, const double* X, std::size_t n,
                                         std::size_t p, Family family, const LambdaOptions& opt) {
   check_options(opt);
-  const LeastSquares design(X, n, p, true);
-  return estimate_response_lambda(y, design, family, opt);
+  const detail::LambdaProfile prof(y, X, n, p, family, "y");
+  return with_design(search(prof, opt), prof);
+}
+
+LambdaEstimate estimate_lambda_curve(const double* x, std::size_t n, Family family,
+                                     const LambdaOptions& opt, std::size_t m,
+                                     std::vector<double>* grid, std::vector<double>* loglik) {
+  check_options(opt);
+  require(m >= 2, "a profile grid needs at least 2 points");
+  const detail::LambdaProfile prof(x, n, family, "x");
+  const LambdaEstimate est = search(prof, opt);
+  curve_of(prof, est, m, grid, loglik);
+  return est;
+}
+
+LambdaEstimate estimate_response_lambda_curve(const double* y, const double* X, std::size_t n,
+                                              std::size_t p, Family family,
+                                              const LambdaOptions& opt, std::size_t m,
+                                              std::vector<double>* grid,
+                                              std::vector<double>* loglik) {
+  check_options(opt);
+  require(m >= 2, "a profile grid needs at least 2 points");
+  const detail::LambdaProfile prof(y, X, n, p, family, "y");
+  const LambdaEstimate est = with_design(search(prof, opt), prof);
+  curve_of(prof, est, m, grid, loglik);
+  return est;
 }
 
 }  // namespace powerback

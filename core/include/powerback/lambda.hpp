@@ -58,7 +58,9 @@ LambdaEstimate estimate_lambda(const double* x, std::size_t n, Family family,
                                const LambdaOptions& opt = {});
 
 // Response lambda given predictors: X n-by-p column-major, no intercept column (one is added).
-// Same errors for y; Error(Singular) when n <= rank + 1; X's errors as LeastSquares.
+// The design is factored once, without Q (factor_tall), in the same pass that gathers the binned
+// sums. Same errors for y (checked first); Error(Singular) when n <= rank + 1; X's errors as
+// LeastSquares.
 LambdaEstimate estimate_response_lambda(const double* y, const double* X, std::size_t n,
                                         std::size_t p, Family family,
                                         const LambdaOptions& opt = {});
@@ -66,6 +68,17 @@ LambdaEstimate estimate_response_lambda(const double* y, const double* X, std::s
 // Same, reusing a factorised design (for leave-one-out and other callers). y has design.n() values.
 LambdaEstimate estimate_response_lambda(const double* y, const LeastSquares& design, Family family,
                                         const LambdaOptions& opt = {});
+
+// The estimate and its profile curve on profile_grid(estimate, m), from one preparation of the
+// data: grid and loglik receive m values each (m >= 2). Errors as the estimators.
+LambdaEstimate estimate_lambda_curve(const double* x, std::size_t n, Family family,
+                                     const LambdaOptions& opt, std::size_t m,
+                                     std::vector<double>* grid, std::vector<double>* loglik);
+LambdaEstimate estimate_response_lambda_curve(const double* y, const double* X, std::size_t n,
+                                              std::size_t p, Family family,
+                                              const LambdaOptions& opt, std::size_t m,
+                                              std::vector<double>* grid,
+                                              std::vector<double>* loglik);
 
 // The convenient value: of {-2,-1,-0.5,0,0.5,1,2} the one nearest lambda inside [lo, hi]; else
 // lambda rounded to 2 decimals.
@@ -78,6 +91,9 @@ std::vector<double> lambda_profile(const double* x, std::size_t n, Family family
                                    const double* grid, std::size_t m);
 std::vector<double> response_lambda_profile(const double* y, const LeastSquares& design,
                                             Family family, const double* grid, std::size_t m);
+std::vector<double> response_lambda_profile(const double* y, const double* X, std::size_t n,
+                                            std::size_t p, Family family, const double* grid,
+                                            std::size_t m);
 
 // A grid of m points (m >= 2) for plotting an estimate's profile: it spans the interval with a
 // margin of 1.5 times its width on each side (at least 0.1 each side), clipped to the search range.
@@ -95,43 +111,72 @@ namespace detail {
 // k_i = lambda (v >= 0, and all of Box-Cox) or 2 - lambda (Yeo-Johnson, v < 0) and s_i = +-1.
 // When the largest exponent k_i t_i exceeds kDirectLimit the values are computed divided by
 // exp(m) (m that largest exponent) and the RSS gains 2 m in log space, so nothing overflows.
-// The data binned on t (bins of width h), with per-bin power sums of delta = t - bin centre, so
-// that the profile at any lambda with |k| <= k_valid costs O(bins * kTerms) instead of O(n):
-// within a bin, expm1(k t) / k = A + B e with A = expm1(k c) / k, B = exp(k c) and
-// e = expm1(k delta) / k = sum_m k^(m-1) delta^m / m!, a series that |k delta| <= 1/8 makes exact
-// to rounding after kTerms terms (Taylor's theorem; the remainder is below 1e-18 relative). In
-// the response case the same power sums weighted by each kept design column give X' z.
+// The data binned on t (bins of width h = 1 / (16 k_valid)), with per-bin power sums of
+// delta = t - bin centre, so that the profile at any lambda with |k| <= k_valid costs
+// O(bins * terms) instead of O(n): within a bin, expm1(k t) / k = A + B e with
+// A = expm1(k c) / k, B = exp(k c) and e = expm1(k delta) / k = sum_m k^(m-1) delta^m / m!.
+// |k delta| <= 1/32 bounds the relative remainder of that series after M terms by
+// (1/32)^M / (M+1)! (Taylor's theorem): below 3e-18 for M = kColumnTerms = 8, and the series of
+// e^2 = sum_m (2^m - 2) k^(m-2) delta^m / m! (m >= 2) after kTerms = 10 terms by
+// 2^11 (1/32)^9 / 11!, below 2e-18. Both are exact to rounding. In the response case the sums
+// of e weighted by each design column give X' z, and R (R'R = X'X) turns it into the explained
+// sum of squares; the rows are added block by block while the design is factored.
 class BinnedProfile {
  public:
-  static constexpr int kTerms = 16;
-  // t: the prepared values; second: which belong to Yeo-Johnson's negative group (may be empty).
-  // X: the design (response case) or nullptr.
+  static constexpr int kTerms = 10;        // power sums of delta: the series of e and e^2
+  static constexpr int kColumnTerms = 8;   // column-weighted sums: the series of e only
+  // t: the prepared values; second: which belong to Yeo-Johnson's negative group (used when
+  // has_second). columns: the design's columns, intercept first (response case), or 0. t and
+  // second must outlive the object.
   BinnedProfile(const Eigen::ArrayXd& t, const Eigen::Array<bool, Eigen::Dynamic, 1>& second,
-                bool has_second, const LeastSquares* X, double k_valid);
-  // Worth it: far fewer bins than values.
+                bool has_second, double k_valid, std::size_t columns);
+  // Worth it: far fewer bins than values (and, in the response case, a usable design).
   bool useful() const { return useful_; }
+  // Response case: add the rows [r0, r0 + block.rows()) of the design (every column, the
+  // intercept first), then, once every row is in, name the columns kept (kept[0] must be the
+  // intercept, 0) and their R. A design without that intercept makes the object not useful.
+  void add_rows(std::size_t r0, const Eigen::Ref<const Eigen::MatrixXd>& block);
+  void set_design(const std::vector<std::size_t>& kept, const Eigen::MatrixXd& r);
   // log RSS at lambda; false when lambda is outside what the bins cover or the result would
   // lose accuracy (the caller then evaluates directly).
   bool log_rss(double lambda, double* out) const;
 
  private:
+  std::size_t bin_of(Eigen::Index i) const;
+
   bool useful_ = false;
-  double k_valid_ = 0.0;
-  std::size_t bins_ = 0, cols_ = 0;
+  double k_valid_ = 0.0, h_ = 0.0;
+  double lo_[2] = {0.0, 0.0};
+  std::size_t nb_[2] = {0, 0};
+  const Eigen::ArrayXd& t_;
+  const Eigen::Array<bool, Eigen::Dynamic, 1>& second_of_;
+  bool has_second_ = false;
+  std::size_t bins_ = 0, columns_ = 0;
   std::vector<double> centre_, count_, sign_;
   std::vector<unsigned char> second_;
   std::vector<double> s1_, s2_;   // per bin, kTerms: sum delta^m / m! (m = 1..K); (2^m - 2) times it (m = 2..K)
-  std::vector<double> xsum_, xm_; // response: per column, bin (and term): sums of x, x delta^m / m!
-  const LeastSquares* design_ = nullptr;
-  mutable std::vector<double> a_, b_, e1_, e2_;
+  std::vector<double> xsum_, xm_; // response: per bin and design column (and term): sums of x, x delta^m / m!
+  std::vector<std::size_t> kept_; // response: the kept design columns
+  Eigen::MatrixXd r_;             // response: their R
+  std::vector<std::size_t> row_bin_;  // add_rows' work space: each row's bin
+  std::vector<double> row_pw_;        // and its delta^m / m!
+  mutable std::vector<double> a_, b_, e1_;
+  mutable Eigen::VectorXd v_;
 };
 
 class LambdaProfile {
  public:
   // Univariate: RSS about the mean. `what` names the variable in messages ("x").
   LambdaProfile(const double* x, std::size_t n, Family family, const std::string& what);
-  // Response: RSS about the least-squares fit of `design` (which must have an intercept).
+  // Response: RSS about the least-squares fit of `design` (which must have an intercept and
+  // outlive the profile).
   LambdaProfile(const double* y, const LeastSquares& design, Family family, const std::string& what);
+  // Response, with X (n-by-p, column-major, no intercept column; one is added) factored here in
+  // one pass (factor_tall) while the binned sums are gathered. X must outlive the profile: a
+  // lambda the bins do not cover is evaluated on a LeastSquares of the kept columns, built then.
+  LambdaProfile(const double* y, const double* X, std::size_t n, std::size_t p, Family family,
+                const std::string& what);
+  ~LambdaProfile();
 
   // Profile log-likelihood at lambda (original scale, Jacobian included). direct = true skips
   // the binned fast path (for tests comparing the two).
@@ -139,15 +184,26 @@ class LambdaProfile {
   bool binned() const { return static_cast<bool>(binned_); }
   std::size_t n() const { return static_cast<std::size_t>(t_.size()); }
   Family family() const { return family_; }
+  // Response case: rank of the design (intercept included) and its aliased columns.
+  std::size_t rank() const { return rank_; }
+  const std::vector<std::size_t>& aliased() const { return aliased_; }
 
  private:
-  void prepare(const double* v, std::size_t n, const std::string& what);
+  void prepare(const double* v, std::size_t n);
+  void check_rank(std::size_t n, std::size_t rank, const std::string& what) const;
   double log_rss(double lambda) const;
   double log_rss_direct(double lambda) const;
-  void make_binned();
+  void make_binned(std::size_t columns);
+  const LeastSquares& direct_design() const;
 
   Family family_;
-  const LeastSquares* design_ = nullptr;
+  const LeastSquares* design_ = nullptr;  // response case: the caller's, or owned_ once built
+  mutable std::unique_ptr<LeastSquares> owned_;  // streamed response: built on first direct use
+  const double* X_ = nullptr;   // streamed response: the caller's predictors
+  std::size_t p_ = 0;
+  bool response_ = false;
+  std::size_t rank_ = 0;
+  std::vector<std::size_t> kept_, aliased_;
   Eigen::ArrayXd t_;            // log magnitudes (see above)
   Eigen::Array<bool, Eigen::Dynamic, 1> neg_;  // Yeo-Johnson: v < 0
   bool any_neg_ = false, any_pos_ = false;

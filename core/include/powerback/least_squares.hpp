@@ -17,14 +17,17 @@
 
 namespace powerback {
 
+// lm's tolerance for the rank decision.
+constexpr double kRankTolerance = 1e-7;
+
 class LeastSquares {
  public:
   // X: n-by-p predictors, column-major, without an intercept column (one is added first when
   // add_intercept). Throws Error(Argument) for n == 0 or non-finite entries (naming the first
   // offending row and column, 0-based), Error(Singular) when every column is aliased.
   LeastSquares(const double* X, std::size_t n, std::size_t p, bool add_intercept = true,
-               double tol = 1e-7);
-  explicit LeastSquares(const Eigen::MatrixXd& design, double tol = 1e-7);
+               double tol = kRankTolerance);
+  explicit LeastSquares(const Eigen::MatrixXd& design, double tol = kRankTolerance);
 
   std::size_t n() const { return static_cast<std::size_t>(design_.rows()); }
   std::size_t columns() const { return static_cast<std::size_t>(design_.cols()); }  // incl. intercept
