@@ -11,6 +11,17 @@ namespace powerback {
 namespace detail {
 namespace {
 
+// delta, delta^2, ..., delta^K into out, by squaring and doubling (dependency depth log2 K
+// instead of a chain of K - 1 products).
+template <int K>
+inline void powers(double d, double* out) {
+  out[0] = d;
+  for (int have = 1; have < K; have *= 2) {
+    const double top = out[have - 1];
+    for (int m = 0; m < have && have + m < K; ++m) out[have + m] = out[m] * top;
+  }
+}
+
 template <int K>
 struct InverseFactorials {
   double v[K];
@@ -31,6 +42,7 @@ BinnedProfile::BinnedProfile(const Eigen::ArrayXd& t, const Eigen::Array<bool, E
   const Eigen::Index n = t.size();
   constexpr int K = kTerms;
   h_ = 1.0 / (16.0 * k_valid);  // |k delta| <= k_valid * h / 2 = 1/32
+  inv_h_ = 16.0 * k_valid;
   double hi[2] = {-std::numeric_limits<double>::infinity(), -std::numeric_limits<double>::infinity()};
   lo_[0] = lo_[1] = std::numeric_limits<double>::infinity();
   for (Eigen::Index i = 0; i < n; ++i) {
@@ -64,15 +76,18 @@ BinnedProfile::BinnedProfile(const Eigen::ArrayXd& t, const Eigen::Array<bool, E
       sign_[b] = g ? -1.0 : 1.0;
       second_[b] = static_cast<unsigned char>(g);
     }
+  static_assert(K % 2 == 0, "the power sums are added two at a time");
   for (Eigen::Index i = 0; i < n; ++i) {
     const std::size_t b = bin_of(i);
     count_[b] += 1.0;
-    const double d = t(i) - centre_[b];
-    double p = d;
+    const double d = t(i) - centre_[b], d2 = d * d;
+    // (delta^(m), delta^(m+1)) pairs, each the previous times delta^2, added as packets.
+    Eigen::Array2d pair(d, d2);
+    const Eigen::Array2d step = Eigen::Array2d::Constant(d2);
     double* row = &s1_[b * K];
-    for (int m = 0; m < K; ++m) {
-      row[m] += p;
-      p *= d;
+    for (int m = 0; m < K; m += 2) {
+      Eigen::Map<Eigen::Array2d>(row + m) += pair;
+      pair *= step;
     }
   }
   static const InverseFactorials<K> inv_fact;
@@ -97,7 +112,7 @@ BinnedProfile::BinnedProfile(const Eigen::ArrayXd& t, const Eigen::Array<bool, E
 
 std::size_t BinnedProfile::bin_of(Eigen::Index i) const {
   const int g = (has_second_ && second_of_(i)) ? 1 : 0;
-  const std::size_t j = std::min(nb_[g] - 1, static_cast<std::size_t>((t_(i) - lo_[g]) / h_));
+  const std::size_t j = std::min(nb_[g] - 1, static_cast<std::size_t>((t_(i) - lo_[g]) * inv_h_));
   return (g ? nb_[0] : 0) + j;
 }
 
@@ -116,13 +131,9 @@ void BinnedProfile::add_rows(std::size_t r0, const Eigen::Ref<const Eigen::Matri
     const Eigen::Index i = static_cast<Eigen::Index>(r0) + r;
     const std::size_t b = bin_of(i);
     bin[static_cast<std::size_t>(r)] = b;
-    const double d = t_(i) - centre_[b];
-    double p = d;
     double* w = &pw[static_cast<std::size_t>(r) * K];
-    for (int m = 0; m < K; ++m) {
-      w[m] = p * inv_fact.v[m];
-      p *= d;
-    }
+    powers<K>(t_(i) - centre_[b], w);
+    for (int m = 0; m < K; ++m) w[m] *= inv_fact.v[m];
   }
   for (Eigen::Index j = 1; j < cols; ++j) {
     const double* x = &block.coeffRef(0, j);

@@ -144,7 +144,6 @@ const LeastSquares& LambdaProfile::direct_design() const {
 void LambdaProfile::prepare(const double* v, std::size_t n) {
   const Eigen::Index nn = static_cast<Eigen::Index>(n);
   t_.resize(nn);
-  w_.resize(nn);
   constexpr double inf = std::numeric_limits<double>::infinity();
   if (family_ == Family::BoxCox) {
     for (Eigen::Index i = 0; i < nn; ++i) t_(i) = std::log(v[i]);
@@ -220,6 +219,7 @@ double LambdaProfile::log_rss_direct(double lambda) const {
   if (any_neg_) m = std::max({m, k2 * neg_min_, k2 * neg_max_});
   const bool scaled = m > kDirectLimit;
   const Eigen::Index n = t_.size();
+  if (w_.size() != n) w_.resize(n);  // work space, only when evaluating directly
   double* w = w_.data();
   const double* t = t_.data();
   if (family_ == Family::BoxCox) {

@@ -145,7 +145,7 @@ class BinnedProfile {
   std::size_t bin_of(Eigen::Index i) const;
 
   bool useful_ = false;
-  double k_valid_ = 0.0, h_ = 0.0;
+  double k_valid_ = 0.0, h_ = 0.0, inv_h_ = 0.0;
   double lo_[2] = {0.0, 0.0};
   std::size_t nb_[2] = {0, 0};
   const Eigen::ArrayXd& t_;
