@@ -104,10 +104,7 @@ BinnedProfile::BinnedProfile(const Eigen::ArrayXd& t, const Eigen::Array<bool, E
   a_.resize(bins_);
   b_.resize(bins_);
   e1_.resize(bins_);
-  if (columns_ > 0) {
-    xsum_.assign(bins_ * columns_, 0.0);
-    xm_.assign(bins_ * columns_ * kColumnTerms, 0.0);
-  }
+  if (columns_ > 0) xm_.assign(bins_ * columns_ * kColumnSlot, 0.0);
 }
 
 std::size_t BinnedProfile::bin_of(Eigen::Index i) const {
@@ -121,30 +118,33 @@ void BinnedProfile::add_rows(std::size_t r0, const Eigen::Ref<const Eigen::Matri
   constexpr int K = kColumnTerms;
   static const InverseFactorials<K> inv_fact;
   const Eigen::Index nr = block.rows(), cols = static_cast<Eigen::Index>(columns_);
-  // Per row: its bin and delta^m / m!, then per column (the intercept's sums are count and s1):
-  // sum x and sum x delta^m / m! into the row's bin.
+  // Per row: its bin and (1, delta^m / m! for m = 1..K, 0), then per column (the intercept's
+  // sums are count and s1): x times that slot into the row's bin, as packets.
+  constexpr int S = kColumnSlot;
   std::vector<std::size_t>& bin = row_bin_;
   std::vector<double>& pw = row_pw_;
   bin.resize(static_cast<std::size_t>(nr));
-  pw.resize(static_cast<std::size_t>(nr) * K);
+  pw.resize(static_cast<std::size_t>(nr) * S);
   for (Eigen::Index r = 0; r < nr; ++r) {
     const Eigen::Index i = static_cast<Eigen::Index>(r0) + r;
     const std::size_t b = bin_of(i);
     bin[static_cast<std::size_t>(r)] = b;
-    double* w = &pw[static_cast<std::size_t>(r) * K];
-    powers<K>(t_(i) - centre_[b], w);
-    for (int m = 0; m < K; ++m) w[m] *= inv_fact.v[m];
+    double* w = &pw[static_cast<std::size_t>(r) * S];
+    w[0] = 1.0;
+    powers<K>(t_(i) - centre_[b], w + 1);
+    for (int m = 0; m < K; ++m) w[m + 1] *= inv_fact.v[m];
+    for (int m = K + 1; m < S; ++m) w[m] = 0.0;
   }
+  double* const acc = xm_.data();
+  const std::size_t* const rb = bin.data();
+  const double* const rw = pw.data();
+  const std::size_t stride = columns_ * S;
   for (Eigen::Index j = 1; j < cols; ++j) {
     const double* x = &block.coeffRef(0, j);
-    for (Eigen::Index r = 0; r < nr; ++r) {
-      const std::size_t b = bin[static_cast<std::size_t>(r)];
-      const double xv = x[r];
-      // Fixed-size maps: the K terms are updated as packets (no aliasing to fear).
-      Eigen::Map<Eigen::Array<double, K, 1>>(&xm_[(b * columns_ + static_cast<std::size_t>(j)) * K]) +=
-          xv * Eigen::Map<const Eigen::Array<double, K, 1>>(&pw[static_cast<std::size_t>(r) * K]);
-      xsum_[b * columns_ + static_cast<std::size_t>(j)] += xv;
-    }
+    double* const acc_j = acc + static_cast<std::size_t>(j) * S;
+    for (Eigen::Index r = 0; r < nr; ++r)
+      Eigen::Map<Eigen::Array<double, S, 1>>(acc_j + rb[r] * stride) +=
+          x[r] * Eigen::Map<const Eigen::Array<double, S, 1>>(rw + static_cast<std::size_t>(r) * S);
   }
 }
 
@@ -215,14 +215,12 @@ bool BinnedProfile::log_rss(double lambda, double* out) const {
     for (std::size_t b = 0; b < bins_; ++b) {
       if (count_[b] == 0.0) continue;
       const double k = second_[b] ? k2 : lambda, ab = a_[b], bb = b_[b];
-      const double* xs = &xsum_[b * columns_];
-      const double* xm = &xm_[b * columns_ * KC];
+      const double* xm = &xm_[b * columns_ * kColumnSlot];
       for (Eigen::Index c = 1; c < kk; ++c) {
-        const std::size_t col = kept_[static_cast<std::size_t>(c)];
-        const double* s = xm + col * KC;
-        double e = s[KC - 1];
-        for (int j = KC - 2; j >= 0; --j) e = e * k + s[j];
-        v_(c) += ab * xs[col] + bb * e;
+        const double* s = xm + kept_[static_cast<std::size_t>(c)] * kColumnSlot;  // sum x, then the terms
+        double e = s[KC];
+        for (int j = KC - 1; j >= 1; --j) e = e * k + s[j];
+        v_(c) += ab * s[0] + bb * e;
       }
     }
     const Eigen::VectorXd u = r_.transpose().triangularView<Eigen::Lower>().solve(v_);

@@ -21,11 +21,8 @@ std::string plural(std::size_t k, const char* one, const char* many) {
 }
 
 // NaN/Inf first, then the Box-Cox domain; each error names the count and first 0-based indices.
-void check_values(const double* v, std::size_t n, Family family, const std::string& what) {
-  require(family == Family::BoxCox || family == Family::YeoJohnson,
-          std::string("lambda can be estimated for box-cox and yeo-johnson only, not ") +
-              family_name(family));
-  require(v != nullptr || n == 0, what + " is NULL");
+[[noreturn]] void describe_bad_values(const double* v, std::size_t n, Family family,
+                                     const std::string& what) {
   std::size_t bad = 0;
   std::vector<std::size_t> first;
   for (std::size_t i = 0; i < n; ++i)
@@ -53,6 +50,20 @@ void check_values(const double* v, std::size_t n, Family family, const std::stri
                              " (0-based): use Yeo-Johnson or a shift that makes every value > 0",
                          bad, first);
   }
+  throw Error(ErrorCode::Argument, what + " has values that cannot be used");
+}
+
+// The family, then every value (finite; > 0 for Box-Cox), the count and constancy.
+void check_values(const double* v, std::size_t n, Family family, const std::string& what) {
+  require(family == Family::BoxCox || family == Family::YeoJohnson,
+          std::string("lambda can be estimated for box-cox and yeo-johnson only, not ") +
+              family_name(family));
+  require(v != nullptr || n == 0, what + " is NULL");
+  // One quick pass; describe_bad_values makes the detailed ones only to word an error.
+  const bool box_cox = family == Family::BoxCox;
+  bool all_ok = true;
+  for (std::size_t i = 0; i < n; ++i) all_ok &= std::isfinite(v[i]) && (!box_cox || v[i] > 0.0);
+  if (!all_ok) describe_bad_values(v, n, family, what);
   require(n >= 3, what + " has " + plural(n, "value", "values") +
                       "; estimating lambda needs at least 3 finite values");
   const double v0 = v[0];
@@ -61,6 +72,7 @@ void check_values(const double* v, std::size_t n, Family family, const std::stri
   require(!constant, what + " is constant (every value is " + format_number(v0) +
                          "): no power can be estimated; leave it untransformed");
 }
+
 
 }  // namespace
 
@@ -148,10 +160,15 @@ void LambdaProfile::prepare(const double* v, std::size_t n) {
   if (family_ == Family::BoxCox) {
     for (Eigen::Index i = 0; i < nn; ++i) t_(i) = std::log(v[i]);
     centre_ = t_.mean();
-    t_ -= centre_;
     any_pos_ = true;
-    pos_min_ = t_.minCoeff();
-    pos_max_ = t_.maxCoeff();
+    pos_min_ = inf;
+    pos_max_ = -inf;
+    for (Eigen::Index i = 0; i < nn; ++i) {  // centre and range in one pass
+      const double t = t_(i) - centre_;
+      t_(i) = t;
+      pos_min_ = std::min(pos_min_, t);
+      pos_max_ = std::max(pos_max_, t);
+    }
     return;
   }
   neg_.resize(nn);

@@ -125,6 +125,7 @@ class BinnedProfile {
  public:
   static constexpr int kTerms = 10;        // power sums of delta: the series of e and e^2
   static constexpr int kColumnTerms = 8;   // column-weighted sums: the series of e only
+  static constexpr int kColumnSlot = kColumnTerms + 2;  // per bin and column: sum x, the terms, 0
   // t: the prepared values; second: which belong to Yeo-Johnson's negative group (used when
   // has_second). columns: the design's columns, intercept first (response case), or 0. t and
   // second must outlive the object.
@@ -155,7 +156,7 @@ class BinnedProfile {
   std::vector<double> centre_, count_, sign_;
   std::vector<unsigned char> second_;
   std::vector<double> s1_, s2_;   // per bin, kTerms: sum delta^m / m! (m = 1..K); (2^m - 2) times it (m = 2..K)
-  std::vector<double> xsum_, xm_; // response: per bin and design column (and term): sums of x, x delta^m / m!
+  std::vector<double> xm_;        // response: per bin and design column, kColumnSlot values: sum x, sum x delta^m / m!
   std::vector<std::size_t> kept_; // response: the kept design columns
   Eigen::MatrixXd r_;             // response: their R
   std::vector<std::size_t> row_bin_;  // add_rows' work space: each row's bin
