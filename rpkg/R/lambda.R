@@ -21,9 +21,10 @@
 #' the interval (ties go to the smaller), or \eqn{\hat\lambda} rounded to two decimals when none
 #' lies inside. A convenient power is easier to explain (0 is the log, -1 the reciprocal).
 #'
-#' For the response, the design is factored once (Householder QR; columns that depend on
-#' earlier ones are dropped as [stats::lm()] drops them, and named in `aliased`) and each
-#' \eqn{\lambda} costs one projection of the transformed response; the model is never refitted.
+#' For the response, the design is factored once (a Householder QR taken block by block, one
+#' pass over the rows; columns that depend on earlier ones are dropped as [stats::lm()] drops
+#' them, and named in `aliased`) and each \eqn{\lambda} costs one projection of the transformed
+#' response; the model is never refitted.
 #'
 #' Cautions: a transform changes what the model estimates (on the log scale a coefficient acts
 #' on the median multiplicatively, not on the mean additively); back-transformed fitted values
