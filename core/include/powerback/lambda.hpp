@@ -178,6 +178,9 @@ class LambdaProfile {
   LambdaProfile(const double* y, const double* X, std::size_t n, std::size_t p, Family family,
                 const std::string& what);
   ~LambdaProfile();
+  // The binned sums refer to this object's members: neither copied nor moved.
+  LambdaProfile(const LambdaProfile&) = delete;
+  LambdaProfile& operator=(const LambdaProfile&) = delete;
 
   // Profile log-likelihood at lambda (original scale, Jacobian included). direct = true skips
   // the binned fast path (for tests comparing the two).
