@@ -44,37 +44,47 @@ LeastSquares::LeastSquares(const Eigen::MatrixXd& design, double tol) : design_(
 }
 
 void LeastSquares::factor(double tol) {
-  const Eigen::Index n = design_.rows(), p = design_.cols();
+  const Eigen::Index p = design_.cols();
   Eigen::VectorXd norms(p);
   for (Eigen::Index j = 0; j < p; ++j) norms(j) = design_.col(j).norm();
-  std::vector<std::size_t> candidates;
-  for (Eigen::Index j = 0; j < p; ++j) {
-    if (norms(j) > 0) candidates.push_back(static_cast<std::size_t>(j));
-    else aliased_.push_back(static_cast<std::size_t>(j));
-  }
-  // Factor the candidate columns in order; the first whose |R_jj| < tol * ||x_j|| depends on the
-  // columns before it: drop it and factor again (lm's rule, one refactorisation per alias).
-  for (;;) {
-    if (candidates.empty()) throw Error(ErrorCode::Singular, "every column of the design is zero");
-    const Eigen::Index k = static_cast<Eigen::Index>(candidates.size());
-    Eigen::MatrixXd xk(n, k);
-    for (Eigen::Index i = 0; i < k; ++i) xk.col(i) = design_.col(static_cast<Eigen::Index>(candidates[i]));
-    qr_.compute(xk);
-    Eigen::Index bad = -1;
-    const Eigen::Index m = std::min(k, n);
-    for (Eigen::Index i = 0; i < m && bad < 0; ++i)
-      if (std::fabs(qr_.matrixQR()(i, i)) < tol * norms(static_cast<Eigen::Index>(candidates[i]))) bad = i;
-    if (bad < 0 && k > n) bad = n;  // n independent columns already span every column
-    if (bad < 0) break;
-    aliased_.push_back(candidates[static_cast<std::size_t>(bad)]);
-    candidates.erase(candidates.begin() + bad);
-  }
-  std::sort(aliased_.begin(), aliased_.end());
-  kept_ = candidates;
+  detail::apply_rank_rule(design_, norms, tol, qr_, kept_, aliased_);
   const Eigen::Index k = static_cast<Eigen::Index>(kept_.size());
   r_ = qr_.matrixQR().topLeftCorner(k, k).triangularView<Eigen::Upper>();
   r_inv_ = r_.triangularView<Eigen::Upper>().solve(Eigen::MatrixXd::Identity(k, k));
 }
+
+namespace detail {
+
+void apply_rank_rule(const Eigen::MatrixXd& a, const Eigen::VectorXd& norms, double tol,
+                     Eigen::HouseholderQR<Eigen::MatrixXd>& qr, std::vector<std::size_t>& kept,
+                     std::vector<std::size_t>& aliased) {
+  const Eigen::Index rows = a.rows(), p = a.cols();
+  std::vector<std::size_t> candidates;
+  for (Eigen::Index j = 0; j < p; ++j) {
+    if (norms(j) > 0) candidates.push_back(static_cast<std::size_t>(j));
+    else aliased.push_back(static_cast<std::size_t>(j));
+  }
+  // One refactorisation per alias.
+  for (;;) {
+    if (candidates.empty()) throw Error(ErrorCode::Singular, "every column of the design is zero");
+    const Eigen::Index k = static_cast<Eigen::Index>(candidates.size());
+    Eigen::MatrixXd ak(rows, k);
+    for (Eigen::Index i = 0; i < k; ++i) ak.col(i) = a.col(static_cast<Eigen::Index>(candidates[i]));
+    qr.compute(ak);
+    Eigen::Index bad = -1;
+    const Eigen::Index m = std::min(k, rows);
+    for (Eigen::Index i = 0; i < m && bad < 0; ++i)
+      if (!(std::fabs(qr.matrixQR()(i, i)) >= tol * norms(static_cast<Eigen::Index>(candidates[i])))) bad = i;
+    if (bad < 0 && k > rows) bad = rows;  // `rows` independent columns already span every column
+    if (bad < 0) break;
+    aliased.push_back(candidates[static_cast<std::size_t>(bad)]);
+    candidates.erase(candidates.begin() + bad);
+  }
+  std::sort(aliased.begin(), aliased.end());
+  kept = candidates;
+}
+
+}  // namespace detail
 
 Eigen::VectorXd LeastSquares::rotate(const Eigen::VectorXd& y) const {
   require(y.size() == design_.rows(), "the response has " + std::to_string(y.size()) +

@@ -21,34 +21,12 @@ namespace {
   throw Error(ErrorCode::NonFinite, "the predictors have a non-finite value");
 }
 
-// lm's rule on R (c x c, R'R = X'X): factor the candidate columns of R in order; the first whose
-// diagonal is below tol times its column's norm is dropped and the rest factored again.
+// lm's rule on R (c x c, R'R = X'X), which needs only the columns' norms and inner products.
 void decide_rank(const Eigen::MatrixXd& r_all, double tol, TallFactor& out) {
-  const Eigen::Index c = r_all.cols();
-  std::vector<std::size_t> candidates;
-  Eigen::VectorXd norms(c);
-  for (Eigen::Index j = 0; j < c; ++j) {
-    norms(j) = r_all.col(j).norm();  // ||x_j||, since ||R e_j|| = ||X e_j||
-    if (norms(j) > 0) candidates.push_back(static_cast<std::size_t>(j));
-    else out.aliased.push_back(static_cast<std::size_t>(j));
-  }
+  const Eigen::VectorXd norms = r_all.colwise().norm().transpose();  // ||R e_j|| = ||X e_j||
   Eigen::HouseholderQR<Eigen::MatrixXd> qr;
-  for (;;) {
-    if (candidates.empty()) throw Error(ErrorCode::Singular, "every column of the design is zero");
-    const Eigen::Index k = static_cast<Eigen::Index>(candidates.size());
-    Eigen::MatrixXd rk(c, k);
-    for (Eigen::Index i = 0; i < k; ++i) rk.col(i) = r_all.col(static_cast<Eigen::Index>(candidates[i]));
-    qr.compute(rk);
-    Eigen::Index bad = -1;
-    for (Eigen::Index i = 0; i < k && bad < 0; ++i)
-      if (!(std::fabs(qr.matrixQR()(i, i)) >= tol * norms(static_cast<Eigen::Index>(candidates[i])))) bad = i;
-    if (bad < 0) break;
-    out.aliased.push_back(candidates[static_cast<std::size_t>(bad)]);
-    candidates.erase(candidates.begin() + bad);
-  }
-  std::sort(out.aliased.begin(), out.aliased.end());
-  out.kept = candidates;
-  const Eigen::Index k = static_cast<Eigen::Index>(candidates.size());
+  detail::apply_rank_rule(r_all, norms, tol, qr, out.kept, out.aliased);
+  const Eigen::Index k = static_cast<Eigen::Index>(out.kept.size());
   out.r = qr.matrixQR().topLeftCorner(k, k).triangularView<Eigen::Upper>();
 }
 

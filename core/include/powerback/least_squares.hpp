@@ -72,4 +72,15 @@ class LeastSquares {
   Eigen::MatrixXd r_inv_;  // R^{-1}, rank x rank
 };
 
+namespace detail {
+// lm's rank rule on the columns of a (the design, or any matrix with the same a'a such as its R):
+// columns of zero norm are aliased; the others are factored in order, and the first whose
+// |R_jj| < tol * norms(j) depends on the columns before it: it is dropped and the rest factored
+// again. On return qr holds the factorisation of the kept columns. Error(Singular) when none is
+// left.
+void apply_rank_rule(const Eigen::MatrixXd& a, const Eigen::VectorXd& norms, double tol,
+                     Eigen::HouseholderQR<Eigen::MatrixXd>& qr, std::vector<std::size_t>& kept,
+                     std::vector<std::size_t>& aliased);
+}  // namespace detail
+
 }  // namespace powerback
