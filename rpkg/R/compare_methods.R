@@ -89,13 +89,26 @@ plot.pwb_comparison <- function(x, score = c("rmse_median", "mae_median", "r2_me
   if (is.null(x$folds) || nrow(x$folds) == 0L) stop("no fold was scored", call. = FALSE)
   cands <- x$summary$candidate
   f <- x$folds
+  if (!any(is.finite(f[[score]]))) stop(sprintf("no fold has a finite %s", score), call. = FALSE)
   pos <- match(f$candidate, cands)
   graphics::plot(pos, f[[score]], xaxt = "n", xlim = c(0.5, length(cands) + 0.5),
                  xlab = "candidate", ylab = score, pch = 1, col = "grey40",
                  main = sprintf("held-out %s per fold (original units)", score), ...)
   graphics::axis(1, at = seq_along(cands), labels = cands)
-  m <- tapply(f[[score]], factor(f$candidate, levels = cands), mean)
+  by_cand <- factor(f$candidate, levels = cands)
+  m <- tapply(f[[score]], by_cand, mean)
   graphics::points(seq_along(cands), m, pch = 19, cex = 1.5, col = "red")
+  # Folds without a score (see print()) are said, not left as an unexplained gap.
+  n_na <- tapply(is.na(f[[score]]), by_cand, sum)
+  n_all <- tapply(f[[score]], by_cand, length)
+  for (i in which(!is.na(n_na) & n_na > 0)) {
+    if (n_na[i] == n_all[i]) {
+      graphics::text(i, mean(graphics::par("usr")[3:4]), "no fold scored", srt = 90, col = "grey40")
+    } else {
+      graphics::mtext(sprintf("%d of %d folds unscored", n_na[i], n_all[i]), side = 1, line = 2,
+                      at = i, cex = 0.7, col = "grey40")
+    }
+  }
   if (score == "coverage") graphics::abline(h = x$level, lty = 2)
   invisible(x)
 }

@@ -51,6 +51,8 @@ confint.pwb_lambda <- function(object, parm, level = object$level, ...) {
 #' estimate (filled point) and the convenient value (open point, labelled).
 #'
 #' @param x a `pwb_lambda` from [estimate_lambda()] or [estimate_response_lambda()].
+#' @param main the title; by default the family and the variable (with the model's predictors),
+#'   drawn smaller when it would not fit the figure's width.
 #' @param ... further graphical arguments passed to [graphics::plot()].
 #' @return `x`, invisibly.
 #' @examples
@@ -62,13 +64,24 @@ confint.pwb_lambda <- function(object, parm, level = object$level, ...) {
 #' grDevices::dev.off()
 #' unlink(f)
 #' @export
-plot.pwb_lambda <- function(x, ...) {
+plot.pwb_lambda <- function(x, main = NULL, ...) {
   pr <- x$profile
   cut <- x$loglik - stats::qchisq(x$level, 1) / 2
-  lab <- if (is.null(x$predictors)) x$variable else paste(x$variable, "~", x$predictors)
   graphics::plot(pr$lambda, pr$loglik, type = "l", xlab = "lambda",
-                 ylab = "profile log-likelihood",
-                 main = sprintf("%s: %s", pwb_lambda_family_label(x$family), lab), ...)
+                 ylab = "profile log-likelihood", main = "", ...)
+  if (is.null(main)) {
+    lab <- if (is.null(x$predictors)) x$variable else paste(x$variable, "~", x$predictors)
+    main <- sprintf("%s: %s", pwb_lambda_family_label(x$family), lab)
+  }
+  # A long model formula: shrink the title (down to 60%) to the room the figure leaves it; it is
+  # centred over the plot region, so the room is twice the nearer figure edge's distance.
+  cex <- graphics::par("cex.main")
+  w <- graphics::strwidth(main, units = "figure", cex = cex * graphics::par("cex"),
+                          font = graphics::par("font.main"))
+  centre <- mean(graphics::par("plt")[1:2])
+  room <- 0.96 * 2 * min(centre, 1 - centre)
+  if (is.finite(w) && w > room) cex <- max(0.6 * cex, cex * room / w)
+  graphics::title(main = main, cex.main = cex)
   graphics::abline(h = cut, lty = 2, col = "grey40")
   graphics::abline(v = x$conf_int, lty = 3, col = "grey40")
   graphics::points(x$lambda, x$loglik, pch = 19)

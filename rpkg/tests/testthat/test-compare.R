@@ -97,6 +97,13 @@ test_that("print, plot and the progress bar", {
   grDevices::png(f)
   expect_silent(plot(cmp))
   expect_silent(plot(cmp, "coverage"))
+  # Unscored folds (NA) are labelled; a score no fold has is an error.
+  part <- cmp
+  part$folds$rmse_median[part$folds$candidate == "logy"][1] <- NA
+  part$folds$rmse_median[part$folds$candidate == "none"] <- NA
+  expect_silent(plot(part))
+  part$folds$rmse_median <- NA_real_
+  expect_error(plot(part), "no fold has a finite rmse_median")
   grDevices::dev.off()
   unlink(f)
 })

@@ -42,5 +42,11 @@ test_that("print and plot run and say what they show", {
   grDevices::png(f)
   on.exit(grDevices::dev.off(), add = TRUE)
   expect_identical(plot(fit), fit)
+  expect_identical(plot(fit, main = "a title of one's own"), fit)  # main is an argument, not in ...
+  # A model formula wider than the figure: the title is drawn smaller, the plot still made.
+  river <- river_data()
+  long <- estimate_response_lambda(sediment_t_day ~ flow_m3s + rain72_mm + forest_pct + season +
+                                     station, river)
+  expect_identical(plot(long), long)
   expect_true(file.exists(f))
 })
