@@ -221,8 +221,9 @@ PWB_API pwb_status pwb_estimate_lambda(const double *x, size_t n, pwb_family fam
 
 /* Maximum-likelihood lambda of the response y given predictors: psi(y; lambda) = [1 X] b + e with
  * normal e. X: n-by-p, column-major, no intercept column (one is added); p may be 0. The design
- * is factored once (Householder QR, aliased columns dropped as R's lm does; their count is in
- * out->n_aliased) and each lambda costs one projection of the transformed y. Errors as
+ * is factored once, in one pass over its rows (a Householder QR taken block by block; aliased
+ * columns dropped as R's lm does, their count in out->n_aliased), and each lambda costs one
+ * projection of the transformed y. Errors as
  * pwb_estimate_lambda for y, plus PWB_ERR_NONFINITE for non-finite X (first row and column
  * named) and PWB_ERR_SINGULAR when n <= rank + 1. Thread-safe. */
 PWB_API pwb_status pwb_estimate_response_lambda(const double *y, const double *X, size_t n,
