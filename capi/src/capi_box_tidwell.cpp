@@ -30,8 +30,7 @@ pwb_status pwb_box_tidwell(const double* y, const double* Z, size_t n, size_t q,
     (void)capi::checked_matrix_size(n, m, "X");
     capi::need(alpha, "alpha");
     capi::need(se, "se");
-    capi::need(out, "out");
-    capi::need_struct(out->struct_size, sizeof(pwb_box_tidwell_result), "pwb_box_tidwell_result");
+    capi::need_sized(out, "out", "pwb_box_tidwell_result");
     BoxTidwellOptions o;
     if (opt) {
       capi::need_struct(opt->struct_size, sizeof(pwb_box_tidwell_options), "pwb_box_tidwell_options");

@@ -20,8 +20,7 @@ pwb_status pwb_cv_folds(size_t n, int folds, int repeats, unsigned long long see
 pwb_status pwb_holdout_score(const double* y, const double* fit, const double* lwr,
                              const double* upr, size_t n, pwb_holdout_scores* out) {
   return capi::guarded([&] {
-    capi::need(out, "out");
-    capi::need_struct(out->struct_size, sizeof(pwb_holdout_scores), "pwb_holdout_scores");
+    capi::need_sized(out, "out", "pwb_holdout_scores");
     const HoldoutScores s = holdout_scores(y, fit, lwr, upr, n);
     out->rmse = s.rmse;
     out->mae = s.mae;

@@ -23,8 +23,7 @@ void pwb_residual_checks_init(pwb_residual_checks* out) {
 pwb_status pwb_model_residual_checks(const pwb_model* m, pwb_residual_checks* out) {
   return capi::guarded([&] {
     capi::need(m, "m");
-    capi::need(out, "out");
-    capi::need_struct(out->struct_size, sizeof(pwb_residual_checks), "pwb_residual_checks");
+    capi::need_sized(out, "out", "pwb_residual_checks");
     const ResidualChecks c = residual_checks(m->impl);
     out->n = c.n;
     out->sw_statistic = c.sw_statistic;

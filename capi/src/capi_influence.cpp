@@ -23,8 +23,7 @@ pwb_status pwb_lambda_influence(const double* y, const double* X, size_t n, size
   return capi::guarded([&] {
     capi::need(y, "y");
     capi::need_array(X, capi::checked_matrix_size(n, p, "X"), "X");
-    capi::need(summary, "summary");
-    capi::need_struct(summary->struct_size, sizeof(pwb_influence_summary), "pwb_influence_summary");
+    capi::need_sized(summary, "summary", "pwb_influence_summary");
     LambdaOptions o;
     Family fam = Family::BoxCox;
     if (opt) {

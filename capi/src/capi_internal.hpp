@@ -54,6 +54,13 @@ inline void need_struct(std::size_t got, std::size_t want, const char* name) {
                                          ", smaller than " + std::to_string(want) +
                                          ": set it to sizeof(" + name + ")");
 }
+// A caller's struct of type T (one with struct_size first): not NULL, and at least this
+// version's size.
+template <class T>
+void need_sized(const T* p, const char* arg, const char* type) {
+  need(p, arg);
+  need_struct(p->struct_size, sizeof(T), type);
+}
 
 // snprintf-like copy of text into a caller's buffer.
 void copy_text(const std::string& text, char* buf, std::size_t cap, std::size_t* needed);

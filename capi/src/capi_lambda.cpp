@@ -28,8 +28,7 @@ LambdaOptions options_of(const pwb_lambda_options* opt) {
 }
 
 void check_out(const pwb_lambda_result* out) {
-  capi::need(out, "out");
-  capi::need_struct(out->struct_size, sizeof(pwb_lambda_result), "pwb_lambda_result");
+  capi::need_sized(out, "out", "pwb_lambda_result");
 }
 
 void write_result(const LambdaEstimate& e, pwb_lambda_result* out) {

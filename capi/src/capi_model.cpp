@@ -60,8 +60,7 @@ void pwb_model_free(pwb_model* m) { delete m; }
 pwb_status pwb_model_get_info(const pwb_model* m, pwb_model_info* info) {
   return capi::guarded([&] {
     capi::need(m, "m");
-    capi::need(info, "info");
-    capi::need_struct(info->struct_size, sizeof(pwb_model_info), "pwb_model_info");
+    capi::need_sized(info, "info", "pwb_model_info");
     const Model& f = m->impl;
     info->n = f.n();
     info->columns = f.columns();

@@ -18,8 +18,7 @@ void pwb_normality_result_init(pwb_normality_result* out) {
 
 pwb_status pwb_shapiro_wilk(const double* x, size_t n, pwb_normality_result* out) {
   return capi::guarded([&] {
-    capi::need(out, "out");
-    capi::need_struct(out->struct_size, sizeof(pwb_normality_result), "pwb_normality_result");
+    capi::need_sized(out, "out", "pwb_normality_result");
     capi::need_array(x, n, "x");
     const ShapiroWilk sw = shapiro_wilk(x, n);
     out->w = sw.w;
@@ -41,8 +40,7 @@ void pwb_moments_init(pwb_moments* out) {
 
 pwb_status pwb_sample_moments(const double* x, size_t n, pwb_moments* out) {
   return capi::guarded([&] {
-    capi::need(out, "out");
-    capi::need_struct(out->struct_size, sizeof(pwb_moments), "pwb_moments");
+    capi::need_sized(out, "out", "pwb_moments");
     capi::need_array(x, n, "x");
     const Moments m = sample_moments(x, n);
     out->n = m.n;

@@ -38,8 +38,7 @@ void pwb_ladder_info_init(pwb_ladder_info* info) {
 pwb_status pwb_ladder_recommend(const double* x, size_t n, pwb_transform_spec* spec,
                                 pwb_ladder_info* info) {
   return capi::guarded([&] {
-    capi::need(spec, "spec");
-    capi::need_struct(spec->struct_size, sizeof(pwb_transform_spec), "pwb_transform_spec");
+    capi::need_sized(spec, "spec", "pwb_transform_spec");
     if (info) capi::need_struct(info->struct_size, sizeof(pwb_ladder_info), "pwb_ladder_info");
     capi::need_array(x, n, "x");
     const LadderAdvice a = ladder_recommend(x, n);
@@ -85,8 +84,7 @@ void pwb_screen_result_init(pwb_screen_result* out) {
 pwb_status pwb_screen_variable(const double* x, size_t n, const pwb_screen_options* opt,
                                pwb_screen_result* out) {
   return capi::guarded([&] {
-    capi::need(out, "out");
-    capi::need_struct(out->struct_size, sizeof(pwb_screen_result), "pwb_screen_result");
+    capi::need_sized(out, "out", "pwb_screen_result");
     capi::need_array(x, n, "x");
     ScreenOptions o;
     if (opt) {

@@ -48,9 +48,8 @@ void pwb_transform_spec_init(pwb_transform_spec* spec) {
 pwb_status pwb_transform_new(const pwb_transform_spec* spec, pwb_transform** out) {
   if (out) *out = nullptr;
   return capi::guarded([&] {
-    capi::need(spec, "spec");
+    capi::need_sized(spec, "spec", "pwb_transform_spec");
     capi::need(out, "out");
-    capi::need_struct(spec->struct_size, sizeof(pwb_transform_spec), "pwb_transform_spec");
     *out = capi::new_transform_handle(Transform(from_c(*spec)));
   });
 }
@@ -60,8 +59,7 @@ void pwb_transform_free(pwb_transform* t) { delete t; }
 pwb_status pwb_transform_get_spec(const pwb_transform* t, pwb_transform_spec* spec) {
   return capi::guarded([&] {
     capi::need(t, "t");
-    capi::need(spec, "spec");
-    capi::need_struct(spec->struct_size, sizeof(pwb_transform_spec), "pwb_transform_spec");
+    capi::need_sized(spec, "spec", "pwb_transform_spec");
     const TransformSpec& s = t->impl.spec();
     spec->family = static_cast<pwb_family>(s.family);
     spec->lambda = s.lambda;
