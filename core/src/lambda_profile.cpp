@@ -73,7 +73,6 @@ void check_values(const double* v, std::size_t n, Family family, const std::stri
                          "): no power can be estimated; leave it untransformed");
 }
 
-
 }  // namespace
 
 LambdaProfile::LambdaProfile(const double* x, std::size_t n, Family family, const std::string& what)
@@ -90,7 +89,6 @@ LambdaProfile::LambdaProfile(const double* y, const LeastSquares& design, Family
   check_values(y, n, family, what);
   require(design.has_intercept(), "the response lambda needs a design with an intercept column");
   check_rank(n, design.rank(), what);
-  rank_ = design.rank();
   kept_ = design.kept();
   aliased_ = design.aliased();
   prepare(y, n);
@@ -107,7 +105,7 @@ LambdaProfile::LambdaProfile(const double* y, const LeastSquares& design, Family
 
 LambdaProfile::LambdaProfile(const double* y, const double* X, std::size_t n, std::size_t p,
                              Family family, const std::string& what)
-    : family_(family), X_(X), p_(p), response_(true) {
+    : family_(family), X_(X), response_(true) {
   check_values(y, n, family, what);
   prepare(y, n);
   make_binned(p + 1);
@@ -118,7 +116,6 @@ LambdaProfile::LambdaProfile(const double* y, const double* X, std::size_t n, st
     };
   const TallFactor f = factor_tall(X, n, p, true, kRankTolerance, gather);
   check_rank(n, f.rank(), what);
-  rank_ = f.rank();
   kept_ = f.kept;
   aliased_ = f.aliased;
   if (!binned_) return;

@@ -189,7 +189,7 @@ class LambdaProfile {
   std::size_t n() const { return static_cast<std::size_t>(t_.size()); }
   Family family() const { return family_; }
   // Response case: rank of the design (intercept included) and its aliased columns.
-  std::size_t rank() const { return rank_; }
+  std::size_t rank() const { return kept_.size(); }
   const std::vector<std::size_t>& aliased() const { return aliased_; }
 
  private:
@@ -203,11 +203,9 @@ class LambdaProfile {
   Family family_;
   const LeastSquares* design_ = nullptr;  // response case: the caller's, or owned_ once built
   mutable std::unique_ptr<LeastSquares> owned_;  // streamed response: built on first direct use
-  const double* X_ = nullptr;   // streamed response: the caller's predictors
-  std::size_t p_ = 0;
+  const double* X_ = nullptr;   // streamed response: the caller's predictors (NULL when p = 0)
   bool response_ = false;
-  std::size_t rank_ = 0;
-  std::vector<std::size_t> kept_, aliased_;
+  std::vector<std::size_t> kept_, aliased_;  // response case: the design's columns used / dropped
   Eigen::ArrayXd t_;            // log magnitudes (see above)
   Eigen::Array<bool, Eigen::Dynamic, 1> neg_;  // Yeo-Johnson: v < 0
   bool any_neg_ = false, any_pos_ = false;
