@@ -9,19 +9,13 @@
 
 #include "powerback/errors.hpp"
 #include "powerback/ladder.hpp"
+#include "test_support.hpp"
 
 using namespace powerback;
 
 namespace {
 
-// n evenly spaced quantiles of a distribution: a smooth sample with the distribution's shape.
-template <class Dist>
-std::vector<double> quantiles(const Dist& d, std::size_t n) {
-  std::vector<double> x(n);
-  for (std::size_t i = 0; i < n; ++i)
-    x[i] = boost::math::quantile(d, (static_cast<double>(i) + 0.5) / static_cast<double>(n));
-  return x;
-}
+using pwbtest::quantiles;
 
 // Moments with a chosen G1 and z, for probing the rule's boundaries.
 Moments fake(std::size_t n, double g1, double z) {

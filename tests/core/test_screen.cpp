@@ -8,18 +8,13 @@
 
 #include "powerback/errors.hpp"
 #include "powerback/screen.hpp"
+#include "test_support.hpp"
 
 using namespace powerback;
 
 namespace {
 
-template <class Dist>
-std::vector<double> quantiles(const Dist& d, std::size_t n) {
-  std::vector<double> x(n);
-  for (std::size_t i = 0; i < n; ++i)
-    x[i] = boost::math::quantile(d, (static_cast<double>(i) + 0.5) / static_cast<double>(n));
-  return x;
-}
+using pwbtest::quantiles;
 
 std::vector<double> mapped(const TransformSpec& s, const std::vector<double>& x) {
   std::vector<double> z(x.size());
