@@ -665,16 +665,51 @@ typedef struct pwb_holdout_scores {
   double coverage;    /* share of rows with lwr <= y <= upr; NaN without an interval */
   double mean_width;  /* mean (upr - lwr); NaN without an interval */
   size_t n;           /* rows scored */
-  size_t n_nonfinite; /* rows whose fit or interval end is not finite (the scores then are not
-                         finite either: such rows are never dropped) */
+  size_t n_nonfinite; /* rows whose fit is not finite: left out of rmse, mae and r2 and
+                         counted here, never dropped silently */
+  /* Fields below are filled only when struct_size covers them. */
+  size_t n_point;         /* rows scored by rmse, mae and r2 (a finite fit) */
+  size_t n_interval;      /* rows scored by coverage and the widths (neither end NaN) */
+  double median_width;    /* median (upr - lwr) over those rows; Inf when most are unbounded */
+  double share_unbounded; /* share of those rows whose interval has an infinite end */
 } pwb_holdout_scores;
 
 /* Scores n held-out responses y against predictions fit and, when both are given, the interval
- * [lwr, upr] (lwr and upr may both be NULL). All arrays caller-owned, n values. Errors:
+ * [lwr, upr] (lwr and upr may both be NULL). Each statistic uses the rows where it is defined:
+ * rmse, mae and r2 the rows with a finite fit (NaN when there are none); coverage and widths
+ * the rows whose interval ends are not NaN. An infinite end (a back-transform whose range is
+ * unbounded) still covers on its side; it makes mean_width infinite, so median_width and
+ * share_unbounded describe such intervals. A struct_size that ends before n_point is accepted
+ * (the fields it lacks are not written). All arrays caller-owned, n values. Errors:
  * PWB_ERR_ARGUMENT for n == 0, NULL y, fit or out, only one interval end, a struct_size too
  * small; PWB_ERR_NONFINITE for a non-finite y (count and first rows named). Thread-safe. */
 PWB_API pwb_status pwb_holdout_score(const double *y, const double *fit, const double *lwr,
                                      const double *upr, size_t n, pwb_holdout_scores *out);
+
+/* Options of pwb_cv_folds_by. Initialise with pwb_cv_fold_options_init (5 folds, 1 repeat,
+ * seed 0, neither strata nor groups), then change fields. */
+typedef struct pwb_cv_fold_options {
+  size_t struct_size;       /* sizeof(pwb_cv_fold_options) */
+  int folds;                /* k >= 2 */
+  int repeats;              /* >= 1 */
+  unsigned long long seed;  /* the same seed gives the same folds on every platform */
+  const int *strata;        /* NULL, or n stratum codes >= 0 (e.g. a factor's level numbers) */
+  const int *groups;        /* NULL, or n group codes >= 0 (a site, patient, station, ...) */
+} pwb_cv_fold_options;
+
+/* Sets every field of *opt to its default (no-op for NULL). Thread-safe. */
+PWB_API void pwb_cv_fold_options_init(pwb_cv_fold_options *opt);
+
+/* Repeated k-fold assignment as pwb_cv_folds, stratified or grouped. With strata, each repeat's
+ * shuffled rows are dealt stratum by stratum to consecutive folds, so a stratum of m rows lands
+ * in min(m, folds) folds: every stratum with at least 2 rows keeps a row in every training part,
+ * and fold sizes differ by at most one. With groups, all rows of a group share a fold: the
+ * shuffled groups go, one by one, to the fold with the fewest rows so far. Without either, the
+ * folds equal pwb_cv_folds' for the same seed. fold: caller-owned, n * repeats values.
+ * Errors: PWB_ERR_ARGUMENT for NULL opt or fold, a struct_size too small, folds < 2,
+ * repeats < 1, n < folds, a negative code, both strata and groups, or fewer groups than folds.
+ * Thread-safe: reads only its arguments. */
+PWB_API pwb_status pwb_cv_folds_by(size_t n, const pwb_cv_fold_options *opt, int *fold);
 
 /* @@PWB_SECTION_COMPARE@@ (declarations of this section go above this line) */
 

@@ -1,5 +1,6 @@
 // Cross-validation folds and held-out scores through the C ABI.
 #include <algorithm>
+#include <cstddef>
 #include <cstdint>
 
 #include "capi_internal.hpp"
@@ -17,10 +18,34 @@ pwb_status pwb_cv_folds(size_t n, int folds, int repeats, unsigned long long see
   });
 }
 
+void pwb_cv_fold_options_init(pwb_cv_fold_options* opt) {
+  if (!opt) return;
+  opt->struct_size = sizeof(pwb_cv_fold_options);
+  opt->folds = 5;
+  opt->repeats = 1;
+  opt->seed = 0;
+  opt->strata = nullptr;
+  opt->groups = nullptr;
+}
+
+pwb_status pwb_cv_folds_by(size_t n, const pwb_cv_fold_options* opt, int* fold) {
+  return capi::guarded([&] {
+    capi::need_sized(opt, "opt", "pwb_cv_fold_options");
+    capi::need(fold, "fold");
+    const std::vector<int> f = make_folds_by(n, opt->folds, opt->repeats,
+                                             static_cast<std::uint64_t>(opt->seed), opt->strata,
+                                             opt->groups);
+    std::copy(f.begin(), f.end(), fold);
+  });
+}
+
 pwb_status pwb_holdout_score(const double* y, const double* fit, const double* lwr,
                              const double* upr, size_t n, pwb_holdout_scores* out) {
   return capi::guarded([&] {
-    capi::need_sized(out, "out", "pwb_holdout_scores");
+    // callers built before n_point was added pass the smaller struct: fill what it holds
+    capi::need(out, "out");
+    capi::need_struct(out->struct_size, offsetof(pwb_holdout_scores, n_point),
+                      "pwb_holdout_scores");
     const HoldoutScores s = holdout_scores(y, fit, lwr, upr, n);
     out->rmse = s.rmse;
     out->mae = s.mae;
@@ -29,6 +54,12 @@ pwb_status pwb_holdout_score(const double* y, const double* fit, const double* l
     out->mean_width = s.mean_width;
     out->n = s.n;
     out->n_nonfinite = s.n_nonfinite;
+    if (out->struct_size >= sizeof(pwb_holdout_scores)) {
+      out->n_point = s.n_point;
+      out->n_interval = s.n_interval;
+      out->median_width = s.median_width;
+      out->share_unbounded = s.share_unbounded;
+    }
   });
 }
 

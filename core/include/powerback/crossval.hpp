@@ -5,13 +5,24 @@
 // Mersenne twister seeded from `seed` and the repeat number; the twister's output is fixed by
 // the C++ standard and the draw below is unbiased, so folds are the same on every platform)
 // and deals them in turn to folds 1..k, so fold sizes differ by at most one.
+//   Stratified: the shuffled rows are ordered by stratum (stable, so rows stay shuffled within
+//   a stratum) before dealing, so the rows of a stratum go to consecutive folds: a stratum of m
+//   rows lands in min(m, k) folds, hence every stratum with >= 2 rows keeps at least one row in
+//   every training part, and fold sizes still differ by at most one.
+//   Grouped: all rows of a group share a fold. The groups are shuffled and each goes, in turn,
+//   to the fold holding the fewest rows so far (the lowest-numbered fold on ties), so every fold
+//   receives a group and fold sizes stay as even as the group sizes allow.
 //
-// Scores of predictions p of held-out responses y (n rows, original units):
-//   RMSE = sqrt(mean (y - p)^2),  MAE = mean |y - p|,
-//   R^2 = 1 - SSE / SST with SST = sum (y - mean y)^2 over the same held-out rows,
-//   interval coverage = share of rows with lwr <= y <= upr, mean width = mean (upr - lwr).
-// A non-finite prediction (a back-transform beyond its range) is never dropped: it makes the
-// scores non-finite and is counted.
+// Scores of predictions p of held-out responses y (n rows, original units). Each statistic uses
+// the rows where it is defined:
+//   point scores (rows with a finite prediction p, counted in n_point):
+//     RMSE = sqrt(mean (y - p)^2),  MAE = mean |y - p|,
+//     R^2 = 1 - SSE / SST with SST = sum (y - mean y)^2 over the same rows;
+//   interval scores (rows whose ends are not NaN, counted in n_interval; an end may be infinite,
+//   as when a back-transform's range is unbounded): coverage = share with lwr <= y <= upr (an
+//   infinite end covers on its side), mean width = mean (upr - lwr) (infinite as soon as one
+//   interval is unbounded), median width, and the share of unbounded intervals.
+// Rows without a finite prediction are never dropped silently: they are counted (n_nonfinite).
 #pragma once
 
 #include <cstddef>
@@ -24,11 +35,21 @@ namespace powerback {
 // when k < 2, repeats < 1, or n < k ("fewer rows than folds").
 std::vector<int> make_folds(std::size_t n, int k, int repeats, std::uint64_t seed);
 
+// As make_folds, stratified by `strata` or grouped by `groups` (each NULL or n codes >= 0; at
+// most one of them given; both NULL gives make_folds' folds). Throws Error(Argument) as
+// make_folds, for a negative code, for both given, and for fewer groups than folds.
+std::vector<int> make_folds_by(std::size_t n, int k, int repeats, std::uint64_t seed,
+                               const int* strata, const int* groups);
+
 struct HoldoutScores {
-  double rmse = 0, mae = 0, r2 = 0;
-  double coverage = 0, mean_width = 0;  // NaN when no interval was given
+  double rmse = 0, mae = 0, r2 = 0;     // NaN when no row has a finite prediction
+  double coverage = 0, mean_width = 0;  // NaN when no interval was given or none is defined
   std::size_t n = 0;
-  std::size_t n_nonfinite = 0;          // rows whose prediction (or interval end) is not finite
+  std::size_t n_nonfinite = 0;          // rows whose point prediction is not finite
+  std::size_t n_point = 0;              // rows scored by rmse, mae and r2
+  std::size_t n_interval = 0;           // rows scored by coverage and the widths
+  double median_width = 0;              // NaN when no interval was given or none is defined
+  double share_unbounded = 0;           // share of the n_interval intervals with an infinite end
 };
 
 // lwr and upr may both be NULL (no interval). Throws Error(Argument) for n == 0, NULL y or fit,
