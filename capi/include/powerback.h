@@ -92,7 +92,7 @@ typedef enum pwb_family {
   PWB_YEO_JOHNSON, /* Yeo & Johnson (2000); any real v */
   PWB_LOG,         /* natural log; v > 0 */
   PWB_LOG10,       /* v > 0 */
-  PWB_SQRT,        /* v > 0 */
+  PWB_SQRT,        /* v >= 0 */
   PWB_RECIPROCAL,  /* -1/v; v > 0 */
   PWB_POWER,       /* lambda != 0 */
   PWB_ASINH,       /* any real v */

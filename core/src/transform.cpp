@@ -159,8 +159,8 @@ std::string Transform::domain_requirement() const {
     case Family::BoxCox:
     case Family::Log:
     case Family::Log10:
-    case Family::Sqrt:
     case Family::Reciprocal: return fam + " needs v > 0" + where;
+    case Family::Sqrt: return fam + " needs v >= 0" + where;
     case Family::Power:
       return spec_.lambda > 0 ? fam + " accepts any finite v"
                               : fam + " with lambda < 0 needs v > 0" + where;
@@ -174,10 +174,10 @@ std::string Transform::domain_remedy() const {
     case Family::BoxCox:
     case Family::Log:
     case Family::Log10:
-    case Family::Sqrt:
     case Family::Reciprocal:
     case Family::Power:
       return "use yeo-johnson, or a shift that makes every value > 0";
+    case Family::Sqrt: return "use yeo-johnson, or a shift that makes every value >= 0";
     case Family::Logit: return "rescale the variable to a proportion strictly between 0 and 1";
     default: return "remove or impute the non-finite values";
   }

@@ -165,8 +165,8 @@ inline bool in_domain(Family f, double v, double lambda) {
     case Family::BoxCox:
     case Family::Log:
     case Family::Log10:
-    case Family::Sqrt:
     case Family::Reciprocal: return v > 0.0;
+    case Family::Sqrt: return v >= 0.0;  // sqrt(0) = 0; only log and -1/v need v > 0
     case Family::Power: return lambda > 0.0 || v > 0.0;
     case Family::Logit: return v > 0.0 && v < 1.0;
     default: return true;
