@@ -16,12 +16,20 @@
 #' function of the training data frame that returns such a list. A list may mix all kinds, e.g.
 #' `list("none", "ml", logy = list(y = new_transform("log")))`.
 #'
-#' Held-out scores per fold, in original units: `rmse`, `mae` and `r2` (\eqn{1 - SSE/SST}, SST
-#' about the mean of the held-out responses) for the back-transformed median (`_median`) and
-#' the smearing mean (`_mean`); `coverage` and `width` of the prediction interval at `level`.
-#' A held-out row the fitted transform cannot take (e.g. outside a log's domain) or a
-#' back-transform beyond its range gives a non-finite prediction: it is counted in
-#' `n_nonfinite` and makes that fold's scores `NA`, never silently dropped.
+#' Held-out scores per fold, in original units, each from the held-out rows where it is
+#' defined: `rmse`, `mae` and `r2` (\eqn{1 - SSE/SST}, SST about the mean of the held-out
+#' responses) for the back-transformed median (`_median`) and the smearing mean (`_mean`) need a
+#' finite prediction; `coverage` of the prediction interval at `level` counts an infinite
+#' endpoint (a back-transform whose range is unbounded) as covering on its side; the interval's
+#' width is summarised by its median (`width_median`) and the share of unbounded intervals
+#' (`unbounded`), because one unbounded interval makes a mean width infinite. A held-out row the
+#' fitted transform cannot take (e.g. outside a log's domain) or a back-transform beyond its
+#' range gives a non-finite point prediction: it is counted in `n_nonfinite` and leaves that
+#' fold's point scores unscored (`NA`), never silently dropped.
+#'
+#' Ranking: candidates whose every fold was scored are ranked by `rmse_median`; a candidate
+#' with a failed or unscored fold is marked unranked and printed apart, because its mean over
+#' the remaining folds is not comparable with the others'.
 #'
 #' In-sample extras (each candidate fitted once on all rows): `adj_r2_own_scale`, the adjusted
 #' \eqn{R^2} on each candidate's own transformed scale, NOT comparable across candidates; and
@@ -32,12 +40,20 @@
 #' Folds come from `seed` through the package's own generator, so the same seed gives the same
 #' folds on every platform and R's random-number state is left exactly as it was. With
 #' `seed = NULL` a seed is drawn from R's generator (advancing it) and stored in the result.
+#' With `stratify = TRUE` (the default) the folds are stratified by the model's factors, so
+#' every factor level with at least 2 rows appears in every training part (a level seen in one
+#' fold only would make that fold's predictions fail); with several factors this is achieved for
+#' the one with the rarest level and checked for the others, and `fold_notes` (printed) says
+#' where it could not be achieved. `groups` makes grouped folds instead: all rows of a group
+#' (a site, patient or station) share a fold, so a group is never both learned from and
+#' predicted. Your own fold ids can be given as `folds`.
 #'
 #' Failures are kept, not hidden: a candidate that fails in a fold (for instance a Box-Cox
 #' response with a non-positive value in that training part) is recorded with its message in
-#' `failures` and the other candidates are still scored. A fold whose training part is
-#' rank-deficient (an aliased column) is reported in `failures` for every candidate and not
-#' scored, because predictions from such a fit depend on which column was dropped.
+#' `failures`, rows named as rows of `data` (its row names where it has them), and the other
+#' candidates are still scored. A fold whose training part is rank-deficient (an aliased column)
+#' is reported in `failures` for every candidate and not scored, because predictions from such a
+#' fit depend on which column was dropped.
 #'
 #' Cautions: a transform changes what the model estimates; back-transformed means need a
 #' correction (compare the `_median` and `_mean` scores); and the ranking informs, but does not
@@ -48,22 +64,31 @@
 #'   `getOption("na.action")` (by default they are omitted before the folds are made).
 #' @param candidates a character vector of built-in names, or a list of built-in names and named
 #'   user candidates (see Details).
-#' @param folds the number of folds, at least 2 and at most the number of rows.
-#' @param repeats how many times the k-fold split is repeated with fresh shuffles.
+#' @param folds the number of folds, at least 2 and at most the number of rows; or your own fold
+#'   ids, one per row of `data` (any values: each distinct value is a fold; at least 2 folds).
+#' @param repeats how many times the k-fold split is repeated with fresh shuffles (1 with your
+#'   own fold ids).
 #' @param seed a whole number fixing the folds, or `NULL`.
 #' @param level the level of the prediction intervals (and of the power's interval).
 #' @param progress show a text progress bar (by default in interactive sessions).
 #' @param family the family of estimated response powers: `"box-cox"` or `"yeo-johnson"`.
+#' @param groups `NULL`, the name of a column of `data`, or a vector with one value per row of
+#'   `data`: grouped folds, all rows of a group in one fold.
+#' @param stratify logical: stratify the folds by the model's factors (ignored with `groups` or
+#'   your own fold ids).
 #' @return An object of class `pwb_comparison`: a list with `summary` (one row per candidate:
-#'   mean held-out scores over the scored folds, their standard deviations `rmse_sd` and
-#'   `r2_sd`, `folds_scored`, `folds_failed`, `adj_r2_own_scale`, `aic`, ranked by
+#'   `rank` (`NA` for an unranked candidate), `ranked`, mean held-out scores over the scored
+#'   folds, `width_median` (the median over folds) and `unbounded` (the mean share of unbounded
+#'   intervals), their standard deviations `rmse_sd` and `r2_sd`, `folds_scored`,
+#'   `folds_failed`, `folds_unscored`, `adj_r2_own_scale`, `aic`; ranked candidates first, by
 #'   `rmse_median`), `folds` (one row per candidate, repeat and fold), `lambdas` (the transform
 #'   of every variable learned in each training fold, with its power), `full` (the transforms
 #'   learned from all rows), `failures`, `predictions` (every held-out prediction: candidate,
-#'   repeat, fold, `row` of `data`, `y`, `fit_median`, `fit_mean`, and the interval `lwr`,
-#'   `upr`), `fold_ids` (one row per used row of `data`, one column per repeat), `rows` (the
-#'   rows of `data` used, after `na.action`), `seed`, `level`, `folds_k`, `repeats` and
-#'   `formula`.
+#'   repeat, fold, `row` of `data` and its `row_name`, `y`, `fit_median`, `fit_mean`, and the
+#'   interval `lwr`, `upr`), `fold_ids` (one row per used row of `data`, one column per repeat),
+#'   `fold_notes` (why a factor level misses a training part, if it does), `rows` (the rows of
+#'   `data` used, after `na.action`), `seed`, `level`, `folds_k`, `repeats`, `fold_kind`
+#'   (`"random"`, `"stratified"`, `"grouped"` or `"given"`) and `formula`.
 #' @examples
 #' river <- river_data()
 #' cmp <- compare_transforms(sediment_t_day ~ flow_m3s + rain72_mm + season, river,
@@ -76,23 +101,26 @@
 #' @export
 compare_transforms <- function(formula, data, candidates = c("none", "ladder", "ml"), folds = 5,
                                repeats = 1, seed = NULL, level = 0.95, progress = interactive(),
-                               family = c("box-cox", "yeo-johnson")) {
+                               family = c("box-cox", "yeo-johnson"), groups = NULL,
+                               stratify = TRUE) {
   family <- match.arg(family)
-  pwb_cmp_check_level(level)
-  if (!inherits(formula, "formula") || length(formula) != 3L || !is.symbol(formula[[2L]]))
-    stop("`formula` must be a two-sided formula with a variable name on the left, e.g. y ~ x",
-         call. = FALSE)
-  if (!is.data.frame(data)) stop("`data` must be a data frame", call. = FALSE)
-  whole <- function(v, what, lo) {
-    if (!is.numeric(v) || length(v) != 1L || is.na(v) || v != round(v) || v < lo)
-      stop(sprintf("`%s` must be a whole number >= %d", what, lo), call. = FALSE)
-    as.integer(v)
+  pwb_check_level(level)
+  pwb_check_response_formula(formula)
+  pwb_check_data_frame(data)
+  pwb_check_flag(stratify, "stratify")
+  given <- is.atomic(folds) && length(folds) > 1L
+  if (given) {
+    if (length(folds) != nrow(data))
+      stop(sprintf("`folds` as fold ids needs one id per row of `data` (%d), not %d", nrow(data),
+                   length(folds)), call. = FALSE)
+    if (anyNA(folds)) stop("`folds` as fold ids must have no missing ids", call. = FALSE)
+  } else {
+    folds <- pwb_check_whole(folds, "folds", 2L)
   }
-  folds <- whole(folds, "folds", 2L)
-  repeats <- whole(repeats, "repeats", 1L)
-  if (!is.null(seed) && (!is.numeric(seed) || length(seed) != 1L || is.na(seed) || seed < 0 ||
-                         seed != round(seed) || seed >= 2^53))
-    stop("`seed` must be NULL or a whole number >= 0", call. = FALSE)
+  repeats <- pwb_check_whole(repeats, "repeats", 1L)
+  if (given && repeats > 1L)
+    stop("your own fold ids make one split: use `repeats = 1`", call. = FALSE)
+  pwb_check_seed(seed)
   learners <- pwb_cmp_learners(candidates)
   yname <- as.character(formula[[2L]])
   vars <- all.vars(formula)
@@ -100,15 +128,21 @@ compare_transforms <- function(formula, data, candidates = c("none", "ladder", "
   if (length(miss))
     stop(sprintf("`data` has no variable %s", paste0("`", miss, "`", collapse = ", ")),
          call. = FALSE)
+  group_ids <- pwb_cmp_groups(groups, data)
   mf <- stats::model.frame(stats::reformulate(vars), data)
   rows <- match(rownames(mf), rownames(data))
   dat <- data[rows, vars, drop = FALSE]
   n <- nrow(dat)
-  if (n < folds)
+  if (!given && n < folds)
     stop(sprintf("there are fewer usable rows (%d) than folds (%d): use fewer folds", n, folds),
          call. = FALSE)
-  if (is.null(seed)) seed <- floor(stats::runif(1L) * 2^31)
-  fold_ids <- rpwb_cv_folds(n, folds, repeats, seed)
+  if (is.null(seed) && !given) seed <- floor(stats::runif(1L) * 2^31)
+  split <- pwb_cmp_make_folds(formula, dat, rows, if (given) folds else NULL,
+                              if (is.null(group_ids)) NULL else group_ids[rows],
+                              if (given) NA_integer_ else folds, repeats, seed, stratify)
+  fold_ids <- split$ids
+  folds <- split$k
+  labels <- pwb_row_labels(data)[rows]
 
   steps <- repeats * folds * length(learners)
   bar <- if (isTRUE(progress)) utils::txtProgressBar(min = 0, max = steps, style = 3)
@@ -118,6 +152,8 @@ compare_transforms <- function(formula, data, candidates = c("none", "ladder", "
     for (k in seq_len(folds)) {
       test <- fold_ids[, r] == k
       train <- dat[!test, , drop = FALSE]
+      # positions in the training part: messages naming them are mapped to the user's rows
+      rownames(train) <- NULL
       for (cand in names(learners)) {
         one <- pwb_cmp_one_fold(learners[[cand]], formula, train, dat[test, , drop = FALSE],
                                 yname, family, level)
@@ -127,9 +163,14 @@ compare_transforms <- function(formula, data, candidates = c("none", "ladder", "
           lambda_rows[[length(lambda_rows) + 1L]] <- cbind(tag[rep(1L, nrow(one$lambdas)), ],
                                                            one$lambdas)
           pred_rows[[length(pred_rows) + 1L]] <- cbind(tag[rep(1L, sum(test)), ],
-                                                       row = rows[test], one$predictions)
+                                                       row = rows[test],
+                                                       row_name = labels[test],
+                                                       one$predictions,
+                                                       stringsAsFactors = FALSE)
         } else {
-          fail_rows[[length(fail_rows) + 1L]] <- cbind(tag, message = one$error)
+          msg <- pwb_cmp_name_rows(one$error, labels[!test])
+          fail_rows[[length(fail_rows) + 1L]] <- cbind(tag, message = msg,
+                                                       stringsAsFactors = FALSE)
         }
         step <- step + 1L
         if (!is.null(bar)) utils::setTxtProgressBar(bar, step)
@@ -138,7 +179,10 @@ compare_transforms <- function(formula, data, candidates = c("none", "ladder", "
   }
   if (!is.null(bar)) close(bar)
   out <- pwb_cmp_assemble(learners, formula, dat, yname, family, level, fold_rows, lambda_rows,
-                          fail_rows, fold_ids, rows, seed, folds, repeats)
+                          fail_rows, fold_ids, rows, if (given) NA_real_ else seed, folds,
+                          repeats)
+  out$fold_kind <- split$kind
+  out$fold_notes <- split$notes
   out$predictions <- if (length(pred_rows)) do.call(rbind, pred_rows)
   if (!is.null(out$predictions)) rownames(out$predictions) <- NULL
   out

@@ -91,16 +91,20 @@ pwb_cmp_one_fold <- function(learner, formula, train, test, yname, family, level
   s_med <- rpwb_holdout_score(y, as.double(pm$med$fit), as.double(pm$med$lwr),
                               as.double(pm$med$upr))
   s_mean <- rpwb_holdout_score(y, as.double(pm$mean$fit), NULL, NULL)
-  na_if <- function(v, bad) if (bad) NA_real_ else v
-  bad_med <- s_med[["n_nonfinite"]] > 0
-  bad_mean <- s_mean[["n_nonfinite"]] > 0
+  # a fold's statistic is scored only when it is defined on every held-out row: a mean over the
+  # rows that happen to have a prediction would flatter the candidate
+  all_rows <- function(s, what) if (s[[what]] == length(y)) 1 else NA_real_
+  pt_med <- all_rows(s_med, "n_point")
+  pt_mean <- all_rows(s_mean, "n_point")
+  iv <- all_rows(s_med, "n_interval")
   scores <- data.frame(
     n_test = length(y),
-    rmse_median = na_if(s_med[["rmse"]], bad_med), mae_median = na_if(s_med[["mae"]], bad_med),
-    r2_median = na_if(s_med[["r2"]], bad_med),
-    rmse_mean = na_if(s_mean[["rmse"]], bad_mean), mae_mean = na_if(s_mean[["mae"]], bad_mean),
-    r2_mean = na_if(s_mean[["r2"]], bad_mean),
-    coverage = na_if(s_med[["coverage"]], bad_med), width = na_if(s_med[["width"]], bad_med),
+    rmse_median = pt_med * s_med[["rmse"]], mae_median = pt_med * s_med[["mae"]],
+    r2_median = pt_med * s_med[["r2"]],
+    rmse_mean = pt_mean * s_mean[["rmse"]], mae_mean = pt_mean * s_mean[["mae"]],
+    r2_mean = pt_mean * s_mean[["r2"]],
+    coverage = iv * s_med[["coverage"]], width_median = iv * s_med[["width_median"]],
+    unbounded = iv * s_med[["unbounded"]],
     n_nonfinite = as.integer(max(s_med[["n_nonfinite"]], s_mean[["n_nonfinite"]])))
   preds <- data.frame(y = y, fit_median = pm$med$fit, fit_mean = pm$mean$fit, lwr = pm$med$lwr,
                       upr = pm$med$upr, row.names = NULL)
@@ -120,5 +124,5 @@ pwb_cmp_lambdas <- function(model, yname) {
              row.names = NULL)
 }
 
-# The transform's one-line text with the variable's name in place of the generic x.
-pwb_cmp_describe <- function(tr, v) gsub("\\bx\\b", v, format(tr), perl = TRUE)
+# The transform's one-line text naming the variable ("log of Volume").
+pwb_cmp_describe <- function(tr, v) pwb_transform_label(tr, v)

@@ -40,7 +40,5 @@ pwb_cmp_design <- function(fr, caller) {
   mm[, colnames(mm) != "(Intercept)", drop = FALSE]
 }
 
-pwb_cmp_check_level <- function(level) {
-  if (!is.numeric(level) || length(level) != 1L || is.na(level) || level <= 0 || level >= 1)
-    stop("`level` must be a single number strictly between 0 and 1", call. = FALSE)
-}
+# The level check of box_tidwell() and lambda_influence(): the shared one (see validate.R).
+pwb_cmp_check_level <- function(level) pwb_check_level(level)

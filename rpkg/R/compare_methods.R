@@ -2,8 +2,8 @@
 
 pwb_cmp_assemble <- function(learners, formula, dat, yname, family, level, fold_rows,
                              lambda_rows, fail_rows, fold_ids, rows, seed, folds, repeats) {
-  score_cols <- c("rmse_median", "mae_median", "r2_median", "rmse_mean", "mae_mean", "r2_mean",
-                  "coverage", "width")
+  mean_cols <- c("rmse_median", "mae_median", "r2_median", "rmse_mean", "mae_mean", "r2_mean",
+                 "coverage", "unbounded")
   fold_tab <- if (length(fold_rows)) do.call(rbind, fold_rows) else NULL
   lam_tab <- if (length(lambda_rows)) do.call(rbind, lambda_rows) else NULL
   fail_tab <- if (length(fail_rows)) do.call(rbind, fail_rows)
@@ -15,9 +15,16 @@ pwb_cmp_assemble <- function(learners, formula, dat, yname, family, level, fold_
   full <- list()
   summ <- lapply(names(learners), function(cand) {
     f <- if (is.null(fold_tab)) NULL else fold_tab[fold_tab$candidate == cand, , drop = FALSE]
-    means <- vapply(score_cols, function(s) if (is.null(f) || nrow(f) == 0L) NA_real_
-                                            else mean(f[[s]]), numeric(1))
-    sdv <- function(s) if (is.null(f) || nrow(f) < 2L) NA_real_ else stats::sd(f[[s]])
+    if (!is.null(f)) f <- f[!is.na(f$rmse_median), , drop = FALSE]
+    scored <- if (is.null(f)) 0L else nrow(f)
+    # each statistic over the scored folds where it is defined
+    stat <- function(s, fun) {
+      v <- if (scored) f[[s]] else numeric(0)
+      v <- v[!is.na(v)]
+      if (length(v)) fun(v) else NA_real_
+    }
+    means <- vapply(mean_cols, stat, numeric(1), fun = mean)
+    sdv <- function(s) if (scored < 2L) NA_real_ else stats::sd(f[[s]])
     model <- tryCatch(learners[[cand]](dat, formula, yname, family, level),
                       error = function(e) conditionMessage(e))
     if (is.character(model)) {
@@ -28,14 +35,18 @@ pwb_cmp_assemble <- function(learners, formula, dat, yname, family, level, fold_
       adj <- summary(model$lm)$adj.r.squared
       aic <- stats::AIC(model)
     }
-    data.frame(candidate = cand, t(means), rmse_sd = sdv("rmse_median"),
-               r2_sd = sdv("r2_median"),
-               folds_scored = if (is.null(f)) 0L else nrow(f),
-               folds_failed = sum(fail_tab$candidate == cand),
-               adj_r2_own_scale = adj, aic = aic, stringsAsFactors = FALSE)
+    n_fit <- if (is.null(fold_tab)) 0L else sum(fold_tab$candidate == cand)
+    data.frame(candidate = cand, t(means), width_median = stat("width_median", stats::median),
+               rmse_sd = sdv("rmse_median"), r2_sd = sdv("r2_median"),
+               folds_scored = scored, folds_failed = sum(fail_tab$candidate == cand),
+               folds_unscored = n_fit - scored, adj_r2_own_scale = adj, aic = aic,
+               stringsAsFactors = FALSE)
   })
   summ <- do.call(rbind, summ)
-  summ <- summ[order(summ$rmse_median, na.last = TRUE), , drop = FALSE]
+  summ$ranked <- summ$folds_failed == 0L & summ$folds_unscored == 0L & summ$folds_scored > 0L
+  summ <- summ[order(!summ$ranked, summ$rmse_median, na.last = TRUE), , drop = FALSE]
+  summ$rank <- ifelse(summ$ranked, cumsum(summ$ranked), NA_integer_)
+  summ <- summ[c("rank", "ranked", setdiff(names(summ), c("rank", "ranked")))]
   rownames(summ) <- NULL
   structure(list(summary = summ, folds = fold_tab, lambdas = lam_tab, full = full,
                  failures = fail_tab, fold_ids = fold_ids, rows = rows, seed = seed,
@@ -44,47 +55,91 @@ pwb_cmp_assemble <- function(learners, formula, dat, yname, family, level, fold_
             class = "pwb_comparison")
 }
 
+#' Print and plot a comparison of transforms
+#'
+#' `print()` shows the ranked candidates (those with every fold scored, by held-out RMSE of the
+#' median back-transform), then the unranked ones apart, then notes on unscored folds, failures
+#' and factor levels missing from a training part. Tables wider than `getOption("width")` are
+#' split into blocks that each repeat the candidate column. `plot()` draws one held-out score
+#' per fold for each candidate (open circles) and its mean over the scored folds (filled).
+#'
+#' @param x a `pwb_comparison` from [compare_transforms()].
+#' @param digits significant digits of the scores.
+#' @param score the held-out score to plot.
+#' @param ... unused by `print()`; further graphical arguments for `plot()`.
+#' @return `x`, invisibly.
+#' @examples
+#' cmp <- compare_transforms(mpg ~ wt + hp, mtcars, candidates = c("none", "ml"), folds = 4,
+#'                           seed = 3, progress = FALSE)
+#' print(cmp)
+#' f <- file.path(tempdir(), "comparison.png")
+#' grDevices::png(f)
+#' plot(cmp, "coverage")
+#' grDevices::dev.off()
+#' unlink(f)
 #' @export
 print.pwb_comparison <- function(x, digits = 4, ...) {
-  cat(sprintf("<pwb_comparison> %s: %d-fold cross-validation x %d, seed %s, n = %d\n",
-              deparse1(x$formula), x$folds_k, x$repeats, format(x$seed, scientific = FALSE),
-              length(x$rows)))
+  kind <- if (is.null(x$fold_kind)) "random" else x$fold_kind
+  seed <- if (is.na(x$seed)) "" else sprintf(", seed %s", format(x$seed, scientific = FALSE))
+  pwb_cat_wrap(sprintf("<pwb_comparison> %s: %d-fold cross-validation (%s folds) x %d%s, n = %d",
+                       deparse1(x$formula), x$folds_k, kind, x$repeats, seed, length(x$rows)))
   s <- x$summary
-  tab <- data.frame(rank = seq_len(nrow(s)), candidate = s$candidate,
-                    rmse = s$rmse_median, mae = s$mae_median, r2 = s$r2_median,
-                    rmse_mean = s$rmse_mean, coverage = s$coverage, width = s$width,
-                    aic = s$aic, adj_r2_own = s$adj_r2_own_scale,
-                    folds = sprintf("%d/%d", s$folds_scored, s$folds_scored + s$folds_failed))
-  num <- vapply(tab, is.double, logical(1))
-  tab[num] <- lapply(tab[num], signif, digits = digits)
-  print(tab, row.names = FALSE, ...)
-  cat(sprintf(paste0("Held-out scores in original units (median back-transform; rmse_mean uses the ",
-                     "smearing mean), %g%% prediction intervals. aic is comparable across ",
-                     "candidates; adj_r2_own is on each candidate's own scale and is NOT.\n"),
-              100 * x$level))
-  nonfinite <- tapply(x$folds$n_nonfinite, x$folds$candidate, sum)
-  nonfinite <- nonfinite[nonfinite > 0]
-  if (length(nonfinite)) {
-    cat(sprintf(paste0("%s: %d held-out %s left the transform's range (non-finite back-transform), ",
-                       "so the folds holding them score NA; see $predictions.\n"),
-                names(nonfinite), as.integer(nonfinite),
-                ifelse(nonfinite == 1, "prediction", "predictions")), sep = "")
+  g <- function(v) pwb_format_num(v, digits)
+  tab <- data.frame(rank = ifelse(is.na(s$rank), "-", as.character(s$rank)),
+                    candidate = s$candidate, rmse = g(s$rmse_median), mae = g(s$mae_median),
+                    r2 = g(s$r2_median), rmse_mean = g(s$rmse_mean), coverage = g(s$coverage),
+                    width_median = g(s$width_median), unbounded = g(s$unbounded),
+                    aic = g(s$aic), adj_r2_own = g(s$adj_r2_own_scale),
+                    folds = sprintf("%d/%d", s$folds_scored,
+                                    s$folds_scored + s$folds_failed + s$folds_unscored),
+                    stringsAsFactors = FALSE)
+  num <- setdiff(names(tab), "candidate")
+  if (any(s$ranked))
+    pwb_print_table(tab[s$ranked, , drop = FALSE], key = c("rank", "candidate"), right = num)
+  if (any(!s$ranked)) {
+    cat("Unranked (a fold failed or could not be scored, so its mean is not comparable):\n")
+    pwb_print_table(tab[!s$ranked, names(tab) != "rank", drop = FALSE], key = "candidate",
+                    right = num)
+  }
+  pwb_cat_wrap(sprintf(paste0("Held-out scores in original units (median back-transform; ",
+                              "rmse_mean uses the smearing mean), %g%% prediction intervals ",
+                              "(width_median: median width; unbounded: share of intervals ",
+                              "with an infinite end, which still cover). aic is comparable ",
+                              "across candidates; adj_r2_own is on each candidate's own scale ",
+                              "and is NOT."), 100 * x$level))
+  if (!is.null(x$folds) && nrow(x$folds)) {
+    nonfinite <- tapply(x$folds$n_nonfinite, x$folds$candidate, sum)
+    nonfinite <- nonfinite[nonfinite > 0]
+    for (nm in names(nonfinite))
+      pwb_cat_wrap(sprintf(paste0("%s: %d held-out %s no finite prediction (outside the ",
+                                  "transform's domain or range), so the folds holding them ",
+                                  "are unscored; see $predictions."), nm,
+                           as.integer(nonfinite[[nm]]),
+                           if (nonfinite[[nm]] == 1) "row has" else "rows have"))
   }
   if (nrow(x$failures)) {
     cat(sprintf("%d candidate-fold %s failed:\n", nrow(x$failures),
                 pwb_plural(nrow(x$failures), "fit")))
     f <- utils::head(x$failures, 5L)
-    cat(sprintf("  %s, repeat %d, fold %d: %s\n", f$candidate, f$repeat_no, f$fold, f$message),
-        sep = "")
+    pwb_cat_wrap(sprintf("%s, repeat %d, fold %d: %s", f$candidate, f$repeat_no, f$fold,
+                         f$message), indent = 2L, exdent = 4L)
     if (nrow(x$failures) > 5L) cat("  ... see $failures\n")
   }
-  cat("Transforms change what a model estimates; let the ranking inform, not replace, judgement.\n")
+  if (length(x$fold_notes)) {
+    cat("Folds:\n")
+    pwb_cat_wrap(utils::head(x$fold_notes, 5L), indent = 2L, exdent = 4L)
+    if (length(x$fold_notes) > 5L) cat("  ... see $fold_notes\n")
+  }
+  pwb_cat_wrap("Transforms change what a model estimates; let the ranking inform, not replace, ",
+               "judgement.")
   invisible(x)
 }
 
+#' @rdname print.pwb_comparison
 #' @export
 plot.pwb_comparison <- function(x, score = c("rmse_median", "mae_median", "r2_median",
-                                             "rmse_mean", "coverage", "width"), ...) {
+                                             "rmse_mean", "coverage", "width_median",
+                                             "unbounded"), ...) {
   score <- match.arg(score)
   if (is.null(x$folds) || nrow(x$folds) == 0L) stop("no fold was scored", call. = FALSE)
   cands <- x$summary$candidate
@@ -96,10 +151,10 @@ plot.pwb_comparison <- function(x, score = c("rmse_median", "mae_median", "r2_me
                  main = sprintf("held-out %s per fold (original units)", score), ...)
   graphics::axis(1, at = seq_along(cands), labels = cands)
   by_cand <- factor(f$candidate, levels = cands)
-  m <- tapply(f[[score]], by_cand, mean)
+  m <- tapply(f[[score]], by_cand, function(v) mean(v[is.finite(v)]))
   graphics::points(seq_along(cands), m, pch = 19, cex = 1.5, col = "red")
   # Folds without a score (see print()) are said, not left as an unexplained gap.
-  n_na <- tapply(is.na(f[[score]]), by_cand, sum)
+  n_na <- tapply(!is.finite(f[[score]]), by_cand, sum)
   n_all <- tapply(f[[score]], by_cand, length)
   for (i in which(!is.na(n_na) & n_na > 0)) {
     if (n_na[i] == n_all[i]) {

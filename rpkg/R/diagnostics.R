@@ -91,23 +91,3 @@ pwb_checks_from <- function(r) {
 }
 
 pwb_fmt_df <- function(df) if (anyNA(df)) NA_character_ else paste(format(df), collapse = ", ")
-
-#' @export
-print.pwb_checks <- function(x, digits = 4L, ...) {
-  cat(sprintf("<pwb_checks> residual checks, n = %d\n", as.integer(x$n)))
-  tab <- x$table
-  tab$statistic <- signif(tab$statistic, digits)
-  tab$p_value <- signif(tab$p_value, digits)
-  print(tab, row.names = FALSE)
-  if (!isTRUE(x$shapiro_wilk$computed) && nzchar(x$shapiro_wilk$note))
-    cat("Shapiro-Wilk: ", x$shapiro_wilk$note, "\n", sep = "")
-  if (!is.null(x$comparison)) {
-    cat("\nBefore (untransformed) and after (transformed):\n")
-    cmp <- x$comparison
-    num <- vapply(cmp, is.numeric, logical(1))
-    cmp[num] <- lapply(cmp[num], signif, digits = digits)
-    print(cmp, row.names = FALSE)
-  }
-  cat("Small p-values are evidence against an assumption; they inform, not replace, judgement.\n")
-  invisible(x)
-}

@@ -2,17 +2,41 @@
 
 pwb_lambda_family_label <- function(family) if (family == "box-cox") "Box-Cox" else "Yeo-Johnson"
 
+#' Print, extract and recompute an estimated lambda
+#'
+#' `print()` shows the estimate, its profile-likelihood interval and the convenient value, with
+#' notes on edges and convergence (wrapped to `getOption("width")`). `coef()` gives
+#' \eqn{\hat\lambda}. `confint()` gives the profile-likelihood interval at `level`: the stored
+#' one at the level of the estimate; at another level it is recomputed from the profile kept in
+#' the object (the set of \eqn{\lambda} whose profile log-likelihood lies within
+#' \eqn{\chi^2_1(level)/2} of the maximum), by a cubic spline through the stored profile points.
+#' A side whose cut lies beyond the stored profile is open: its end is `NA`, with a warning.
+#'
+#' @param x,object a `pwb_lambda` from [estimate_lambda()] or [estimate_response_lambda()].
+#' @param digits significant digits.
+#' @param parm unused (there is one parameter, `lambda`).
+#' @param level the confidence level.
+#' @param ... unused.
+#' @return `print()`: `x`, invisibly; `coef()`: a named number; `confint()`: a one-row matrix
+#'   with the interval's ends.
+#' @examples
+#' fit <- estimate_lambda(trees$Volume)
+#' fit
+#' coef(fit)
+#' confint(fit)
+#' confint(fit, level = 0.9)
 #' @export
 print.pwb_lambda <- function(x, digits = 3, ...) {
   what <- if (is.null(x$predictors)) sprintf("`%s`", x$variable)
           else sprintf("`%s` given %s", x$variable, x$predictors)
-  cat(sprintf("<pwb_lambda> %s lambda for %s (n = %d)\n", pwb_lambda_family_label(x$family),
-              what, x$n))
-  f <- function(v) formatC(v, digits = digits, format = "fg", flag = "#")
-  cat(sprintf("  estimate %s   %g%% interval [%s, %s]   convenient %s\n", f(x$lambda),
-              100 * x$level, f(x$conf_int[1L]), f(x$conf_int[2L]), format(x$convenient)))
-  cat(sprintf("  log-likelihood at the estimate (original scale): %s\n",
-              format(x$loglik, digits = 6)))
+  pwb_cat_wrap(sprintf("<pwb_lambda> %s lambda for %s (n = %d)",
+                       pwb_lambda_family_label(x$family), what, x$n))
+  f <- function(v) pwb_format_num(v, digits)
+  pwb_cat_wrap(sprintf("estimate %s   %g%% interval [%s, %s]   convenient %s", f(x$lambda),
+                       100 * x$level, f(x$conf_int[1L]), f(x$conf_int[2L]),
+                       format(x$convenient)), indent = 2L, exdent = 4L)
+  pwb_cat_wrap(sprintf("log-likelihood at the estimate (original scale): %s",
+                       format(x$loglik, digits = 6)), indent = 2L, exdent = 4L)
   notes <- character(0)
   if (x$at_bound)
     notes <- c(notes, sprintf("the estimate sits at the edge of the search range [%g, %g]",
@@ -26,22 +50,51 @@ print.pwb_lambda <- function(x, digits = 3, ...) {
   if (!is.null(x$na_action))
     notes <- c(notes, sprintf("%d %s with missing values omitted", length(x$na_action),
                               pwb_plural(length(x$na_action), "row")))
-  for (nt in notes) cat("  note:", nt, "\n")
-  cat("  A transform changes what a model estimates; back-transformed means need a correction.\n")
+  for (nt in notes) pwb_cat_wrap("note: ", nt, indent = 2L, exdent = 4L)
+  pwb_cat_wrap("A transform changes what a model estimates; back-transformed means need a ",
+               "correction.", indent = 2L, exdent = 2L)
   invisible(x)
 }
 
+#' @rdname print.pwb_lambda
 #' @export
 coef.pwb_lambda <- function(object, ...) c(lambda = object$lambda)
 
+#' @rdname print.pwb_lambda
 #' @export
 confint.pwb_lambda <- function(object, parm, level = object$level, ...) {
-  if (!isTRUE(all.equal(level, object$level)))
-    stop(sprintf(paste0("this interval was computed at level %g; estimate again with ",
-                        "`level = %g` for another level"), object$level, level), call. = FALSE)
-  a <- (1 - object$level) / 2
+  pwb_check_level(level)
+  ci <- if (isTRUE(all.equal(level, object$level))) object$conf_int
+        else pwb_lambda_profile_interval(object, level)
+  a <- (1 - level) / 2
   pct <- paste(format(100 * c(a, 1 - a), trim = TRUE, scientific = FALSE, digits = 3), "%")
-  matrix(object$conf_int, nrow = 1L, dimnames = list("lambda", pct))
+  matrix(ci, nrow = 1L, dimnames = list("lambda", pct))
+}
+
+# The interval at `level` from the stored profile: where a cubic spline through the profile
+# points crosses the cut, on each side of the estimate.
+pwb_lambda_profile_interval <- function(object, level) {
+  pr <- object$profile
+  ok <- is.finite(pr$lambda) & is.finite(pr$loglik)
+  pr <- pr[ok, , drop = FALSE]
+  pr <- pr[order(pr$lambda), , drop = FALSE]
+  if (nrow(pr) < 4L)
+    stop("the stored profile has too few points to recompute the interval: estimate again ",
+         sprintf("with `level = %g`", level), call. = FALSE)
+  cut <- object$loglik - stats::qchisq(level, 1) / 2
+  sp <- stats::splinefun(pr$lambda, pr$loglik, method = "fmm")
+  g <- function(l) sp(l) - cut
+  side <- function(lo, hi, which) {
+    if (!(lo < hi) || g(lo) * g(hi) > 0) {
+      warning(sprintf(paste0("the %s end of the %g%% interval lies beyond the stored profile ",
+                             "(%g to %g): it is NA; estimate again with a wider `range`"),
+                      which, 100 * level, min(pr$lambda), max(pr$lambda)), call. = FALSE)
+      return(NA_real_)
+    }
+    stats::uniroot(g, c(lo, hi), tol = 1e-10)$root
+  }
+  est <- min(max(object$lambda, min(pr$lambda)), max(pr$lambda))
+  c(side(min(pr$lambda), est, "lower"), side(est, max(pr$lambda), "upper"))
 }
 
 #' Plot the profile log-likelihood of lambda

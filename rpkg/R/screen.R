@@ -58,14 +58,15 @@
 #' @export
 screen_skew <- function(data, vars = NULL, level = 0.95) {
   if (is.numeric(data) && is.null(dim(data))) {
+    # a vector is labelled by the expression that gave it, as estimate_lambda() does
     nm <- deparse1(substitute(data))
-    data <- stats::setNames(data.frame(data), if (make.names(nm) == nm) nm else "x")
+    data <- data.frame(data)
+    names(data) <- nm
   }
   if (is.matrix(data)) data <- as.data.frame(data)
   if (!is.data.frame(data))
     stop("`data` must be a data frame, a matrix or a numeric vector", call. = FALSE)
-  if (!is.numeric(level) || length(level) != 1L || is.na(level) || level <= 0 || level >= 1)
-    stop("`level` must be a single number strictly between 0 and 1, e.g. 0.95", call. = FALSE)
+  pwb_check_level(level)
   if (is.null(vars)) {
     vars <- names(data)
   } else {

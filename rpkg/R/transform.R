@@ -61,7 +61,8 @@ new_transform <- function(family, lambda = NULL, shift = 0, reflect = FALSE, piv
 #' @param tr a `pwb_transform` from [new_transform()].
 #' @param x,z numeric vectors of original or transformed values.
 #' @param invalid `"error"` (default) or `"na"`: what to do with values that cannot be mapped.
-#' @return A numeric vector as long as the input.
+#' @return A numeric vector as long as the input, with its names; a matrix input keeps its
+#'   dimensions and dimnames.
 #' @examples
 #' tr <- new_transform("log10")
 #' apply_transform(tr, c(1, 10, 1000))
@@ -91,7 +92,13 @@ pwb_map_values <- function(tr, x, xname, invalid, inverse) {
   out <- rep(NA_real_, length(x))
   res <- rpwb_transform_map(tr, as.double(x[keep]), if (inverse) 1L else 0L)
   out[keep] <- res$value
-  names(out) <- names(x)
+  # the result has the shape of the input: names, or a matrix's dim and dimnames
+  if (!is.null(dim(x))) {
+    dim(out) <- dim(x)
+    dimnames(out) <- dimnames(x)
+  } else {
+    names(out) <- names(x)
+  }
   if (res$status == 0L) return(out)
   bad <- which(keep)[is.na(res$value)]
   if (invalid == "na") {
@@ -116,11 +123,39 @@ pwb_invalid_message <- function(tr, x, bad, xname, inverse) {
           sum(!is.na(x)), xname, pwb_plural(length(bad), "row"), pwb_format_rows(bad), remedy)
 }
 
+#' Describe and print a transform
+#'
+#' `format()` gives a one-line description of a transform that names the variable it maps, e.g.
+#' `"log of Volume"` or `"sqrt of (101 - forest_pct)"`; a Box-Cox power of 0 is the natural log
+#' and is written as such.
+#'
+#' @param x a `pwb_transform` from [new_transform()].
+#' @param name the variable's name (or expression) to write in the description.
+#' @param ... unused.
+#' @return `format()`: a character string; `print()`: `x`, invisibly.
+#' @examples
+#' format(new_transform("box-cox", lambda = 0), name = "Volume")
+#' new_transform("sqrt", shift = 1)
 #' @export
-format.pwb_transform <- function(x, ...) rpwb_transform_describe(x, 3L)
+format.pwb_transform <- function(x, name = "x", ...) pwb_transform_label(x, name)
 
+#' @rdname format.pwb_transform
 #' @export
 print.pwb_transform <- function(x, ...) {
-  cat("<pwb_transform> ", format(x), "\n", sep = "")
+  pwb_cat_wrap("<pwb_transform> ", format(x))
   invisible(x)
+}
+
+# "log of Volume", "yeo-johnson(lambda = 0.3) of (rain - 2)": the library's description with
+# the variable's name in place of its generic x.
+pwb_transform_label <- function(tr, name = "x") {
+  txt <- rpwb_transform_describe(tr, 3L)
+  cut <- regexpr(" of ", txt, fixed = TRUE)
+  if (cut < 0L) return(txt)
+  head <- substr(txt, 1L, cut - 1L)
+  arg <- substr(txt, cut + 4L, nchar(txt))
+  if (identical(tr$family, "box-cox") && isTRUE(tr$lambda == 0)) head <- "log"
+  arg <- gsub("(?<![[:alnum:]_.])x(?![[:alnum:]_.])", name, arg, perl = TRUE)
+  if (identical(head, "identity")) return(paste("untransformed", arg))
+  paste(head, "of", arg)
 }

@@ -53,14 +53,31 @@ Rcpp::List rpwb_lambda_influence(Rcpp::NumericVector y, Rcpp::NumericMatrix X, s
       Rcpp::Named("leverage") = h, Rcpp::Named("outside") = out, Rcpp::Named("loo_at_bound") = bound);
 }
 
-// Fold ids as an n-by-repeats integer matrix. The seed comes from R as a double holding an
-// integer in [0, 2^53).
+// Fold ids as an n-by-repeats integer matrix, stratified (strata: n codes >= 0) or grouped
+// (groups: n codes >= 0); both NULL gives the plain folds of rpwb_cv_folds.
 // [[Rcpp::export]]
-Rcpp::IntegerMatrix rpwb_cv_folds(int n, int folds, int repeats, double seed) {
+Rcpp::IntegerMatrix rpwb_cv_folds_by(int n, int folds, int repeats, double seed,
+                                     Rcpp::Nullable<Rcpp::IntegerVector> strata,
+                                     Rcpp::Nullable<Rcpp::IntegerVector> groups) {
   if (n < 0 || repeats < 1) Rcpp::stop("n must be >= 0 and repeats >= 1");
+  Rcpp::IntegerVector st, gr;
+  pwb_cv_fold_options opt;
+  pwb_cv_fold_options_init(&opt);
+  opt.folds = folds;
+  opt.repeats = repeats;
+  opt.seed = static_cast<unsigned long long>(seed);
+  if (strata.isNotNull()) {
+    st = Rcpp::IntegerVector(strata.get());
+    if (st.size() != n) Rcpp::stop("strata and rows differ in length");
+    opt.strata = st.begin();
+  }
+  if (groups.isNotNull()) {
+    gr = Rcpp::IntegerVector(groups.get());
+    if (gr.size() != n) Rcpp::stop("groups and rows differ in length");
+    opt.groups = gr.begin();
+  }
   Rcpp::IntegerMatrix f(n, repeats);
-  rpwb::check(pwb_cv_folds(static_cast<std::size_t>(n), folds, repeats,
-                           static_cast<unsigned long long>(seed), f.begin()));
+  rpwb::check(pwb_cv_folds_by(static_cast<std::size_t>(n), &opt, f.begin()));
   return f;
 }
 
@@ -85,9 +102,14 @@ Rcpp::NumericVector rpwb_holdout_score(Rcpp::NumericVector y, Rcpp::NumericVecto
   rpwb::check(pwb_holdout_score(y.begin(), fv.data(), interval ? lo.begin() : nullptr,
                                 interval ? hi.begin() : nullptr, n, &s));
   return Rcpp::NumericVector::create(
-      Rcpp::Named("rmse") = s.rmse, Rcpp::Named("mae") = s.mae, Rcpp::Named("r2") = s.r2,
+      Rcpp::Named("rmse") = rpwb::nan_to_na(s.rmse), Rcpp::Named("mae") = rpwb::nan_to_na(s.mae),
+      Rcpp::Named("r2") = rpwb::nan_to_na(s.r2),
       Rcpp::Named("coverage") = rpwb::nan_to_na(s.coverage),
       Rcpp::Named("width") = rpwb::nan_to_na(s.mean_width),
       Rcpp::Named("n") = static_cast<double>(s.n),
-      Rcpp::Named("n_nonfinite") = static_cast<double>(s.n_nonfinite));
+      Rcpp::Named("n_nonfinite") = static_cast<double>(s.n_nonfinite),
+      Rcpp::Named("n_point") = static_cast<double>(s.n_point),
+      Rcpp::Named("n_interval") = static_cast<double>(s.n_interval),
+      Rcpp::Named("width_median") = rpwb::nan_to_na(s.median_width),
+      Rcpp::Named("unbounded") = rpwb::nan_to_na(s.share_unbounded));
 }

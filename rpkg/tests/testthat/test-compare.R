@@ -26,7 +26,8 @@ test_that("held-out scores equal a base-R computation on the same folds", {
     expect_equal(c(row$rmse_median, row$mae_median, row$r2_median), score(pi[, "fit"]),
                  tolerance = 1e-10)
     expect_equal(row$coverage, mean(te$y >= pi[, "lwr"] & te$y <= pi[, "upr"]))
-    expect_equal(row$width, mean(pi[, "upr"] - pi[, "lwr"]), tolerance = 1e-10)
+    expect_equal(row$width_median, median(pi[, "upr"] - pi[, "lwr"]), tolerance = 1e-10)
+    expect_equal(row$unbounded, 0)
     # "logy": exp of the log-scale fit is the median; Duan's smearing mean is
     # exp(fit) * mean(exp(residuals)) (Duan 1983, eq. for the log case)
     lfit <- lm(log(y) ~ x + z, tr)
@@ -140,4 +141,50 @@ test_that("held-out predictions are kept and aligned to the rows of the data", {
   one <- p[p$repeat_no == 2 & p$row == 10, ]
   tr <- d[-5, ][cmp$fold_ids[, 2] != one$fold, ]
   expect_equal(one$fit_median, unname(predict(lm(y ~ x, tr), d[10, ])), tolerance = 1e-10)
+})
+
+test_that("an infinite interval end still covers and the candidate is ranked on its scores", {
+  # boot::poisons (boot package): the ML power of survival time is near -0.8, where the
+  # back-transformed upper end of a prediction interval can be unbounded
+  cmp <- compare_transforms(time ~ poison * treat, boot::poisons, seed = 1, progress = FALSE)
+  p <- cmp$predictions
+  ml <- p[p$candidate == "ml", ]
+  expect_true(any(is.infinite(ml$upr)))  # the case under test occurs with this seed
+  expect_true(all(is.finite(ml$fit_median)))
+  f <- cmp$folds[cmp$folds$candidate == "ml", ]
+  expect_false(anyNA(f$rmse_median))
+  expect_false(anyNA(f$coverage))
+  # coverage by hand from the kept predictions (an infinite end covers its side)
+  for (k in f$fold) {
+    q <- ml[ml$fold == k, ]
+    expect_equal(f$coverage[f$fold == k], mean(q$lwr <= q$y & q$y <= q$upr))
+    expect_equal(f$unbounded[f$fold == k], mean(is.infinite(q$upr)))
+    expect_equal(f$width_median[f$fold == k], median(q$upr - q$lwr))
+  }
+  s <- cmp$summary
+  expect_true(all(s$ranked))
+  expect_false(is.na(s$rank[s$candidate == "ml"]))
+  expect_equal(s$rmse_median[s$candidate == "ml"], mean(f$rmse_median))
+  expect_equal(s$rank, seq_len(3))
+  expect_equal(s$candidate[order(s$rmse_median)], s$candidate)
+})
+
+test_that("a candidate with an unscored or failed fold is unranked and printed apart", {
+  set.seed(6)
+  d <- data.frame(x = runif(30, 1, 5))
+  d$y <- exp(1 + 0.3 * d$x + rnorm(30, sd = 0.2))
+  d$y[8] <- -0.5
+  bc <- function(train)
+    list(y = new_transform("box-cox", lambda = estimate_response_lambda(y ~ x, train)$lambda))
+  cmp <- compare_transforms(y ~ x, d, candidates = list("none", bc = bc), folds = 3, seed = 2,
+                            progress = FALSE)
+  s <- cmp$summary
+  expect_equal(s$candidate, c("none", "bc"))
+  expect_equal(s$rank, c(1L, NA))
+  expect_equal(s$ranked, c(TRUE, FALSE))
+  out <- capture.output(print(cmp))
+  unranked <- grep("^Unranked", out)
+  expect_length(unranked, 1L)
+  expect_true(any(grepl("^bc ", out[-seq_len(unranked)])))
+  expect_false(any(grepl("^ *[0-9]+ bc ", out)))
 })
