@@ -97,7 +97,8 @@ print.pwb_comparison <- function(x, digits = 4, ...) {
   if (any(s$ranked))
     pwb_print_table(tab[s$ranked, , drop = FALSE], key = c("rank", "candidate"), right = num)
   if (any(!s$ranked)) {
-    cat("Unranked (a fold failed or could not be scored, so its mean is not comparable):\n")
+    pwb_cat_wrap("Unranked (a fold failed or could not be scored, so its mean is not ",
+                 "comparable):")
     pwb_print_table(tab[!s$ranked, names(tab) != "rank", drop = FALSE], key = "candidate",
                     right = num)
   }

@@ -73,6 +73,7 @@ pwb_panel_resid_fitted <- function(f, r, main, ...) {
 }
 
 pwb_panel_qq <- function(r, main, ...) {
+  r <- r[!is.na(r)]  # rows padded by na.exclude have no residual
   q <- stats::qqnorm(r, main = main, plot.it = FALSE)
   graphics::plot(q$x, q$y, xlab = "normal quantile", ylab = "residual", main = main, ...)
   # Line through the quartiles (common practice for Q-Q reference lines).

@@ -13,11 +13,17 @@
 #' The transform model: `v = (reflect ? pivot - x : x) + shift`, then `z = family(v; lambda)`.
 #' See [new_transform()].
 #'
+#' Where to start: [screen_skew()] (which variables are skewed, and what would fix them),
+#' [estimate_response_lambda()] (the response's power given the predictors),
+#' [lm_transformed()] (the model, with [predict.pwb_model()] in original units),
+#' [residual_checks()] and [compare_transforms()] (candidates judged by cross-validation in
+#' original units), and [write_transforms()] (the transforms as portable text). The vignette,
+#' `vignette("powerback")`, walks a whole analysis.
+#'
 #' @useDynLib powerback, .registration = TRUE
 #' @importFrom Rcpp evalCpp
 #' @importFrom stats coef confint predict residuals fitted logLik model.frame model.matrix
 #'   model.response na.omit qnorm qt pchisq pf nobs
 #' @importFrom graphics plot abline lines points legend par mtext
 #' @importFrom grDevices png dev.off
-#' @keywords internal
 "_PACKAGE"

@@ -26,53 +26,6 @@ const char* step_name(pwb_ladder_step s) {
 
 }  // namespace
 
-// Shapiro-Wilk of x: list(statistic, p_value, n, computed, note); NA statistics when not computed.
-// [[Rcpp::export]]
-Rcpp::List rpwb_shapiro_wilk(Rcpp::NumericVector x) {
-  pwb_normality_result r;
-  pwb_normality_result_init(&r);
-  rpwb::check(pwb_shapiro_wilk(x.begin(), static_cast<size_t>(x.size()), &r));
-  return Rcpp::List::create(Rcpp::Named("statistic") = rpwb::nan_to_na(r.w),
-                            Rcpp::Named("p_value") = rpwb::nan_to_na(r.p_value),
-                            Rcpp::Named("n") = static_cast<double>(r.n),
-                            Rcpp::Named("computed") = r.computed != 0,
-                            Rcpp::Named("note") = std::string(r.note));
-}
-
-// Sample moments of x: list(n, mean, sd, skewness, skewness_se, skewness_z, kurtosis,
-// kurtosis_se, kurtosis_z); NA where undefined.
-// [[Rcpp::export]]
-Rcpp::List rpwb_moments(Rcpp::NumericVector x) {
-  pwb_moments m;
-  pwb_moments_init(&m);
-  rpwb::check(pwb_sample_moments(x.begin(), static_cast<size_t>(x.size()), &m));
-  using rpwb::nan_to_na;
-  return Rcpp::List::create(
-      Rcpp::Named("n") = static_cast<double>(m.n), Rcpp::Named("mean") = nan_to_na(m.mean),
-      Rcpp::Named("sd") = nan_to_na(m.sd), Rcpp::Named("skewness") = nan_to_na(m.skewness),
-      Rcpp::Named("skewness_se") = nan_to_na(m.skewness_se),
-      Rcpp::Named("skewness_z") = nan_to_na(m.skewness_z),
-      Rcpp::Named("kurtosis") = nan_to_na(m.kurtosis),
-      Rcpp::Named("kurtosis_se") = nan_to_na(m.kurtosis_se),
-      Rcpp::Named("kurtosis_z") = nan_to_na(m.kurtosis_z));
-}
-
-// The ladder recommendation for x: list(spec, step, skewed, by_size, skewness, skewness_z, n).
-// [[Rcpp::export]]
-Rcpp::List rpwb_ladder(Rcpp::NumericVector x) {
-  pwb_transform_spec s;
-  pwb_transform_spec_init(&s);
-  pwb_ladder_info info;
-  pwb_ladder_info_init(&info);
-  rpwb::check(pwb_ladder_recommend(x.begin(), static_cast<size_t>(x.size()), &s, &info));
-  return Rcpp::List::create(Rcpp::Named("spec") = spec_to_list(s),
-                            Rcpp::Named("step") = std::string(step_name(info.step)),
-                            Rcpp::Named("skewed") = info.skewed != 0,
-                            Rcpp::Named("by_size") = info.by_size != 0,
-                            Rcpp::Named("skewness") = info.skewness,
-                            Rcpp::Named("skewness_z") = info.skewness_z,
-                            Rcpp::Named("n") = static_cast<double>(info.n));
-}
 
 // The screen of one variable, flattened into a list of scalars plus the two transform specs
 // (NULL when absent).

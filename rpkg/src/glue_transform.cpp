@@ -43,5 +43,3 @@ std::string rpwb_transform_describe(Rcpp::List spec, int which) {
   return std::string(buf.data());
 }
 
-// [[Rcpp::export]]
-std::string rpwb_version() { return pwb_version_string(); }

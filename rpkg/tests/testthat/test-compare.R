@@ -188,3 +188,21 @@ test_that("a candidate with an unscored or failed fold is unranked and printed a
   expect_true(any(grepl("^bc ", out[-seq_len(unranked)])))
   expect_false(any(grepl("^ *[0-9]+ bc ", out)))
 })
+
+test_that("the comparison plot draws each fold's score and each candidate's mean", {
+  d <- sim_cmp(40, 5)
+  cmp <- compare_transforms(y ~ x, d, candidates = list("none", logy = list(y = new_transform("log"))),
+                            folds = 4, seed = 1, progress = FALSE)
+  xy <- recorded_xy(recorded_calls(plot(cmp)))
+  f <- cmp$folds
+  pos <- match(f$candidate, cmp$summary$candidate)
+  expect_equal(xy[[1]]$x, pos)
+  expect_equal(xy[[1]]$y, f$rmse_median)
+  expect_equal(xy[[2]]$x, 1:2)
+  expect_equal(xy[[2]]$y, as.vector(tapply(f$rmse_median,
+                                           factor(f$candidate, cmp$summary$candidate), mean)))
+  cov <- recorded_calls(plot(cmp, "coverage"))
+  expect_equal(recorded_xy(cov)[[1]]$y, f$coverage)
+  ab <- Filter(function(e) e$name == "C_abline", cov)
+  expect_equal(ab[[1]]$args[[3]], 0.95)  # the nominal level as the reference line (h)
+})

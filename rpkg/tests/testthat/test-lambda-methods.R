@@ -6,7 +6,7 @@ test_that("coef, confint and as_transform report the estimate", {
   expect_identical(dim(ci), c(1L, 2L))
   expect_identical(colnames(ci), c("5 %", "95 %"))
   expect_identical(as.vector(ci), fit$conf_int)
-  expect_error(confint(fit, level = 0.95), "computed at level 0.9")
+  expect_equal(colnames(confint(fit, level = 0.95)), c("2.5 %", "97.5 %"))
   tr <- as_transform(fit)
   expect_s3_class(tr, "pwb_transform")
   expect_identical(tr$family, "box-cox")
@@ -37,7 +37,7 @@ test_that("print and plot run and say what they show", {
   set.seed(7)
   fit <- estimate_lambda(rgamma(60, shape = 2))
   expect_output(print(fit), "Box-Cox lambda for")
-  expect_output(print(fit), "back-transformed means need a correction")
+  expect_output(print(fit), "back-transformed means need a\\s+correction")
   f <- file.path(tempdir(), "pwb-lambda-test.png")
   grDevices::png(f)
   on.exit(grDevices::dev.off(), add = TRUE)
@@ -49,4 +49,34 @@ test_that("print and plot run and say what they show", {
                                      station, river)
   expect_identical(plot(long), long)
   expect_true(file.exists(f))
+})
+
+test_that("the profile plot draws the stored profile, the estimate and the convenient value", {
+  fit <- estimate_lambda(trees$Volume)  # trees (datasets package)
+  calls <- recorded_calls(plot(fit))
+  xy <- recorded_xy(calls)
+  expect_equal(xy[[1]]$x, fit$profile$lambda)
+  expect_equal(xy[[1]]$y, fit$profile$loglik)
+  expect_equal(xy[[2]]$x, fit$lambda)
+  expect_equal(xy[[2]]$y, fit$loglik)
+  expect_equal(xy[[3]]$x, fit$convenient)
+  ab <- Filter(function(e) e$name == "C_abline", calls)
+  # the cut that defines the interval, then the interval's ends
+  expect_equal(ab[[1]]$args[[3]], fit$loglik - qchisq(fit$level, 1) / 2)
+  expect_equal(ab[[2]]$args[[4]], fit$conf_int)
+})
+
+test_that("confint() at another level is recomputed from the stored profile", {
+  # trees$Volume (datasets package); the reference is a fresh estimate at that level
+  fit <- estimate_lambda(trees$Volume)
+  for (lev in c(0.8, 0.9)) {
+    ref <- estimate_lambda(trees$Volume, level = lev)$conf_int
+    got <- confint(fit, level = lev)
+    # a cubic spline through the 101 stored profile points: the ends agree to ~1e-4 of the
+    # grid's span (interpolation error of a smooth, nearly quadratic curve)
+    expect_equal(as.vector(got), ref, tolerance = 1e-4)
+    expect_equal(colnames(got), paste(c((1 - lev) / 2, 1 - (1 - lev) / 2) * 100, "%"))
+  }
+  expect_equal(as.vector(confint(fit)), fit$conf_int)
+  expect_error(confint(fit, level = 1.2), "strictly between 0 and 1")
 })

@@ -1,4 +1,7 @@
-# Normality statistics through the glue: Shapiro-Wilk and the sample moments.
+# Normality statistics as screen_skew() reports them: Shapiro-Wilk and the sample moments.
+
+# The screen's row for one numeric vector.
+screen_row <- function(x) screen_skew(data.frame(x = x))$table
 
 # |actual - expected| <= tol (an absolute tolerance; expect_equal's is relative).
 expect_near <- function(actual, expected, tol) expect_lte(abs(actual - expected), tol)
@@ -12,12 +15,11 @@ test_that("Shapiro-Wilk equals stats::shapiro.test on varied samples", {
                   rlnorm(20), rpois(30, 2), runif(77), rt(350, 3), rnorm(5000),
                   rchisq(5000, 3))
   for (x in samples) {
-    got <- powerback:::rpwb_shapiro_wilk(x)
+    got <- screen_row(x)
     want <- stats::shapiro.test(x)
-    expect_true(got$computed)
     expect_equal(got$n, length(x))
-    expect_near(got$statistic, unname(want$statistic), 1e-6)
-    expect_near(got$p_value, want$p.value, 1e-6)
+    expect_near(got$sw_w, unname(want$statistic), 1e-6)
+    expect_near(got$sw_p, want$p.value, 1e-6)
   }
 })
 
@@ -28,24 +30,23 @@ test_that("Shapiro-Wilk matches the stored shapiro.test fixture used by the C++ 
   expect_equal(nrow(ref), 17L)
   for (i in seq_len(nrow(ref))) {
     x <- as.numeric(strsplit(ref$values[i], " ", fixed = TRUE)[[1]])
-    got <- powerback:::rpwb_shapiro_wilk(x)
-    expect_near(got$statistic, ref$w[i], 1e-9)
-    expect_near(got$p_value, ref$p[i], 1e-9)
+    got <- screen_row(x)
+    expect_near(got$sw_w, ref$w[i], 1e-9)
+    expect_near(got$sw_p, ref$p[i], 1e-9)
   }
 })
 
 test_that("Shapiro-Wilk outside 3..5000 values or on constant data is skipped, not faked", {
   # shapiro.test itself refuses these samples (its error text is from base R).
   expect_error(stats::shapiro.test(c(1, 2)), "sample size")
-  two <- powerback:::rpwb_shapiro_wilk(c(1, 2))
-  expect_false(two$computed)
-  expect_true(is.na(two$statistic) && is.na(two$p_value))
+  two <- screen_row(c(1, 2))
+  expect_true(is.na(two$sw_w) && is.na(two$sw_p))
   expect_match(two$note, "fewer than 3")
-  big <- powerback:::rpwb_shapiro_wilk(sin(seq_len(5001)))
-  expect_false(big$computed)
+  big <- screen_row(sin(seq_len(5001)))
+  expect_true(is.na(big$sw_p))
   expect_match(big$note, "5000")
-  flat <- powerback:::rpwb_shapiro_wilk(rep(3, 8))
-  expect_false(flat$computed)
+  flat <- screen_row(rep(3, 8))
+  expect_true(is.na(flat$sw_p))
   expect_match(flat$note, "identical")
 })
 
@@ -57,36 +58,32 @@ test_that("moments equal scipy.stats skew and kurtosis with bias=False", {
   expect_equal(nrow(ref), 9L)
   for (i in seq_len(nrow(ref))) {
     x <- as.numeric(strsplit(ref$values[i], " ", fixed = TRUE)[[1]])
-    m <- powerback:::rpwb_moments(x)
+    m <- screen_row(x)
     expect_equal(m$skewness, ref$skew[i], tolerance = 1e-6)
     expect_equal(m$kurtosis, ref$kurtosis[i], tolerance = 1e-6)
   }
 })
 
-test_that("moment standard errors and z follow their formulas, and mean and sd equal base R", {
-  # SE formulas from the issue (Joanes & Gill 1998); mean and sd against base R mean() and
-  # sd(). Tolerance 1e-12: arithmetic only.
+test_that("moment standard errors and z follow their formulas", {
+  # SE formulas of Joanes & Gill (1998). Tolerance 1e-12: arithmetic only.
   x <- c(1, 2, 2, 3, 3, 3, 4, 4, 5, 9, 14)
   n <- length(x)
-  m <- powerback:::rpwb_moments(x)
-  expect_equal(m$mean, mean(x), tolerance = 1e-12)
-  expect_equal(m$sd, stats::sd(x), tolerance = 1e-12)
+  m <- screen_row(x)
   expect_equal(m$skewness_se, sqrt(6 * n * (n - 1) / ((n - 2) * (n + 1) * (n + 3))),
                tolerance = 1e-12)
   expect_equal(m$kurtosis_se,
                sqrt(24 * n * (n - 1)^2 / ((n - 3) * (n - 2) * (n + 3) * (n + 5))),
                tolerance = 1e-12)
   expect_equal(m$skewness_z, m$skewness / m$skewness_se, tolerance = 1e-12)
-  expect_true(is.na(powerback:::rpwb_moments(c(1, 2, 4))$kurtosis))  # G2 needs 4 values
+  expect_true(is.na(screen_row(c(1, 2, 4))$kurtosis))  # G2 needs 4 values
 })
 
-test_that("the R helpers leave out missing values, count them, and name infinite rows", {
+test_that("the screen leaves out missing values, counts them, and names infinite rows", {
   x <- c(3.2, NA, 1.1, 4.8, 2.2, NA, 9.9)
-  sw <- powerback:::pwb_shapiro_wilk(x)
-  expect_equal(sw$n_missing, 2)
-  expect_equal(sw$n, 5)
-  expect_near(sw$statistic, unname(stats::shapiro.test(x)$statistic), 1e-6)
-  expect_error(powerback:::pwb_moments(c(1, Inf, 2, -Inf), "income"),
-               "`income` has 2 infinite values at rows 2, 4")
-  expect_error(powerback:::rpwb_shapiro_wilk(c(1, NaN, 3)), "NaN or infinite at index 1")
+  sw <- screen_row(x)
+  expect_equal(sw$n_missing, 2L)
+  expect_equal(sw$n, 5L)
+  expect_near(sw$sw_w, unname(stats::shapiro.test(x)$statistic), 1e-6)
+  inf <- screen_skew(data.frame(income = c(1, Inf, 2, -Inf)))$table
+  expect_match(inf$note, "2 infinite values at rows 2, 4")
 })

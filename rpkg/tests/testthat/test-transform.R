@@ -72,3 +72,40 @@ test_that("missing values stay missing and names are kept", {
   expect_true(is.na(out[["b"]]))
   expect_equal(out[["c"]], 2)
 })
+
+test_that("labels name the variable and call a Box-Cox power of 0 a log", {
+  expect_equal(format(new_transform("box-cox", lambda = 0), name = "Volume"), "log of Volume")
+  expect_equal(format(new_transform("log", shift = 1), name = "rain"), "log of (rain + 1)")
+  expect_equal(format(new_transform("sqrt", reflect = TRUE, pivot = 101), name = "x_1"),
+               "sqrt of (101 - x_1)")
+  expect_equal(format(new_transform("identity"), name = "Wind"), "untransformed Wind")
+  expect_equal(format(new_transform("box-cox", lambda = 0.5)), "box-cox(lambda = 0.5) of x")
+  # compare_transforms() names each variable it transformed the same way
+  cmp <- compare_transforms(Volume ~ Girth, trees, folds = 2, seed = 1, progress = FALSE,
+                            candidates = list(logs = list(Volume = new_transform("box-cox", lambda = 0))))
+  expect_equal(cmp$full$logs$lambdas$transform[1], "log of Volume")
+})
+
+test_that("apply_transform keeps a matrix's dimensions and names", {
+  x <- matrix(c(1, 10, 100, 1000), 2, dimnames = list(c("a", "b"), c("u", "v")))
+  z <- apply_transform(new_transform("log10"), x)
+  expect_equal(dim(z), c(2L, 2L))
+  expect_equal(dimnames(z), dimnames(x))
+  expect_equal(as.vector(z), c(0, 1, 2, 3))
+  back <- invert_transform(new_transform("log10"), z)
+  expect_equal(back, x)
+  expect_equal(names(apply_transform(new_transform("sqrt"), c(p = 4, q = 9))), c("p", "q"))
+})
+
+test_that("sqrt takes 0 (its domain is x >= 0); log and reciprocal need x > 0", {
+  expect_equal(apply_transform(new_transform("sqrt"), c(0, 4)), c(0, 2))
+  expect_equal(invert_transform(new_transform("sqrt"), 0), 0)
+  expect_error(apply_transform(new_transform("sqrt"), c(1, -1)), "v >= 0")
+  expect_error(apply_transform(new_transform("log"), 0), "v > 0")
+  expect_error(apply_transform(new_transform("reciprocal"), 0), "v > 0")
+  # a sqrt candidate scores every fold on counts with zeros (InsectSprays, datasets package)
+  cmp <- compare_transforms(count ~ spray, InsectSprays, folds = 3, seed = 2, progress = FALSE,
+                            candidates = list(root = list(count = new_transform("sqrt"))))
+  expect_equal(nrow(cmp$failures), 0L)
+  expect_equal(cmp$summary$folds_scored, 3L)
+})
