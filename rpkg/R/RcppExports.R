@@ -9,8 +9,8 @@ rpwb_lambda_influence <- function(y, X, family, lower, upper, level) {
     .Call(`_powerback_rpwb_lambda_influence`, y, X, family, lower, upper, level)
 }
 
-rpwb_cv_folds <- function(n, folds, repeats, seed) {
-    .Call(`_powerback_rpwb_cv_folds`, n, folds, repeats, seed)
+rpwb_cv_folds_by <- function(n, folds, repeats, seed, strata, groups) {
+    .Call(`_powerback_rpwb_cv_folds_by`, n, folds, repeats, seed, strata, groups)
 }
 
 rpwb_holdout_score <- function(y, fit, lwr, upr) {
@@ -41,18 +41,6 @@ rpwb_model_predict <- function(y, X, intercept, response, estimated, Xnew, level
     .Call(`_powerback_rpwb_model_predict`, y, X, intercept, response, estimated, Xnew, level, interval, center, mean_method, transformed)
 }
 
-rpwb_shapiro_wilk <- function(x) {
-    .Call(`_powerback_rpwb_shapiro_wilk`, x)
-}
-
-rpwb_moments <- function(x) {
-    .Call(`_powerback_rpwb_moments`, x)
-}
-
-rpwb_ladder <- function(x) {
-    .Call(`_powerback_rpwb_ladder`, x)
-}
-
 rpwb_screen_variable <- function(x, level, lower, upper) {
     .Call(`_powerback_rpwb_screen_variable`, x, level, lower, upper)
 }
@@ -75,9 +63,5 @@ rpwb_transform_map <- function(spec, x, which) {
 
 rpwb_transform_describe <- function(spec, which) {
     .Call(`_powerback_rpwb_transform_describe`, spec, which)
-}
-
-rpwb_version <- function() {
-    .Call(`_powerback_rpwb_version`)
 }
 

@@ -27,3 +27,32 @@
 #' @importFrom graphics plot abline lines points legend par mtext
 #' @importFrom grDevices png dev.off
 "_PACKAGE"
+
+#' Print, extract and plot the results of box_tidwell(), lambda_influence() and a model summary
+#'
+#' `print()` of a `pwb_box_tidwell` shows each predictor's power with its standard error,
+#' interval and the score test of power 1; `coef()` gives the powers by variable. `print()` of a
+#' `pwb_influence` lists the rows whose deletion moves \eqn{\hat\lambda} most, and `plot()` draws
+#' the change of \eqn{\hat\lambda} by row and against leverage. `print()` of a
+#' `summary.pwb_model` shows the transforms and the fit on the transformed scale.
+#'
+#' @param x,object the result of [box_tidwell()], [lambda_influence()] or `summary()` of a
+#'   [lm_transformed()] model.
+#' @param digits significant digits.
+#' @param n how many rows to list.
+#' @param ... passed on to the printing or plotting of the underlying table or fit.
+#' @return `print()` and `plot()`: `x`, invisibly; `coef()`: a named numeric vector.
+#' @usage
+#' \method{print}{pwb_box_tidwell}(x, digits = 4, ...)
+#' \method{coef}{pwb_box_tidwell}(object, ...)
+#' \method{print}{pwb_influence}(x, n = 5L, ...)
+#' \method{plot}{pwb_influence}(x, ...)
+#' \method{print}{summary.pwb_model}(x, ...)
+#' @name pwb_result_methods
+#' @aliases print.pwb_box_tidwell coef.pwb_box_tidwell print.pwb_influence plot.pwb_influence
+#'   print.summary.pwb_model
+#' @examples
+#' bt <- box_tidwell(Volume ~ Girth + Height, trees)
+#' bt
+#' coef(bt)
+NULL

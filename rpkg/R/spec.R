@@ -81,7 +81,8 @@ write_transforms <- function(x, file) {
     stop(sprintf("names in `x` must be distinct; repeated: %s", paste(dup, collapse = ", ")),
          call. = FALSE)
   pwb_check_path(file)
-  rpwb_spec_write_file(unname(lapply(x, unclass)), enc2utf8(nms), path.expand(file), model)
+  rpwb_spec_write_file(unname(lapply(x, unclass)), pwb_utf8_names(nms, "names in `x`"),
+                       path.expand(file), model)
   invisible(file)
 }
 
@@ -103,7 +104,8 @@ read_transforms <- function(file) {
 pwb_spec_model_record <- function(x) {
   cf <- stats::coef(x)
   sg <- x$sigma
-  list(response = enc2utf8(x$yname), names = enc2utf8(names(cf)),
+  list(response = pwb_utf8_names(x$yname, "the response's name"),
+       names = pwb_utf8_names(names(cf), "coefficient names"),
        coefficients = as.double(unname(cf)),
        sigma = if (is.finite(sg)) as.double(sg) else NA_real_,
        df = as.double(x$df_residual))
@@ -113,4 +115,19 @@ pwb_check_path <- function(file) {
   if (!is.character(file) || length(file) != 1L || is.na(file) || !nzchar(file))
     stop("`file` must be a single path, e.g. file.path(tempdir(), \"transforms.pwbspec\")",
          call. = FALSE)
+}
+
+# Names as UTF-8 for the spec. A name whose bytes are not valid in its declared encoding (e.g.
+# "\xff" in a UTF-8 session) is an error: converting it would rewrite it silently.
+pwb_utf8_names <- function(nms, what) {
+  native_utf8 <- isTRUE(l10n_info()[["UTF-8"]])
+  claims_utf8 <- Encoding(nms) == "UTF-8" | (Encoding(nms) == "unknown" & native_utf8)
+  bad <- which(claims_utf8 & !validUTF8(nms))
+  if (length(bad))
+    stop(sprintf(paste0("%s must be valid UTF-8; %s %s %s not (invalid bytes): give the %s in ",
+                        "UTF-8, e.g. with iconv(..., from = \"latin1\", to = \"UTF-8\")"),
+                 what, pwb_plural(length(bad), "element"), pwb_format_rows(bad),
+                 if (length(bad) == 1L) "is" else "are", pwb_plural(length(bad), "name")),
+         call. = FALSE)
+  enc2utf8(nms)
 }

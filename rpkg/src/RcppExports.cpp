@@ -42,9 +42,9 @@ BEGIN_RCPP
     return rcpp_result_gen;
 END_RCPP
 }
-// rpwb_cv_folds
-Rcpp::IntegerMatrix rpwb_cv_folds(int n, int folds, int repeats, double seed);
-RcppExport SEXP _powerback_rpwb_cv_folds(SEXP nSEXP, SEXP foldsSEXP, SEXP repeatsSEXP, SEXP seedSEXP) {
+// rpwb_cv_folds_by
+Rcpp::IntegerMatrix rpwb_cv_folds_by(int n, int folds, int repeats, double seed, Rcpp::Nullable<Rcpp::IntegerVector> strata, Rcpp::Nullable<Rcpp::IntegerVector> groups);
+RcppExport SEXP _powerback_rpwb_cv_folds_by(SEXP nSEXP, SEXP foldsSEXP, SEXP repeatsSEXP, SEXP seedSEXP, SEXP strataSEXP, SEXP groupsSEXP) {
 BEGIN_RCPP
     Rcpp::RObject rcpp_result_gen;
     Rcpp::RNGScope rcpp_rngScope_gen;
@@ -52,7 +52,9 @@ BEGIN_RCPP
     Rcpp::traits::input_parameter< int >::type folds(foldsSEXP);
     Rcpp::traits::input_parameter< int >::type repeats(repeatsSEXP);
     Rcpp::traits::input_parameter< double >::type seed(seedSEXP);
-    rcpp_result_gen = Rcpp::wrap(rpwb_cv_folds(n, folds, repeats, seed));
+    Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::IntegerVector> >::type strata(strataSEXP);
+    Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::IntegerVector> >::type groups(groupsSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_cv_folds_by(n, folds, repeats, seed, strata, groups));
     return rcpp_result_gen;
 END_RCPP
 }
@@ -167,39 +169,6 @@ BEGIN_RCPP
     return rcpp_result_gen;
 END_RCPP
 }
-// rpwb_shapiro_wilk
-Rcpp::List rpwb_shapiro_wilk(Rcpp::NumericVector x);
-RcppExport SEXP _powerback_rpwb_shapiro_wilk(SEXP xSEXP) {
-BEGIN_RCPP
-    Rcpp::RObject rcpp_result_gen;
-    Rcpp::RNGScope rcpp_rngScope_gen;
-    Rcpp::traits::input_parameter< Rcpp::NumericVector >::type x(xSEXP);
-    rcpp_result_gen = Rcpp::wrap(rpwb_shapiro_wilk(x));
-    return rcpp_result_gen;
-END_RCPP
-}
-// rpwb_moments
-Rcpp::List rpwb_moments(Rcpp::NumericVector x);
-RcppExport SEXP _powerback_rpwb_moments(SEXP xSEXP) {
-BEGIN_RCPP
-    Rcpp::RObject rcpp_result_gen;
-    Rcpp::RNGScope rcpp_rngScope_gen;
-    Rcpp::traits::input_parameter< Rcpp::NumericVector >::type x(xSEXP);
-    rcpp_result_gen = Rcpp::wrap(rpwb_moments(x));
-    return rcpp_result_gen;
-END_RCPP
-}
-// rpwb_ladder
-Rcpp::List rpwb_ladder(Rcpp::NumericVector x);
-RcppExport SEXP _powerback_rpwb_ladder(SEXP xSEXP) {
-BEGIN_RCPP
-    Rcpp::RObject rcpp_result_gen;
-    Rcpp::RNGScope rcpp_rngScope_gen;
-    Rcpp::traits::input_parameter< Rcpp::NumericVector >::type x(xSEXP);
-    rcpp_result_gen = Rcpp::wrap(rpwb_ladder(x));
-    return rcpp_result_gen;
-END_RCPP
-}
 // rpwb_screen_variable
 Rcpp::List rpwb_screen_variable(Rcpp::NumericVector x, double level, double lower, double upper);
 RcppExport SEXP _powerback_rpwb_screen_variable(SEXP xSEXP, SEXP levelSEXP, SEXP lowerSEXP, SEXP upperSEXP) {
@@ -274,21 +243,11 @@ BEGIN_RCPP
     return rcpp_result_gen;
 END_RCPP
 }
-// rpwb_version
-std::string rpwb_version();
-RcppExport SEXP _powerback_rpwb_version() {
-BEGIN_RCPP
-    Rcpp::RObject rcpp_result_gen;
-    Rcpp::RNGScope rcpp_rngScope_gen;
-    rcpp_result_gen = Rcpp::wrap(rpwb_version());
-    return rcpp_result_gen;
-END_RCPP
-}
 
 static const R_CallMethodDef CallEntries[] = {
     {"_powerback_rpwb_box_tidwell", (DL_FUNC) &_powerback_rpwb_box_tidwell, 5},
     {"_powerback_rpwb_lambda_influence", (DL_FUNC) &_powerback_rpwb_lambda_influence, 6},
-    {"_powerback_rpwb_cv_folds", (DL_FUNC) &_powerback_rpwb_cv_folds, 4},
+    {"_powerback_rpwb_cv_folds_by", (DL_FUNC) &_powerback_rpwb_cv_folds_by, 6},
     {"_powerback_rpwb_holdout_score", (DL_FUNC) &_powerback_rpwb_holdout_score, 4},
     {"_powerback_rpwb_model_checks", (DL_FUNC) &_powerback_rpwb_model_checks, 4},
     {"_powerback_rpwb_estimate_lambda", (DL_FUNC) &_powerback_rpwb_estimate_lambda, 6},
@@ -296,16 +255,12 @@ static const R_CallMethodDef CallEntries[] = {
     {"_powerback_rpwb_lambda_profile", (DL_FUNC) &_powerback_rpwb_lambda_profile, 4},
     {"_powerback_rpwb_model_fit", (DL_FUNC) &_powerback_rpwb_model_fit, 5},
     {"_powerback_rpwb_model_predict", (DL_FUNC) &_powerback_rpwb_model_predict, 11},
-    {"_powerback_rpwb_shapiro_wilk", (DL_FUNC) &_powerback_rpwb_shapiro_wilk, 1},
-    {"_powerback_rpwb_moments", (DL_FUNC) &_powerback_rpwb_moments, 1},
-    {"_powerback_rpwb_ladder", (DL_FUNC) &_powerback_rpwb_ladder, 1},
     {"_powerback_rpwb_screen_variable", (DL_FUNC) &_powerback_rpwb_screen_variable, 4},
     {"_powerback_rpwb_spec_write_file", (DL_FUNC) &_powerback_rpwb_spec_write_file, 4},
     {"_powerback_rpwb_spec_read_file", (DL_FUNC) &_powerback_rpwb_spec_read_file, 1},
     {"_powerback_rpwb_transform_normalise", (DL_FUNC) &_powerback_rpwb_transform_normalise, 1},
     {"_powerback_rpwb_transform_map", (DL_FUNC) &_powerback_rpwb_transform_map, 3},
     {"_powerback_rpwb_transform_describe", (DL_FUNC) &_powerback_rpwb_transform_describe, 2},
-    {"_powerback_rpwb_version", (DL_FUNC) &_powerback_rpwb_version, 0},
     {NULL, NULL, 0}
 };
 

@@ -90,3 +90,19 @@ test_that("a fitted model writes its response and predictor transforms", {
   expect_identical(back$sediment_t_day, m$response)
   expect_identical(back$flow_m3s, m$predictors$flow_m3s)
 })
+
+test_that("a name with invalid UTF-8 is refused, not rewritten; latin1 names are converted", {
+  path <- tempfile(fileext = ".pwbspec")
+  on.exit(unlink(path))
+  bad <- "ab\xffc"  # the byte 0xff is never valid in UTF-8
+  Encoding(bad) <- "UTF-8"
+  expect_error(write_transforms(stats::setNames(list(new_transform("log")), bad), path),
+               "must be valid UTF-8; element 1 is not")
+  expect_false(file.exists(path))
+  latin <- "caf\xe9"
+  Encoding(latin) <- "latin1"
+  write_transforms(stats::setNames(list(new_transform("log")), latin), path)
+  back <- read_transforms(path)
+  expect_identical(names(back), enc2utf8(latin))
+  expect_identical(names(back), "caf\u00e9")
+})
