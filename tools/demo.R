@@ -72,8 +72,9 @@ cmp <- compare_transforms(form, fit, candidates = list("none", "ladder", "ml",
                           seed = 20261202, progress = FALSE)
 print(cmp)
 cat("RMSE in original units is dominated by the few largest loads; MAE, interval coverage and\n",
-    "width describe the typical case. A candidate whose held-out predictions leave the\n",
-    "transform's range scores NA rather than hiding those rows.\n", sep = "")
+    "median width describe the typical case. A fold whose held-out predictions leave the\n",
+    "transform's range is unscored (and its candidate unranked) rather than hiding those rows.\n",
+    sep = "")
 
 section("7. Predictions for the prediction set, in t/day")
 pm <- predict(model, new, interval = "prediction", level = 0.95, center = "median")

@@ -38,8 +38,7 @@ new_transform <- function(family, lambda = NULL, shift = 0, reflect = FALSE, piv
       stop(sprintf("`%s` must be a single number", what), call. = FALSE)
     as.double(v)
   }
-  if (!is.logical(reflect) || length(reflect) != 1L || is.na(reflect))
-    stop("`reflect` must be TRUE or FALSE", call. = FALSE)
+  pwb_check_flag(reflect, "reflect")
   spec <- list(family = family, lambda = num1(lambda, "lambda"), shift = num1(shift, "shift"),
                reflect = reflect, pivot = num1(pivot, "pivot"))
   if (is.na(spec$shift)) stop("`shift` must be a finite number", call. = FALSE)
