@@ -1,0 +1,30 @@
+# The shared argument checks: one wording for each kind of bad argument.
+
+test_that("validators accept good values and name the argument in their errors", {
+  v <- asNamespace("powerback")
+  expect_silent(v$pwb_check_level(0.9))
+  for (bad in list(0, 1, NA, c(0.9, 0.95), "0.9"))
+    expect_error(v$pwb_check_level(bad), "`level` must be a single number strictly between 0 and 1")
+  expect_silent(v$pwb_check_range(c(-2, 2)))
+  expect_error(v$pwb_check_range(c(2, -2)), "`range` must be two finite numbers")
+  expect_error(v$pwb_check_range(c(-Inf, 2)), "lower < upper")
+  expect_silent(v$pwb_check_flag(TRUE, "compare"))
+  expect_error(v$pwb_check_flag(NA, "compare"), "`compare` must be TRUE or FALSE")
+  expect_identical(v$pwb_check_whole(3, "folds", 2L), 3L)
+  expect_error(v$pwb_check_whole(1.5, "folds", 2L), "`folds` must be a whole number >= 2")
+  expect_error(v$pwb_check_whole(1, "folds", 2L), ">= 2")
+  expect_silent(v$pwb_check_seed(NULL))
+  expect_error(v$pwb_check_seed(-1), "`seed` must be NULL or a whole number >= 0")
+  expect_error(v$pwb_check_data_frame(1:3), "`data` must be a data frame")
+  expect_error(v$pwb_check_response_formula(~ x), "two-sided formula")
+  expect_identical(v$pwb_check_choice("mean", c("median", "mean"), "center"), "mean")
+  expect_error(v$pwb_check_choice("mode", c("median", "mean"), "center"),
+               "`center` must be one of \"median\", \"mean\"")
+})
+
+test_that("entry points word a bad level the same way", {
+  msg <- "`level` must be a single number strictly between 0 and 1"
+  expect_error(screen_skew(trees, level = 2), msg)  # trees (datasets package)
+  expect_error(compare_transforms(Volume ~ Girth, trees, level = 0), msg)
+  expect_error(confint(estimate_lambda(trees$Volume), level = 1), msg)
+})
