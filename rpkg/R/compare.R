@@ -154,9 +154,11 @@ compare_transforms <- function(formula, data, candidates = c("none", "ladder", "
       train <- dat[!test, , drop = FALSE]
       # positions in the training part: messages naming them are mapped to the user's rows
       rownames(train) <- NULL
+      held_out <- dat[test, , drop = FALSE]
+      rownames(held_out) <- NULL
       for (cand in names(learners)) {
-        one <- pwb_cmp_one_fold(learners[[cand]], formula, train, dat[test, , drop = FALSE],
-                                yname, family, level)
+        one <- pwb_cmp_one_fold(learners[[cand]], formula, train, held_out, yname, family,
+                                level)
         tag <- data.frame(candidate = cand, repeat_no = r, fold = k, stringsAsFactors = FALSE)
         if (is.null(one$error)) {
           fold_rows[[length(fold_rows) + 1L]] <- cbind(tag, one$scores)
@@ -168,7 +170,8 @@ compare_transforms <- function(formula, data, candidates = c("none", "ladder", "
                                                        one$predictions,
                                                        stringsAsFactors = FALSE)
         } else {
-          msg <- pwb_cmp_name_rows(one$error, labels[!test])
+          part <- if (identical(one$part, "test")) test else !test
+          msg <- pwb_cmp_name_rows(one$error, labels[part])
           fail_rows[[length(fail_rows) + 1L]] <- cbind(tag, message = msg,
                                                        stringsAsFactors = FALSE)
         }

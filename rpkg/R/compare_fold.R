@@ -71,7 +71,7 @@ pwb_cmp_fit_fixed <- function(trs, name, formula, train, yname, level) {
 }
 
 # One candidate in one fold: list(scores = one-row data frame, lambdas = data frame) or
-# list(error = message).
+# list(error = message, part = "test" when predicting the held-out rows failed).
 pwb_cmp_one_fold <- function(learner, formula, train, test, yname, family, level) {
   model <- tryCatch(learner(train, formula, yname, family, level),
                     error = function(e) conditionMessage(e))
@@ -86,7 +86,7 @@ pwb_cmp_one_fold <- function(learner, formula, train, test, yname, family, level
     mean <- stats::predict(model, test, center = "mean", mean_method = "smearing", invalid = "na")
     list(med = med, mean = mean)
   }, error = function(e) conditionMessage(e))
-  if (is.character(pm)) return(list(error = pm))
+  if (is.character(pm)) return(list(error = pm, part = "test"))
   y <- as.double(test[[yname]])
   s_med <- rpwb_holdout_score(y, as.double(pm$med$fit), as.double(pm$med$lwr),
                               as.double(pm$med$upr))

@@ -108,3 +108,14 @@ test_that("fold failures name the rows of the data, by row name where it has the
                            progress = FALSE)
   expect_equal(ok$predictions$row_name, rownames(d)[ok$predictions$row])
 })
+
+test_that("a prediction failure names the held-out rows of the data", {
+  d <- data.frame(x = 1:15, g = c(rep(c("a", "b"), 7)[1:13], "z", "a"))
+  d$y <- d$x + (d$g == "b") + sin(d$x)
+  cmp <- compare_transforms(y ~ x + g, d, candidates = "none", folds = 3, seed = 5,
+                            progress = FALSE)
+  f <- cmp$failures
+  expect_equal(nrow(f), 1L)
+  expect_equal(f$fold, cmp$fold_ids[14, 1])
+  expect_match(f$message, "\"z\" \\(at row 14\\)")
+})
