@@ -30,12 +30,14 @@ pwb_cmp_make_folds <- function(formula, dat, rows, given, groups, k, repeats, se
 # The model's factor-like predictors (as the formula builds them, e.g. factor(carb)), as a
 # named list of factors over the rows of dat.
 pwb_cmp_factors <- function(formula, dat) {
-  mf <- tryCatch(stats::model.frame(formula, dat), error = function(e) NULL)
-  if (is.null(mf) || ncol(mf) < 2L) return(list())
+  mf <- tryCatch(stats::model.frame(formula, dat, na.action = stats::na.pass),
+                 error = function(e) NULL)
+  if (is.null(mf) || ncol(mf) < 2L || nrow(mf) != nrow(dat)) return(list())
   preds <- mf[-1L]
   keep <- vapply(preds, function(v) is.factor(v) || is.character(v) || is.logical(v),
                  logical(1))
-  lapply(preds[keep], function(v) droplevels(as.factor(v)))
+  # a missing value (kept when the na.action passes it) counts as a level, so it has a code
+  lapply(preds[keep], function(v) droplevels(addNA(as.factor(v), ifany = TRUE)))
 }
 
 # Stratum codes (0-based): one factor's levels, or the combination of several with the factor
