@@ -1,6 +1,7 @@
 // powerback::lambda_influence against brute-force refits without each row.
 #include <catch2/catch.hpp>
 
+#include <algorithm>
 #include <cmath>
 #include <random>
 #include <vector>
@@ -44,24 +45,63 @@ TEST_CASE("leave-one-out lambda equals refits without each row", "[influence]") 
     const LambdaInfluence inf = lambda_influence(y.data(), X.data(), n, 2, fam);
     const LambdaEstimate full = estimate_response_lambda(y.data(), X.data(), n, 2, fam);
     CHECK(inf.full.lambda == full.lambda);
-    int n_outside = 0;
+    std::size_t n_outside = 0, n_at_bound = 0;
     for (int k = 0; k < n; ++k) {
       const std::vector<double> yk = drop_row(y, n, 1, k), Xk = drop_row(X, n, 2, k);
       const LambdaEstimate ref = estimate_response_lambda(yk.data(), Xk.data(), n - 1, 2, fam);
       CAPTURE(static_cast<int>(fam), k);
       // both maximisers stop within ~1.5e-8 relative of the same optimum (Brent, half the
-      // mantissa); 1e-6 is the agreement the method promises
+      // mantissa), and the interpolation is exact to ~1e-15: 1e-6 leaves a wide margin
       CHECK(inf.loo_lambda[k] == Approx(ref.lambda).margin(1e-6));
-      CHECK(inf.outside[k] == (ref.lambda < full.conf_low || ref.lambda > full.conf_high));
-      n_outside += inf.outside[k];
+      const bool out = ref.lambda < full.conf_low || ref.lambda > full.conf_high;
+      CHECK(inf.outside[k] == out);
+      CHECK(inf.at_bound[k] == ref.at_bound);
+      CHECK(inf.converged[k] == 1);
+      n_outside += out;
+      n_at_bound += ref.at_bound;
     }
+    // the core's counts are those of the refits
+    CHECK(inf.n_outside == n_outside);
+    CHECK(inf.n_at_bound == n_at_bound);
     // the inflated row is the one that moves lambda-hat most
     int most = 0;
     for (int k = 1; k < n; ++k)
       if (std::fabs(inf.loo_lambda[k] - full.lambda) > std::fabs(inf.loo_lambda[most] - full.lambda))
         most = k;
     CHECK(most == 5);
-    CHECK(n_outside <= n);
+  }
+}
+
+TEST_CASE("a row whose deletion leaves the shared window is solved on the exact profile",
+          "[influence]") {
+  const int n = 30;
+  std::vector<double> y, X;
+  simulate(n, 5u, y, X);
+  y[2] *= 30;  // a gross outlier: without it lambda-hat moves far beyond the interval
+  const LambdaInfluence inf = lambda_influence(y.data(), X.data(), n, 2, Family::BoxCox);
+  const std::vector<double> yk = drop_row(y, n, 1, 2), Xk = drop_row(X, n, 2, 2);
+  const LambdaEstimate ref = estimate_response_lambda(yk.data(), Xk.data(), n - 1, 2, Family::BoxCox);
+  // the move is more than the window's reach of 1.5 interval half-widths
+  const double half = std::max(inf.full.conf_high - inf.full.lambda, inf.full.lambda - inf.full.conf_low);
+  REQUIRE(std::fabs(ref.lambda - inf.full.lambda) > 1.5 * half);
+  CHECK(inf.n_exact >= 1);
+  // Brent's stopping tolerance (~1.5e-8 relative) on both sides; 1e-6 as for every row
+  CHECK(inf.loo_lambda[2] == Approx(ref.lambda).margin(1e-6));
+  CHECK(inf.outside[2] == 1);
+}
+
+TEST_CASE("leave-one-out lambda at n = 6000 (binned profile) equals refits", "[influence]") {
+  const int n = 6000;
+  std::vector<double> y, X;
+  simulate(n, 11u, y, X);
+  const LambdaInfluence inf = lambda_influence(y.data(), X.data(), n, 2, Family::BoxCox);
+  CHECK(inf.n_exact == 0);
+  for (int k : {0, 17, 2999, 5999}) {
+    const std::vector<double> yk = drop_row(y, n, 1, k), Xk = drop_row(X, n, 2, k);
+    const LambdaEstimate ref = estimate_response_lambda(yk.data(), Xk.data(), n - 1, 2, Family::BoxCox);
+    CAPTURE(k);
+    // Brent's tolerance (~1.5e-8 relative) on both maximisers
+    CHECK(inf.loo_lambda[k] == Approx(ref.lambda).margin(1e-6));
   }
 }
 
