@@ -10,6 +10,8 @@
 #include <functional>
 #include <memory>
 #include <string>
+#include <type_traits>
+#include <utility>
 
 #include "powerback/errors.hpp"
 #include "powerback/family_math.hpp"
@@ -211,6 +213,37 @@ struct RowProfile {
   }
 };
 
+// The weighted full-data estimate and profile come from the lambda search's weighted forms
+// (LambdaOptions::weights and the weighted response_lambda_profile), resolved at compile time so
+// that this file builds against a core without them; such a core refuses weights here.
+template <class O, class = void>
+struct HasWeights : std::false_type {};
+template <class O>
+struct HasWeights<O, decltype(void(std::declval<O&>().weights))> : std::true_type {};
+
+template <class O>
+LambdaEstimate weighted_estimate(const double* y, const double* X, std::size_t n, std::size_t p,
+                                 Family family, O opt, const double* w) {
+  if constexpr (HasWeights<O>::value) {
+    opt.weights = w;
+    return estimate_response_lambda(y, X, n, p, family, opt);
+  } else {
+    throw Error(ErrorCode::Argument, "this build's lambda search has no weights");
+  }
+}
+
+template <class O>
+std::vector<double> weighted_profile(const O& opt, const double* y, const double* X, std::size_t n,
+                                     std::size_t p, Family family, const double* w,
+                                     const std::vector<double>& g) {
+  if constexpr (HasWeights<O>::value) {
+    const decltype(opt.weights) wd = w;
+    return response_lambda_profile(y, X, n, p, family, wd, g.data(), g.size());
+  } else {
+    throw Error(ErrorCode::Argument, "this build's lambda search has no weights");
+  }
+}
+
 }  // namespace
 
 LambdaInfluence lambda_influence(const double* y, const double* X, std::size_t n, std::size_t p,
@@ -242,7 +275,18 @@ LambdaInfluence lambda_influence(const double* y, const double* X, std::size_t n
       return response_lambda_profile(yu.data(), *ls, family, g.data(), g.size());
     };
   } else {
-    throw Error(ErrorCode::Argument, "weighted lambda influence is not available yet");
+    std::vector<double> wu(N), design(N * (p + 1));
+    for (std::size_t r = 0; r < N; ++r) {
+      wu[r] = weights[used[r]];
+      const double s = std::sqrt(wu[r]);
+      design[r] = s;
+      for (std::size_t c = 0; c < p; ++c) design[(c + 1) * N + r] = s * Xu[c * N + r];
+    }
+    ls.reset(new LeastSquares(design.data(), N, p + 1, false));
+    out.full = weighted_estimate(yu.data(), Xu.data(), N, p, family, opt, wu.data());
+    profile = [&, wu](const std::vector<double>& g) {
+      return weighted_profile(opt, yu.data(), Xu.data(), N, p, family, wu.data(), g);
+    };
   }
   const std::size_t rank = ls->rank();
   if (N < rank + 3)

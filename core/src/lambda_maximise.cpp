@@ -13,8 +13,9 @@ namespace {
 constexpr std::uintmax_t kMaxIter = 200;
 // Half the mantissa: the best a maximum can be located to (about 1.5e-8 relative).
 constexpr int kMinimiserBits = std::numeric_limits<double>::digits / 2;
-// An answer this close to an end (relative to the range's width) is compared with the end.
-constexpr double kEdgeFraction = 1e-4;
+// Brent's relative tolerance for kMinimiserBits: it stops within about 2 (tol |x| + tol / 4) of
+// the maximum, so an answer within a few such steps of an end is compared with the end itself.
+const double kMinimiserTolerance = std::ldexp(1.0, 1 - kMinimiserBits);
 
 }  // namespace
 
@@ -28,8 +29,8 @@ ProfileMaximum maximise_profile(const std::function<double(double)>& loglik, dou
   out.converged = it < kMaxIter;
   out.lambda = best.first;
   out.loglik = -best.second;
-  const double near = kEdgeFraction * (upper - lower);
   for (double edge : {lower, upper}) {
+    const double near = 8.0 * kMinimiserTolerance * (std::fabs(edge) + 1.0);
     if (std::fabs(out.lambda - edge) < near) {
       const double le = loglik(edge);
       if (le >= out.loglik) {

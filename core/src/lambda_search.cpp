@@ -2,6 +2,7 @@
 // profile, then a bracketing root search on each side for the chi-square cut.
 #include <algorithm>
 #include <boost/math/distributions/chi_squared.hpp>
+#include <boost/math/tools/minima.hpp>
 #include <boost/math/tools/toms748_solve.hpp>
 #include <cmath>
 #include <cstdint>
@@ -9,13 +10,15 @@
 
 #include "powerback/errors.hpp"
 #include "powerback/lambda.hpp"
-#include "powerback/lambda_maximise.hpp"
 #include "powerback/transform.hpp"
 
 namespace powerback {
 namespace {
 
 constexpr std::uintmax_t kMaxIter = 200;
+// Brent's minimiser: half the mantissa is the best a minimum can be located to (the profile is
+// flat to second order there), about 1.5e-8 relative.
+constexpr int kMinimiserBits = std::numeric_limits<double>::digits / 2;
 // Interval endpoints are simple roots, so they can be found much more tightly.
 constexpr int kRootBits = 40;
 
@@ -94,11 +97,25 @@ LambdaEstimate search(const detail::LambdaProfile& prof, const LambdaOptions& op
   est.level = opt.level;
   est.lower = opt.lower;
   est.upper = opt.upper;
-  const ProfileMaximum best =
-      maximise_profile([&](double l) { return prof.loglik(l); }, opt.lower, opt.upper);
-  bool ok = best.converged;
-  const double lhat = best.lambda, lmax = best.loglik;
-  est.at_bound = best.at_bound;
+  const auto neg = [&](double l) { return -prof.loglik(l); };
+
+  std::uintmax_t it = kMaxIter;
+  const std::pair<double, double> best =
+      boost::math::tools::brent_find_minima(neg, opt.lower, opt.upper, kMinimiserBits, it);
+  bool ok = it < kMaxIter;
+  double lhat = best.first, lmax = -best.second;
+  // Brent never evaluates the ends of the range; near one, compare with the end itself.
+  const double width = opt.upper - opt.lower, near = 1e-4 * width;
+  for (double edge : {opt.lower, opt.upper}) {
+    if (std::fabs(lhat - edge) < near) {
+      const double le = prof.loglik(edge);
+      if (le >= lmax) {
+        lhat = edge;
+        lmax = le;
+      }
+      est.at_bound = true;
+    }
+  }
   est.lambda = lhat;
   est.loglik = lmax;
 

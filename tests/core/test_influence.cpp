@@ -4,6 +4,8 @@
 #include <algorithm>
 #include <cmath>
 #include <random>
+#include <type_traits>
+#include <utility>
 #include <vector>
 
 #include "powerback/errors.hpp"
@@ -123,4 +125,58 @@ TEST_CASE("lambda influence rejects bad input", "[influence]") {
   CHECK_THROWS_AS(lambda_influence(y.data(), x.data(), 6, 1, Family::Log), Error);
   // 4 rows, rank 2: a left-out fit of 3 rows has 1 residual df, too few for a profile
   CHECK_THROWS_AS(lambda_influence(y.data(), x.data(), 4, 1, Family::BoxCox), Error);
+}
+
+namespace {
+template <class O, class = void>
+struct HasWeights : std::false_type {};
+template <class O>
+struct HasWeights<O, decltype(void(std::declval<O&>().weights))> : std::true_type {};
+
+// Refits of the weighted data without row k, through the weighted lambda search.
+template <class O>
+double weighted_refit(const std::vector<double>& y, const std::vector<double>& X,
+                      const std::vector<double>& w, int n, int k, O opt) {
+  const std::vector<double> yk = drop_row(y, n, 1, k), Xk = drop_row(X, n, 2, k),
+                            wk = drop_row(w, n, 1, k);
+  if constexpr (HasWeights<O>::value) {
+    opt.weights = wk.data();
+    return estimate_response_lambda(yk.data(), Xk.data(), n - 1, 2, Family::BoxCox, opt).lambda;
+  } else {
+    return 0.0;
+  }
+}
+}  // namespace
+
+TEST_CASE("weighted leave-one-out lambda equals weighted refits without each row",
+          "[influence]") {
+  const int n = 40;
+  std::vector<double> y, X, w(n);
+  simulate(n, 23u, y, X);
+  for (int i = 0; i < n; ++i) w[i] = 0.5 + (i % 4);  // precision weights 0.5 .. 3.5
+  w[9] = 0.0;  // not used: its estimate is the full one, its leverage 0
+  y[9] = -1.0;  // and its value is not checked
+  if constexpr (!HasWeights<LambdaOptions>::value) {
+    CHECK_THROWS_AS(lambda_influence(y.data(), X.data(), n, 2, Family::BoxCox, {}, w.data()), Error);
+    WARN("this core's lambda search has no weights: weighted influence is refused");
+  } else {
+    const LambdaInfluence inf = lambda_influence(y.data(), X.data(), n, 2, Family::BoxCox, {}, w.data());
+    CHECK(inf.loo_lambda[9] == inf.full.lambda);
+    CHECK(inf.leverage[9] == 0.0);
+    for (int k = 0; k < n; ++k) {
+      if (k == 9) continue;
+      CAPTURE(k);
+      // Brent's tolerance (~1.5e-8 relative) on both maximisers
+      CHECK(inf.loo_lambda[k] == Approx(weighted_refit(y, X, w, n, k, LambdaOptions{})).margin(1e-6));
+    }
+  }
+  // bad weights name their rows
+  w[3] = -2.0;
+  try {
+    lambda_influence(y.data(), X.data(), n, 2, Family::BoxCox, {}, w.data());
+    FAIL("a negative weight was accepted");
+  } catch (const IndexedError& e) {
+    CHECK(e.code() == ErrorCode::Domain);
+    CHECK(e.first_indices() == std::vector<std::size_t>{3});
+  }
 }

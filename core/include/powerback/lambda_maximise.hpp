@@ -2,10 +2,10 @@
 //
 // Brent's minimiser on the negated profile, to half the mantissa (the profile is flat to second
 // order at its maximum, so a maximum cannot be located more tightly than about 1.5e-8 relative).
-// Brent never evaluates the ends of the range, so when its answer lies within a small tolerance
-// of an end, the end itself is evaluated and kept when it is at least as high; such an answer is
-// flagged at_bound. Every lambda estimate of the core (the full-data search and the
-// leave-one-out estimates of influence.hpp) goes through this function.
+// Brent never evaluates the ends of the range, so when its answer lies within a few of its own
+// steps of an end, the end itself is evaluated and kept when it is at least as high; such an answer is
+// flagged at_bound. The leave-one-out estimates of influence.hpp go through this function; the
+// full-data search of lambda_search.cpp uses the same settings and is meant to call it too.
 #pragma once
 
 #include <functional>
