@@ -89,7 +89,11 @@ test_that("rows are named by the data's row names where it has them", {
   rec <- grDevices::recordPlot()
   grDevices::dev.off()
   unlink(f)
-  labels <- rapply(rec[[1]], function(v) v, classes = "character", how = "unlist")
+  # each recorded call is (function, (native routine, its arguments...)): the labels of C_text
+  labels <- unlist(lapply(as.list(rec[[1]]), function(op) {
+    args <- as.list(op[[2]])
+    if (identical(args[[1]]$name, "C_text")) Filter(is.character, args[-1]) else NULL
+  }))
   expect_true("plot_E" %in% labels)
 })
 
