@@ -125,8 +125,8 @@ box_tidwell <- function(object, data = NULL, vars = NULL, weights = NULL, subset
 
 #' @export
 print.pwb_box_tidwell <- function(x, digits = 4, ...) {
-  cat("<pwb_box_tidwell> Box-Tidwell powers for ", deparse1(x$formula), " (n = ", x$n, ")\n",
-      sep = "")
+  cat(strwrap(paste0("<pwb_box_tidwell> Box-Tidwell powers for ", deparse1(x$formula),
+                     " (n = ", x$n, ")"), width = getOption("width"), exdent = 2), sep = "\n")
   tab <- x$table
   num <- c("power", "se", "conf_low", "conf_high", "score_t")
   tab[num] <- lapply(tab[num], signif, digits = digits)
@@ -146,7 +146,7 @@ print.pwb_box_tidwell <- function(x, digits = 4, ...) {
     cat(sprintf("NOT converged after %d updates (last change %.3g, tol %g): treat the powers as rough\n",
                 x$iterations, x$last_change, x$tol))
   }
-  cat(sprintf("suggest: none when the score test does not reject at %g or the interval holds 1\n",
+  cat(sprintf("suggest: none if the score test does not reject at %g or 1 is in the interval\n",
               1 - x$level))
   cat("A power changes what a coefficient means; judge the result with knowledge of the data.\n")
   invisible(x)
