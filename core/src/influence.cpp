@@ -40,8 +40,7 @@ constexpr double kUnitLeverage = 1e-10;
 // The rows used (weight > 0) in the form the residuals need: every power of the family is
 // s_i expm1(k_i t_i) / k_i with k_i = lambda, or 2 - lambda for Yeo-Johnson's negatives (s = -1).
 struct Rows {
-  std::vector<std::size_t> index;  // original row of each used row
-  Eigen::VectorXd y, sqrt_w;        // responses; sqrt of the weights (empty: unweighted)
+  Eigen::VectorXd sqrt_w;           // sqrt of the weights (empty: unweighted)
   Eigen::ArrayXd t;                 // log y - mean (Box-Cox); log1p |y| (Yeo-Johnson)
   Eigen::Array<bool, Eigen::Dynamic, 1> neg;  // Yeo-Johnson: y < 0
   Eigen::ArrayXd d;                 // Jacobian slope: log psi'(y; lambda) = (lambda - 1) d
@@ -82,12 +81,10 @@ std::vector<double> pick(const double* v, std::size_t n, std::size_t cols,
   return out;
 }
 
-Rows prepare(const std::vector<double>& y, const double* w, const std::vector<std::size_t>& index,
-             Family family) {
+Rows prepare(const double* y, std::size_t count, const double* w,
+             const std::vector<std::size_t>& index, Family family) {
   Rows r;
-  const Index n = static_cast<Index>(y.size());
-  r.index = index;
-  r.y = Eigen::Map<const Eigen::VectorXd>(y.data(), n);
+  const Index n = static_cast<Index>(count);
   if (w) {
     r.sqrt_w.resize(n);
     for (Index i = 0; i < n; ++i) r.sqrt_w(i) = std::sqrt(w[index[static_cast<std::size_t>(i)]]);
@@ -96,7 +93,7 @@ Rows prepare(const std::vector<double>& y, const double* w, const std::vector<st
   r.neg.resize(n);
   r.d.resize(n);
   for (Index i = 0; i < n; ++i) {
-    const double v = r.y(i);
+    const double v = y[i];
     r.neg(i) = family == Family::YeoJohnson && v < 0.0;
     r.t(i) = family == Family::BoxCox ? std::log(v) : std::log1p(std::fabs(v));
     r.d(i) = math::log_deriv(family, v, 2.0);  // (2 - 1) d_i
@@ -261,18 +258,24 @@ LambdaInfluence lambda_influence(const double* y, const double* X, std::size_t n
     for (std::size_t i = 0; i < n; ++i) used[i] = i;
   }
   const std::size_t N = used.size();
-  const std::vector<double> yu = pick(y, n, 1, used);
-  const std::vector<double> Xu = pick(X, n, p, used);
+  // The used rows: the caller's arrays themselves when every row is used.
+  std::vector<double> y_pick, X_pick;
+  if (N < n) {
+    y_pick = pick(y, n, 1, used);
+    X_pick = pick(X, n, p, used);
+  }
+  const double* yu = N < n ? y_pick.data() : y;
+  const double* Xu = N < n ? X_pick.data() : X;
 
   LambdaInfluence out;
   std::unique_ptr<LeastSquares> ls;
   ProfileFn profile;
   if (!weights) {
-    ls.reset(new LeastSquares(Xu.data(), N, p));
+    ls.reset(new LeastSquares(Xu, N, p));
     // Validates y, the options and the family's domain, and gives the interval.
-    out.full = estimate_response_lambda(yu.data(), *ls, family, opt);
+    out.full = estimate_response_lambda(yu, *ls, family, opt);
     profile = [&](const std::vector<double>& g) {
-      return response_lambda_profile(yu.data(), *ls, family, g.data(), g.size());
+      return response_lambda_profile(yu, *ls, family, g.data(), g.size());
     };
   } else {
     std::vector<double> wu(N), design(N * (p + 1));
@@ -283,9 +286,9 @@ LambdaInfluence lambda_influence(const double* y, const double* X, std::size_t n
       for (std::size_t c = 0; c < p; ++c) design[(c + 1) * N + r] = s * Xu[c * N + r];
     }
     ls.reset(new LeastSquares(design.data(), N, p + 1, false));
-    out.full = weighted_estimate(yu.data(), Xu.data(), N, p, family, opt, wu.data());
+    out.full = weighted_estimate(yu, Xu, N, p, family, opt, wu.data());
     profile = [&, wu](const std::vector<double>& g) {
-      return weighted_profile(opt, yu.data(), Xu.data(), N, p, family, wu.data(), g);
+      return weighted_profile(opt, yu, Xu, N, p, family, wu.data(), g);
     };
   }
   const std::size_t rank = ls->rank();
@@ -293,7 +296,7 @@ LambdaInfluence lambda_influence(const double* y, const double* X, std::size_t n
     throw Error(ErrorCode::Singular,
                 "leaving one row out of " + std::to_string(N) + " rows leaves no residual degrees of "
                 "freedom for a design of rank " + std::to_string(rank) + ": more rows are needed");
-  const Rows rows = prepare(yu, weights, used, family);
+  const Rows rows = prepare(yu, N, weights, used, family);
   const Eigen::VectorXd h = ls->leverages();
   const double Nd = static_cast<double>(N), m = Nd - 1.0;
   const RowProfile row_profile{m / Nd, rows.d.sum() / Nd, 0.5 * m};
