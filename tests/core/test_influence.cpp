@@ -107,6 +107,23 @@ TEST_CASE("leave-one-out lambda at n = 6000 (binned profile) equals refits", "[i
   }
 }
 
+TEST_CASE("Yeo-Johnson with responses of both signs equals refits", "[influence]") {
+  const int n = 35;
+  std::vector<double> y, X;
+  simulate(n, 41u, y, X);
+  for (int i = 0; i < n; ++i) y[i] -= 20.0;  // about a third of the values below 0
+  y[8] -= 30.0;
+  const LambdaInfluence inf = lambda_influence(y.data(), X.data(), n, 2, Family::YeoJohnson);
+  for (int k = 0; k < n; ++k) {
+    const std::vector<double> yk = drop_row(y, n, 1, k), Xk = drop_row(X, n, 2, k);
+    const LambdaEstimate ref =
+        estimate_response_lambda(yk.data(), Xk.data(), n - 1, 2, Family::YeoJohnson);
+    CAPTURE(k);
+    // Brent's tolerance (~1.5e-8 relative) on both maximisers
+    CHECK(inf.loo_lambda[k] == Approx(ref.lambda).margin(1e-6));
+  }
+}
+
 TEST_CASE("leverages come from the one factorisation", "[influence]") {
   const int n = 25;
   std::vector<double> y, X;
