@@ -218,6 +218,18 @@ struct HasWeights : std::false_type {};
 template <class O>
 struct HasWeights<O, decltype(void(std::declval<O&>().weights))> : std::true_type {};
 
+// Weights carried by the options themselves, and the options without them.
+template <class O>
+const double* weights_of(const O& opt) {
+  if constexpr (HasWeights<O>::value) return opt.weights;
+  else return nullptr;
+}
+template <class O>
+O without_weights(O opt) {
+  if constexpr (HasWeights<O>::value) opt.weights = nullptr;
+  return opt;
+}
+
 template <class O>
 LambdaEstimate weighted_estimate(const double* y, const double* X, std::size_t n, std::size_t p,
                                  Family family, O opt, const double* w) {
@@ -244,7 +256,10 @@ std::vector<double> weighted_profile(const O& opt, const double* y, const double
 }  // namespace
 
 LambdaInfluence lambda_influence(const double* y, const double* X, std::size_t n, std::size_t p,
-                                 Family family, const LambdaOptions& opt, const double* weights) {
+                                 Family family, const LambdaOptions& options,
+                                 const double* weights) {
+  if (!weights) weights = weights_of(options);
+  const LambdaOptions opt = without_weights(options);
   require(family == Family::BoxCox || family == Family::YeoJohnson,
           "lambda influence needs the box-cox or yeo-johnson family");
   require(y != nullptr && (X != nullptr || p == 0), "y or X is NULL");

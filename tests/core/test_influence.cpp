@@ -163,6 +163,17 @@ double weighted_refit(const std::vector<double>& y, const std::vector<double>& X
     return 0.0;
   }
 }
+// The same weights given through the options instead of the argument.
+template <class O>
+std::vector<double> through_options(const std::vector<double>& y, const std::vector<double>& X,
+                                    const std::vector<double>& w, int n, O opt) {
+  if constexpr (HasWeights<O>::value) {
+    opt.weights = w.data();
+    return lambda_influence(y.data(), X.data(), n, 2, Family::BoxCox, opt).loo_lambda;
+  } else {
+    return {};
+  }
+}
 }  // namespace
 
 TEST_CASE("weighted leave-one-out lambda equals weighted refits without each row",
@@ -180,6 +191,7 @@ TEST_CASE("weighted leave-one-out lambda equals weighted refits without each row
     const LambdaInfluence inf = lambda_influence(y.data(), X.data(), n, 2, Family::BoxCox, {}, w.data());
     CHECK(inf.loo_lambda[9] == inf.full.lambda);
     CHECK(inf.leverage[9] == 0.0);
+    CHECK(through_options(y, X, w, n, LambdaOptions{}) == inf.loo_lambda);
     for (int k = 0; k < n; ++k) {
       if (k == 9) continue;
       CAPTURE(k);

@@ -44,7 +44,8 @@ struct LambdaInfluence {
 };
 
 // y: n responses; X: n-by-p predictors column-major, no intercept column (one is added).
-// family: BoxCox or YeoJohnson. weights: n precision weights >= 0, or NULL for none.
+// family: BoxCox or YeoJohnson. weights: n precision weights >= 0, or NULL: then the options'
+// own weights where LambdaOptions carries them, else none.
 // Errors as estimate_response_lambda; IndexedError(NonFinite / Domain) for non-finite or
 // negative weights (count and first rows); Error(Singular) when N - 1 <= rank + 1 (a left-out fit
 // would have no residual degrees of freedom for the profile).
