@@ -571,6 +571,9 @@ typedef struct pwb_box_tidwell_options {
   int max_iter;         /* iterations of the power update; default 50 */
   double tol;           /* converged when every power changes by less than tol; default 1e-6 */
   double max_abs_power; /* a power beyond +-this stops the iteration (not converged); default 20 */
+  /* Fields below were appended in 0.2; a smaller struct_size leaves them at their defaults. */
+  double level;          /* level of the Wald intervals; the advice tests at 1 - level; 0.95 */
+  const double *weights; /* n precision weights >= 0 (a zero weight drops the row), or NULL */
 } pwb_box_tidwell_options;
 
 /* Sets struct_size and the defaults. NULL is ignored. */
@@ -583,26 +586,57 @@ typedef struct pwb_box_tidwell_result {
   int converged;      /* 1 when the last change was below tol, else 0 */
   double last_change; /* the largest change of a power in the last update */
   double score_df;    /* residual degrees of freedom of the score-test fits */
-  size_t n;           /* rows used */
+  size_t n;           /* rows used (weight > 0) */
+  /* Fields below were appended in 0.2 and are read by pwb_box_tidwell_fit only: caller-owned
+   * output buffers, m values each unless said otherwise; any may be NULL to skip it. */
+  double *alpha;      /* the powers */
+  double *se;         /* their standard errors */
+  double *conf_low;   /* Wald interval at opt->level: alpha -+ z se, z the normal quantile */
+  double *conf_high;
+  double *score_t;    /* score test of power 1: t statistic of X_j log X_j */
+  double *score_p;    /* its two-sided p-value */
+  int *advice;        /* PWB_BT_LINEAR, PWB_BT_LOG or PWB_BT_POWER (see pwb_box_tidwell_fit) */
+  double *suggested;  /* the advised power: 1 (linear), 0 (log) or the convenient power */
+  double *history;    /* m * (max_iter + 1) values: history[k*m + j] is power j after k updates */
 } pwb_box_tidwell_result;
+
+/* The advice of pwb_box_tidwell_fit for one variable. */
+#define PWB_BT_LINEAR 0 /* leave the variable linear */
+#define PWB_BT_LOG 1    /* take its log */
+#define PWB_BT_POWER 2  /* raise it to the suggested power */
 
 /* Box & Tidwell (1962) powers a_j of the m positive predictors X in
  *   y = b0 + sum_j b_j X_j^(a_j) + Z c + e,
  * iterated from a_j = 1 by the linearised update until every power changes by less than tol.
  * y: n values. Z: n-by-q other predictors, column-major, no intercept column (one is added);
- * NULL when q is 0. X: n-by-m, column-major, every value > 0.
- * Outputs (caller-owned, m values each): alpha (the powers), se (their standard errors from the
- * linearised fit at the final powers), score_t and score_p (t statistic and two-sided p-value of
- * the added column X_j log X_j in the fit with every X linear: the test of power 1). score_t and
- * score_p may be NULL. history may be NULL or hold m * (max_iter + 1) values (max_iter from
- * opt, 50 when opt is NULL): column k
- * (history[k*m + j]) holds the powers after k updates (column 0 is all 1), NaN after the last.
+ * NULL when q is 0. X: n-by-m, column-major, every value > 0 (rows of weight 0 excepted).
+ * opt: NULL for the defaults. With opt->weights every fit is weighted least squares (precision
+ * weights, as R's lm).
+ * out: struct_size set; its summary fields are written, and its buffer fields (caller-owned;
+ * each may be NULL) receive: alpha, se (from the linearised fit at the final powers), the Wald
+ * interval conf_low/conf_high at opt->level, score_t and score_p (t statistic and two-sided
+ * p-value of the added column X_j log X_j in the fit with every X linear: the test of power 1),
+ * advice and suggested, and history (m * (max_iter + 1) values: column k holds the powers after
+ * k updates, column 0 all 1, NaN after the last). The advice is PWB_BT_LINEAR (suggested 1) when
+ * the score test does not reject at 1 - level or the interval holds 1; otherwise the convenient
+ * power inside the interval (pwb_convenient_lambda's rule) as PWB_BT_LOG
+ * when it is 0, else PWB_BT_POWER.
  * Non-convergence is reported in out->converged, not as an error; the powers are then the last
- * finite iterate. Errors: PWB_ERR_ARGUMENT (NULL pointers, m == 0, n too small for the fit,
- * bad options or struct_size); PWB_ERR_NONFINITE and PWB_ERR_DOMAIN (a non-finite value, or an X
- * value <= 0: the message names the 0-based column of X, the count and the first rows);
- * PWB_ERR_SINGULAR (a variable aliased with the others or with a zero coefficient).
- * Thread-safe: reads only its arguments. */
+ * finite iterate. Errors: PWB_ERR_ARGUMENT (NULL y, X or out, m == 0, n too small for the fit,
+ * bad options or struct_size); PWB_ERR_NONFINITE and PWB_ERR_DOMAIN (a non-finite value, an X
+ * value <= 0, a negative weight: the message names the variable or the weights, the count and
+ * the first rows); PWB_ERR_SINGULAR (a variable aliased with the others or with a zero
+ * coefficient). Thread-safe: reads only its arguments. */
+PWB_API pwb_status pwb_box_tidwell_fit(const double *y, const double *Z, size_t n, size_t q,
+                                       const double *X, size_t m,
+                                       const pwb_box_tidwell_options *opt,
+                                       pwb_box_tidwell_result *out);
+
+/* Deprecated (kept for callers of 0.1; prefer pwb_box_tidwell_fit): the same run with the
+ * outputs as separate arguments. alpha and se are required (m values each); score_t, score_p
+ * and history may be NULL (history: m * (max_iter + 1) values, max_iter 50 when opt is NULL).
+ * out needs only the 0.1 fields (its buffer fields are not read). Errors as pwb_box_tidwell_fit.
+ * Thread-safe. */
 PWB_API pwb_status pwb_box_tidwell(const double *y, const double *Z, size_t n, size_t q,
                                    const double *X, size_t m, const pwb_box_tidwell_options *opt,
                                    double *alpha, double *se, double *score_t, double *score_p,
@@ -614,6 +648,8 @@ typedef struct pwb_influence_options {
   pwb_family family;  /* PWB_BOX_COX (default) or PWB_YEO_JOHNSON */
   double lower, upper; /* lambda search range; default -3, 3 */
   double level;       /* level of the full-data likelihood-ratio interval; default 0.95 */
+  /* Appended in 0.2; a smaller struct_size leaves it NULL. */
+  const double *weights; /* n precision weights >= 0 (a zero weight drops the row), or NULL */
 } pwb_influence_options;
 
 /* Sets struct_size and the defaults. NULL is ignored. */
@@ -629,19 +665,25 @@ typedef struct pwb_influence_summary {
   int converged;       /* 1 when the full-data searches met their tolerances */
   size_t n;            /* rows */
   size_t n_outside;    /* rows whose deletion moves lambda-hat outside [conf_low, conf_high] */
+                       /* (counted by the core; equals the number of outside[i] == 1) */
   size_t n_loo_at_bound; /* rows whose leave-one-out lambda-hat is at a range end */
 } pwb_influence_summary;
 
 /* Leave-one-out maximum-likelihood lambda of the response y given predictors X (n-by-p,
  * column-major, no intercept column; NULL when p is 0): for each row i, the lambda-hat of the
- * data without row i. The design is factored once; each row's residual sum of squares comes
- * from the full fit by the deletion identity RSS - e_i^2 / (1 - h_ii), so no design is refitted.
+ * data without row i. The design is factored once; each row's profile is the full-data profile
+ * corrected by the deletion identity RSS_(i) = RSS - e_i^2 / (1 - h_ii), with the full profile
+ * and the residuals interpolated on a window around lambda-hat (rows whose maximum leaves the
+ * window are solved on the exact profile), so the cost grows linearly in n and every answer is
+ * the leave-one-out maximiser to the search's tolerance. With opt->weights the profile is the
+ * weighted one (weighted residual sum of squares, unweighted Jacobian) and a zero-weight row is
+ * not used (its loo_lambda is the full lambda-hat, its leverage 0).
  * Outputs (caller-owned, n values each; any may be NULL to skip it): loo_lambda, leverage (h_ii),
  * outside (1 when loo_lambda[i] lies outside the full-data interval), at_bound (1 when
  * loo_lambda[i] is at a range end). Errors: as for the full estimate (PWB_ERR_NONFINITE,
- * PWB_ERR_DOMAIN with count and first rows, PWB_ERR_ARGUMENT for bad options or NULL y, summary),
- * and PWB_ERR_SINGULAR when fewer than rank + 3 rows leave no residual degrees of freedom once
- * a row is out. Thread-safe: reads only its arguments. */
+ * PWB_ERR_DOMAIN with count and first rows, for y and for the weights; PWB_ERR_ARGUMENT for bad
+ * options or NULL y, summary), and PWB_ERR_SINGULAR when fewer than rank + 3 rows leave no
+ * residual degrees of freedom once a row is out. Thread-safe: reads only its arguments. */
 PWB_API pwb_status pwb_lambda_influence(const double *y, const double *X, size_t n, size_t p,
                                         const pwb_influence_options *opt,
                                         pwb_influence_summary *summary, double *loo_lambda,

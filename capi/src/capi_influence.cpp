@@ -1,4 +1,6 @@
 // Leave-one-out lambda through the C ABI.
+#include <cstddef>
+
 #include "capi_internal.hpp"
 #include "capi_sizes.hpp"
 #include "powerback/influence.hpp"
@@ -15,6 +17,7 @@ void pwb_influence_options_init(pwb_influence_options* opt) {
   opt->lower = d.lower;
   opt->upper = d.upper;
   opt->level = d.level;
+  opt->weights = nullptr;
 }
 
 pwb_status pwb_lambda_influence(const double* y, const double* X, size_t n, size_t p,
@@ -26,16 +29,21 @@ pwb_status pwb_lambda_influence(const double* y, const double* X, size_t n, size
     capi::need_sized(summary, "summary", "pwb_influence_summary");
     LambdaOptions o;
     Family fam = Family::BoxCox;
+    const double* weights = nullptr;
     if (opt) {
-      capi::need_struct(opt->struct_size, sizeof(pwb_influence_options), "pwb_influence_options");
+      // 0.1 callers' struct ends before the appended weights, which are then absent.
+      capi::need_struct(opt->struct_size, offsetof(pwb_influence_options, weights),
+                        "pwb_influence_options");
       if (opt->family != PWB_BOX_COX && opt->family != PWB_YEO_JOHNSON)
         throw Error(ErrorCode::Argument, "lambda influence needs family PWB_BOX_COX or PWB_YEO_JOHNSON");
       fam = static_cast<Family>(opt->family);
       o.lower = opt->lower;
       o.upper = opt->upper;
       o.level = opt->level;
+      if (opt->struct_size >= offsetof(pwb_influence_options, weights) + sizeof opt->weights)
+        weights = opt->weights;
     }
-    const LambdaInfluence r = lambda_influence(y, X, n, p, fam, o);
+    const LambdaInfluence r = lambda_influence(y, X, n, p, fam, o, weights);
     summary->lambda = r.full.lambda;
     summary->conf_low = r.full.conf_low;
     summary->conf_high = r.full.conf_high;
@@ -43,11 +51,9 @@ pwb_status pwb_lambda_influence(const double* y, const double* X, size_t n, size
     summary->at_bound = r.full.at_bound ? 1 : 0;
     summary->converged = r.full.converged ? 1 : 0;
     summary->n = n;
-    summary->n_outside = 0;
-    summary->n_loo_at_bound = 0;
+    summary->n_outside = r.n_outside;
+    summary->n_loo_at_bound = r.n_at_bound;
     for (std::size_t i = 0; i < n; ++i) {
-      summary->n_outside += r.outside[i];
-      summary->n_loo_at_bound += r.at_bound[i];
       if (loo_lambda) loo_lambda[i] = r.loo_lambda[i];
       if (leverage) leverage[i] = r.leverage[i];
       if (outside) outside[i] = r.outside[i];

@@ -13,10 +13,16 @@
 #' a time); a small p-value says the straight line in \eqn{x_j} misses curvature. Standard errors
 #' come from the linearised fit at the final powers, so the intervals are Wald intervals.
 #'
-#' The suggested transform of each variable is `"log"` when \eqn{|\hat\alpha| < 0.25} and 0 lies
-#' inside the interval (the power family approaches the log as the power goes to 0), and
-#' otherwise `"power"` with the estimated power. Feed them to `lm_transformed()` through its
-#' `predictors` argument.
+#' The advice for each variable (column `suggest`) leaves it linear when the score test does not
+#' reject power 1 at level `1 - level` or the interval holds 1; otherwise it takes the convenient
+#' power inside the interval (of \eqn{-2, -1, -1/2, -1/3, 0, 1/3, 1/2, 1, 2} the one nearest the
+#' estimate, as for the response's power; the estimate rounded to 2 decimals when none is
+#' inside), as `"log"` when that power is 0. The advice and the intervals are computed by the
+#' compiled core. `transforms` holds the advice as `pwb_transform` objects (`"identity"` for
+#' linear); feed them to `lm_transformed()` through its `predictors` argument.
+#'
+#' With `weights`, every fit is weighted least squares (precision weights, as in [stats::lm()]);
+#' a weight of 0 leaves its row out.
 #'
 #' Cautions: a power of a predictor changes what its coefficient means (an effect per unit of
 #' \eqn{x^\alpha}, not per unit of \eqn{x}); the estimate is only as good as the rest of the
@@ -26,16 +32,21 @@
 #' @param object a model formula (with `data`) or a fitted `lm`.
 #' @param data a data frame with the variables of the formula (for an `lm`, taken from its call
 #'   when `NULL`). Rows with missing values are handled by the usual `na.action`.
+#' @param weights optional precision weights (finite, at least 0), evaluated in `data` as in
+#'   [stats::lm()]. A weighted `lm` given as `object` brings its own.
+#' @param subset optional expression selecting rows of `data`, as in [stats::lm()].
 #' @param vars names of the predictors whose powers are estimated; each must enter the formula
 #'   as a plain term and be positive. `NULL` takes every numeric plain-term predictor.
 #' @param max_iter the most updates of the powers.
 #' @param tol convergence tolerance on the change of the powers.
 #' @param level confidence level of the Wald intervals.
 #' @return An object of class `pwb_box_tidwell`: a list with `table` (one row per variable:
-#'   `variable`, `power`, `se`, `conf_low`, `conf_high`, `score_t`, `score_p`, `transform`),
+#'   `variable`, `power`, `se`, `conf_low`, `conf_high`, `score_t`, `score_p`, `advice`
+#'   (`"linear"`, `"log"` or `"power"`), `suggested` (the advised power: 1, 0 or the convenient
+#'   power), `transform`),
 #'   `transforms` (named list of `pwb_transform`), `iterations`, `converged`, `max_iter`, `tol`,
 #'   `last_change`, `history` (powers after each update, one column per update, the first all 1),
-#'   `score_df`, `n`, `level` and `formula`.
+#'   `score_df`, `n` (rows used), `level`, `weighted` and `formula`.
 #' @references Box, G. E. P. and Tidwell, P. W. (1962). Transformation of the independent
 #'   variables. Technometrics 4, 531-550.
 #' @examples
@@ -46,15 +57,16 @@
 #' bt
 #' bt$transforms$flow_m3s
 #' @export
-box_tidwell <- function(object, data = NULL, vars = NULL, max_iter = 50L, tol = 1e-6,
-                        level = 0.95) {
+box_tidwell <- function(object, data = NULL, vars = NULL, weights = NULL, subset = NULL,
+                        max_iter = 50L, tol = 1e-6, level = 0.95) {
   pwb_cmp_check_level(level)
   if (!is.numeric(max_iter) || length(max_iter) != 1L || is.na(max_iter) || max_iter < 1)
     stop("`max_iter` must be a whole number >= 1", call. = FALSE)
   if (!is.numeric(tol) || length(tol) != 1L || is.na(tol) || tol <= 0)
     stop("`tol` must be a positive number", call. = FALSE)
-  fr <- pwb_cmp_frame(object, data, "box_tidwell")
-  X <- pwb_cmp_design(fr, "box_tidwell")
+  fr <- pwb_weighted_frame(object, data, substitute(weights), substitute(subset), parent.frame(),
+                           "box_tidwell")
+  X <- fr$X
   labels <- attr(fr$terms, "term.labels")
   plain <- labels[vapply(labels, function(v) v %in% names(fr$mf) && is.numeric(fr$mf[[v]]) &&
                                                !is.matrix(fr$mf[[v]]), logical(1))]
@@ -69,14 +81,15 @@ box_tidwell <- function(object, data = NULL, vars = NULL, max_iter = 50L, tol = 
   if (length(bad) > 0L)
     stop(sprintf("`vars` must name numeric predictors entering the formula as plain terms; not: %s",
                  paste(bad, collapse = ", ")), call. = FALSE)
+  used <- if (is.null(fr$weights)) rep(TRUE, length(fr$y)) else fr$weights > 0
   for (v in vars) {
-    nonpos <- which(fr$mf[[v]] <= 0)
+    nonpos <- which(fr$mf[[v]] <= 0 & used)
     if (length(nonpos) > 0L)
       stop(sprintf(paste0("Box-Tidwell powers need positive values: `%s` has %d %s <= 0, at %s %s:",
                           " shift it (e.g. %s + c with c > %s) or leave it out of `vars`"),
                    v, length(nonpos), pwb_plural(length(nonpos), "value"),
-                   pwb_plural(length(nonpos), "row"), pwb_format_rows(fr$rows[nonpos]), v,
-                   format(-min(fr$mf[[v]]), digits = 4)), call. = FALSE)
+                   pwb_plural(length(nonpos), "row"), pwb_format_labels(fr$labels[nonpos]), v,
+                   format(-min(fr$mf[[v]][used]), digits = 4)), call. = FALSE)
   }
   fac <- attr(fr$terms, "factors")
   shared <- vars[vapply(vars, function(v) sum(fac[v, ] != 0) > 1L, logical(1))]
@@ -86,17 +99,16 @@ box_tidwell <- function(object, data = NULL, vars = NULL, max_iter = 50L, tol = 
                  paste0("`", shared, "`", collapse = ", "),
                  if (length(shared) == 1L) "appears" else "appear"), call. = FALSE)
   Z <- X[, setdiff(colnames(X), vars), drop = FALSE]
-  res <- rpwb_box_tidwell(fr$y, Z, X[, vars, drop = FALSE], as.integer(max_iter), tol)
-  zq <- stats::qnorm(0.5 + level / 2)
-  lo <- res$alpha - zq * res$se
-  hi <- res$alpha + zq * res$se
-  use_log <- abs(res$alpha) < 0.25 & lo <= 0 & hi >= 0
+  res <- rpwb_box_tidwell(fr$y, Z, X[, vars, drop = FALSE], as.integer(max_iter), tol, level,
+                          fr$weights)
   transforms <- lapply(seq_along(vars), function(j) {
-    if (use_log[j]) new_transform("log") else new_transform("power", lambda = res$alpha[j])
+    switch(res$advice[j], linear = new_transform("identity"), log = new_transform("log"),
+           new_transform("power", lambda = res$suggested[j]))
   })
   names(transforms) <- vars
-  table <- data.frame(variable = vars, power = res$alpha, se = res$se, conf_low = lo,
-                      conf_high = hi, score_t = res$score_t, score_p = res$score_p,
+  table <- data.frame(variable = vars, power = res$alpha, se = res$se, conf_low = res$conf_low,
+                      conf_high = res$conf_high, score_t = res$score_t, score_p = res$score_p,
+                      advice = res$advice, suggested = res$suggested,
                       transform = vapply(transforms, format, character(1)),
                       stringsAsFactors = FALSE)
   rownames(table) <- NULL
@@ -106,31 +118,36 @@ box_tidwell <- function(object, data = NULL, vars = NULL, max_iter = 50L, tol = 
   structure(list(table = table, transforms = transforms, iterations = res$iterations,
                  converged = res$converged, max_iter = as.integer(max_iter), tol = tol,
                  last_change = res$last_change, history = history, score_df = res$score_df,
-                 n = length(fr$y), level = level, formula = stats::formula(fr$terms)),
+                 n = as.integer(res$n), level = level, weighted = !is.null(fr$weights),
+                 formula = stats::formula(fr$terms)),
             class = "pwb_box_tidwell")
 }
 
 #' @export
 print.pwb_box_tidwell <- function(x, digits = 4, ...) {
-  cat("<pwb_box_tidwell> Box-Tidwell powers for ", deparse1(x$formula), " (n = ", x$n, ")\n",
-      sep = "")
+  cat(strwrap(paste0("<pwb_box_tidwell> Box-Tidwell powers for ", deparse1(x$formula),
+                     " (n = ", x$n, ")"), width = getOption("width"), exdent = 2), sep = "\n")
   tab <- x$table
   num <- c("power", "se", "conf_low", "conf_high", "score_t")
   tab[num] <- lapply(tab[num], signif, digits = digits)
   tab$score_p <- format.pval(tab$score_p, digits = 3)
-  tab$transform <- vapply(x$transforms, function(t)
-    if (t$family == "power") sprintf("power(%s)", signif(t$lambda, digits)) else t$family,
-    character(1))
+  tab$suggest <- ifelse(tab$advice == "linear", "none (linear)",
+                        ifelse(tab$advice == "log", "log",
+                               sprintf("power(%s)", signif(tab$suggested, digits))))
+  tab$advice <- tab$suggested <- tab$transform <- NULL
   names(tab)[names(tab) == "conf_low"] <- sprintf("lower %g%%", 100 * x$level)
   names(tab)[names(tab) == "conf_high"] <- sprintf("upper %g%%", 100 * x$level)
   print(tab, row.names = FALSE, ...)
-  cat(sprintf("score test of power 1: t on %g df; ", x$score_df))
+  cat(sprintf("score test of power 1: t on %g df%s; ", x$score_df,
+              if (isTRUE(x$weighted)) " (weighted fits)" else ""))
   if (x$converged) {
     cat(sprintf("converged in %d updates (tol %g)\n", x$iterations, x$tol))
   } else {
     cat(sprintf("NOT converged after %d updates (last change %.3g, tol %g): treat the powers as rough\n",
                 x$iterations, x$last_change, x$tol))
   }
+  cat(sprintf("suggest: none if the score test does not reject at %g or 1 is in the interval\n",
+              1 - x$level))
   cat("A power changes what a coefficient means; judge the result with knowledge of the data.\n")
   invisible(x)
 }

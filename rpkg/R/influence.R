@@ -7,8 +7,16 @@
 #'
 #' The design is factored once. At each trial power the residuals \eqn{e} of the full fit give
 #' every leave-one-out residual sum of squares through the deletion identity
-#' \eqn{RSS_{(i)} = RSS - e_i^2 / (1 - h_{ii})} (\eqn{h} the leverages), so no model is refitted:
-#' the results equal refitting without each row, at a fraction of the cost.
+#' \eqn{RSS_{(i)} = RSS - e_i^2 / (1 - h_{ii})} (\eqn{h} the leverages), so no model is refitted;
+#' the full-data profile and the residuals are interpolated on a window around
+#' \eqn{\hat\lambda} shared by all rows (rows that move the estimate beyond it are solved on
+#' the exact profile), so the cost grows linearly with the number of rows and the results equal
+#' refitting without each row to the search's tolerance.
+#'
+#' With `weights` (precision weights, as in [stats::lm()]) the profile is the weighted one: the
+#' weighted residual sum of squares with the unweighted Jacobian of the transform, so that at a
+#' fixed power it equals `logLik()` of the weighted `lm` on the transformed scale plus the
+#' Jacobian. Rows of weight 0 are left out (as `lm` does) and do not appear in `rows`.
 #'
 #' Cautions: a transform changes what the model estimates; back-transformed means need a
 #' correction; and a flagged row is a prompt to check the data and the model, not a reason to
@@ -18,14 +26,17 @@
 #'   response family when the response power was estimated), a fitted `lm`, or a formula (with
 #'   `data`).
 #' @param data a data frame, needed when `object` is a formula.
+#' @param weights optional precision weights (finite, at least 0), evaluated in `data` as in
+#'   [stats::lm()]. A weighted `lm` given as `object` brings its own.
+#' @param subset optional expression selecting rows of `data`, as in [stats::lm()].
 #' @param family `"box-cox"` (positive responses) or `"yeo-johnson"`. For a `pwb_model` whose
 #'   response power was estimated, its family is used.
 #' @param range the search range of the power.
 #' @param level the level of the full-data interval.
 #' @return An object of class `pwb_influence`: a list with `rows` (a data frame with `row`, the
-#'   row of the data; `lambda`, the power without that row; `delta`, its change from the
+#'   row of the data: its row name where the data have their own, else its position; `lambda`, the power without that row; `delta`, its change from the
 #'   full-data power; `leverage`; `outside`, the flag; `at_bound`), and `lambda`, `conf_int`,
-#'   `family`, `level`, `range` and `n`.
+#'   `family`, `level`, `range`, `n` (rows used), `n_outside` and `weighted`.
 #' @examples
 #' river <- river_data()
 #' inf <- lambda_influence(sediment_t_day ~ log(flow_m3s) + rain72_mm + season, river)
@@ -33,49 +44,53 @@
 #' plot(inf)
 #' @export
 lambda_influence <- function(object, data = NULL, family = c("box-cox", "yeo-johnson"),
-                             range = c(-3, 3), level = 0.95) {
+                             range = c(-3, 3), level = 0.95, weights = NULL, subset = NULL) {
   family <- match.arg(family)
   pwb_cmp_check_level(level)
   if (!is.numeric(range) || length(range) != 2L || anyNA(range) || range[1L] >= range[2L])
     stop("`range` must be two numbers, lower < upper", call. = FALSE)
   if (inherits(object, "pwb_model")) {
     if (!is.null(object$response_lambda)) family <- object$response_lambda$family
-    fr <- pwb_cmp_frame(object$lm, NULL, "lambda_influence")
+    fr <- pwb_weighted_frame(object$lm, NULL, NULL, NULL, parent.frame(), "lambda_influence")
     fr$y <- as.double(object$y)
     fr$yname <- object$yname
-    fr$rows <- seq_len(nrow(object$data))
-    if (!is.null(object$lm$na.action)) fr$rows <- fr$rows[-as.integer(object$lm$na.action)]
+    rows <- seq_len(nrow(object$data))
+    if (!is.null(object$lm$na.action)) rows <- rows[-as.integer(object$lm$na.action)]
+    fr$labels <- if (.row_names_info(object$data) > 0L) rownames(object$data)[rows] else rows
   } else {
-    fr <- pwb_cmp_frame(object, data, "lambda_influence")
+    fr <- pwb_weighted_frame(object, data, substitute(weights), substitute(subset), parent.frame(),
+                             "lambda_influence")
   }
-  X <- pwb_cmp_design(fr, "lambda_influence")
-  if (family == "box-cox" && any(fr$y <= 0)) {
-    bad <- which(fr$y <= 0)
+  used <- if (is.null(fr$weights)) rep(TRUE, length(fr$y)) else fr$weights > 0
+  if (family == "box-cox" && any(fr$y <= 0 & used)) {
+    bad <- which(fr$y <= 0 & used)
     stop(sprintf(paste0("box-cox needs a positive response: `%s` has %d %s <= 0, at %s %s: ",
                         "use family = \"yeo-johnson\""), fr$yname, length(bad),
                  pwb_plural(length(bad), "value"), pwb_plural(length(bad), "row"),
-                 pwb_format_rows(fr$rows[bad])), call. = FALSE)
+                 pwb_format_labels(fr$labels[bad])), call. = FALSE)
   }
-  res <- rpwb_lambda_influence(fr$y, X, family, range[1L], range[2L], level)
-  rows <- data.frame(row = fr$rows, lambda = res$loo_lambda, delta = res$loo_lambda - res$lambda,
+  res <- rpwb_lambda_influence(fr$y, fr$X, family, range[1L], range[2L], level, fr$weights)
+  rows <- data.frame(row = fr$labels, lambda = res$loo_lambda, delta = res$loo_lambda - res$lambda,
                      leverage = res$leverage, outside = res$outside == 1L,
-                     at_bound = res$loo_at_bound == 1L)
+                     at_bound = res$loo_at_bound == 1L, stringsAsFactors = FALSE)[used, , drop = FALSE]
+  rownames(rows) <- NULL
   structure(list(rows = rows, lambda = res$lambda, conf_int = res$conf_int, family = family,
-                 level = level, range = range, n = length(fr$y), yname = fr$yname,
-                 at_bound = res$at_bound),
+                 level = level, range = range, n = sum(used), n_outside = res$n_outside,
+                 yname = fr$yname, at_bound = res$at_bound, weighted = !is.null(fr$weights)),
             class = "pwb_influence")
 }
 
 #' @export
 print.pwb_influence <- function(x, n = 5L, ...) {
-  cat(sprintf("<pwb_influence> leave-one-out %s power of `%s` (n = %d)\n", x$family, x$yname, x$n))
+  cat(sprintf("<pwb_influence> leave-one-out %s power of `%s` (n = %d%s)\n", x$family, x$yname,
+              x$n, if (isTRUE(x$weighted)) ", weighted" else ""))
   cat(sprintf("full data: lambda = %.4g, %g%% interval [%.4g, %.4g]%s\n", x$lambda,
               100 * x$level, x$conf_int[1L], x$conf_int[2L],
               if (isTRUE(x$at_bound)) " (at the search bound)" else ""))
   r <- x$rows
   k <- sum(r$outside)
   cat(sprintf("%d %s whose deletion moves lambda outside the interval%s\n", k,
-              pwb_plural(k, "row"), if (k > 0L) paste0(": ", pwb_format_rows(r$row[r$outside])) else ""))
+              pwb_plural(k, "row"), if (k > 0L) paste0(": ", pwb_format_labels(r$row[r$outside])) else ""))
   if (any(r$at_bound))
     cat(sprintf("%d leave-one-out estimates at the search bound\n", sum(r$at_bound)))
   top <- utils::head(r[order(-abs(r$delta)), ], n)
@@ -92,11 +107,19 @@ plot.pwb_influence <- function(x, ...) {
   on.exit(graphics::par(old))
   col <- ifelse(r$outside, "red", "black")
   lim <- x$conf_int - x$lambda
-  graphics::plot(r$row, r$delta, type = "h", col = col, xlab = "row",
-                 ylab = expression(Delta * hat(lambda)), main = "change of lambda by row", ...)
+  named <- is.character(r$row)
+  pos <- if (named) seq_len(nrow(r)) else r$row
+  graphics::plot(pos, r$delta, type = "h", col = col, xlab = "row",
+                 ylab = expression(Delta * hat(lambda)), main = "change of lambda by row",
+                 xaxt = if (named) "n" else "s", ...)
+  if (named) graphics::axis(1, at = pos, labels = r$row, las = 2, cex.axis = 0.6, tick = FALSE)
   graphics::abline(h = c(0, lim), lty = c(1, 2, 2), col = "grey50")
   graphics::plot(r$leverage, r$delta, col = col, pch = 19, xlab = "leverage",
                  ylab = expression(Delta * hat(lambda)), main = "change vs leverage", ...)
   graphics::abline(h = c(0, lim), lty = c(1, 2, 2), col = "grey50")
+  # name the rows that move lambda most (and every flagged row)
+  top <- unique(c(which(r$outside), utils::head(order(-abs(r$delta)), 3L)))
+  if (length(top) > 0L)
+    graphics::text(r$leverage[top], r$delta[top], labels = r$row[top], pos = 3, cex = 0.7)
   invisible(x)
 }

@@ -12,8 +12,8 @@ Rcpp::Rostream<false>& Rcpp::Rcerr = Rcpp::Rcpp_cerr_get();
 #endif
 
 // rpwb_box_tidwell
-Rcpp::List rpwb_box_tidwell(Rcpp::NumericVector y, Rcpp::NumericMatrix Z, Rcpp::NumericMatrix X, int max_iter, double tol);
-RcppExport SEXP _powerback_rpwb_box_tidwell(SEXP ySEXP, SEXP ZSEXP, SEXP XSEXP, SEXP max_iterSEXP, SEXP tolSEXP) {
+Rcpp::List rpwb_box_tidwell(Rcpp::NumericVector y, Rcpp::NumericMatrix Z, Rcpp::NumericMatrix X, int max_iter, double tol, double level, Rcpp::Nullable<Rcpp::NumericVector> weights);
+RcppExport SEXP _powerback_rpwb_box_tidwell(SEXP ySEXP, SEXP ZSEXP, SEXP XSEXP, SEXP max_iterSEXP, SEXP tolSEXP, SEXP levelSEXP, SEXP weightsSEXP) {
 BEGIN_RCPP
     Rcpp::RObject rcpp_result_gen;
     Rcpp::RNGScope rcpp_rngScope_gen;
@@ -22,23 +22,9 @@ BEGIN_RCPP
     Rcpp::traits::input_parameter< Rcpp::NumericMatrix >::type X(XSEXP);
     Rcpp::traits::input_parameter< int >::type max_iter(max_iterSEXP);
     Rcpp::traits::input_parameter< double >::type tol(tolSEXP);
-    rcpp_result_gen = Rcpp::wrap(rpwb_box_tidwell(y, Z, X, max_iter, tol));
-    return rcpp_result_gen;
-END_RCPP
-}
-// rpwb_lambda_influence
-Rcpp::List rpwb_lambda_influence(Rcpp::NumericVector y, Rcpp::NumericMatrix X, std::string family, double lower, double upper, double level);
-RcppExport SEXP _powerback_rpwb_lambda_influence(SEXP ySEXP, SEXP XSEXP, SEXP familySEXP, SEXP lowerSEXP, SEXP upperSEXP, SEXP levelSEXP) {
-BEGIN_RCPP
-    Rcpp::RObject rcpp_result_gen;
-    Rcpp::RNGScope rcpp_rngScope_gen;
-    Rcpp::traits::input_parameter< Rcpp::NumericVector >::type y(ySEXP);
-    Rcpp::traits::input_parameter< Rcpp::NumericMatrix >::type X(XSEXP);
-    Rcpp::traits::input_parameter< std::string >::type family(familySEXP);
-    Rcpp::traits::input_parameter< double >::type lower(lowerSEXP);
-    Rcpp::traits::input_parameter< double >::type upper(upperSEXP);
     Rcpp::traits::input_parameter< double >::type level(levelSEXP);
-    rcpp_result_gen = Rcpp::wrap(rpwb_lambda_influence(y, X, family, lower, upper, level));
+    Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::NumericVector> >::type weights(weightsSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_box_tidwell(y, Z, X, max_iter, tol, level, weights));
     return rcpp_result_gen;
 END_RCPP
 }
@@ -83,6 +69,23 @@ BEGIN_RCPP
     Rcpp::traits::input_parameter< bool >::type intercept(interceptSEXP);
     Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::List> >::type response(responseSEXP);
     rcpp_result_gen = Rcpp::wrap(rpwb_model_checks(y, X, intercept, response));
+    return rcpp_result_gen;
+END_RCPP
+}
+// rpwb_lambda_influence
+Rcpp::List rpwb_lambda_influence(Rcpp::NumericVector y, Rcpp::NumericMatrix X, std::string family, double lower, double upper, double level, Rcpp::Nullable<Rcpp::NumericVector> weights);
+RcppExport SEXP _powerback_rpwb_lambda_influence(SEXP ySEXP, SEXP XSEXP, SEXP familySEXP, SEXP lowerSEXP, SEXP upperSEXP, SEXP levelSEXP, SEXP weightsSEXP) {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< Rcpp::NumericVector >::type y(ySEXP);
+    Rcpp::traits::input_parameter< Rcpp::NumericMatrix >::type X(XSEXP);
+    Rcpp::traits::input_parameter< std::string >::type family(familySEXP);
+    Rcpp::traits::input_parameter< double >::type lower(lowerSEXP);
+    Rcpp::traits::input_parameter< double >::type upper(upperSEXP);
+    Rcpp::traits::input_parameter< double >::type level(levelSEXP);
+    Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::NumericVector> >::type weights(weightsSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_lambda_influence(y, X, family, lower, upper, level, weights));
     return rcpp_result_gen;
 END_RCPP
 }
@@ -245,11 +248,11 @@ END_RCPP
 }
 
 static const R_CallMethodDef CallEntries[] = {
-    {"_powerback_rpwb_box_tidwell", (DL_FUNC) &_powerback_rpwb_box_tidwell, 5},
-    {"_powerback_rpwb_lambda_influence", (DL_FUNC) &_powerback_rpwb_lambda_influence, 6},
+    {"_powerback_rpwb_box_tidwell", (DL_FUNC) &_powerback_rpwb_box_tidwell, 7},
     {"_powerback_rpwb_cv_folds_by", (DL_FUNC) &_powerback_rpwb_cv_folds_by, 6},
     {"_powerback_rpwb_holdout_score", (DL_FUNC) &_powerback_rpwb_holdout_score, 4},
     {"_powerback_rpwb_model_checks", (DL_FUNC) &_powerback_rpwb_model_checks, 4},
+    {"_powerback_rpwb_lambda_influence", (DL_FUNC) &_powerback_rpwb_lambda_influence, 7},
     {"_powerback_rpwb_estimate_lambda", (DL_FUNC) &_powerback_rpwb_estimate_lambda, 6},
     {"_powerback_rpwb_estimate_response_lambda", (DL_FUNC) &_powerback_rpwb_estimate_response_lambda, 7},
     {"_powerback_rpwb_lambda_profile", (DL_FUNC) &_powerback_rpwb_lambda_profile, 4},

@@ -1,57 +1,8 @@
-// Rcpp glue for comparing transforms: Box-Tidwell, leave-one-out lambda, folds, held-out scores.
+// Rcpp glue for comparing transforms: folds, held-out scores.
 // Thin wrappers over powerback.h; the R callers validate and phrase rows.
 #include "glue_common.h"
 
 #include <vector>
-
-// [[Rcpp::export]]
-Rcpp::List rpwb_box_tidwell(Rcpp::NumericVector y, Rcpp::NumericMatrix Z, Rcpp::NumericMatrix X,
-                            int max_iter, double tol) {
-  const std::size_t n = static_cast<std::size_t>(y.size());
-  const std::size_t q = static_cast<std::size_t>(Z.ncol()), m = static_cast<std::size_t>(X.ncol());
-  pwb_box_tidwell_options opt;
-  pwb_box_tidwell_options_init(&opt);
-  opt.max_iter = max_iter;
-  opt.tol = tol;
-  pwb_box_tidwell_result res;
-  res.struct_size = sizeof res;
-  Rcpp::NumericVector alpha(m), se(m), t(m), p(m);
-  Rcpp::NumericMatrix hist(static_cast<int>(m), max_iter + 1);
-  rpwb::check(pwb_box_tidwell(y.begin(), q > 0 ? Z.begin() : nullptr, n, q, X.begin(), m, &opt,
-                              alpha.begin(), se.begin(), t.begin(), p.begin(), hist.begin(), &res));
-  for (auto& v : hist) v = rpwb::nan_to_na(v);
-  return Rcpp::List::create(
-      Rcpp::Named("alpha") = alpha, Rcpp::Named("se") = se, Rcpp::Named("score_t") = t,
-      Rcpp::Named("score_p") = p, Rcpp::Named("history") = hist,
-      Rcpp::Named("iterations") = res.iterations, Rcpp::Named("converged") = res.converged != 0,
-      Rcpp::Named("last_change") = res.last_change, Rcpp::Named("score_df") = res.score_df);
-}
-
-// [[Rcpp::export]]
-Rcpp::List rpwb_lambda_influence(Rcpp::NumericVector y, Rcpp::NumericMatrix X, std::string family,
-                                 double lower, double upper, double level) {
-  const std::size_t n = static_cast<std::size_t>(y.size()), p = static_cast<std::size_t>(X.ncol());
-  pwb_influence_options opt;
-  pwb_influence_options_init(&opt);
-  pwb_family f;
-  rpwb::check(pwb_family_from_name(family.c_str(), &f));
-  opt.family = f;
-  opt.lower = lower;
-  opt.upper = upper;
-  opt.level = level;
-  pwb_influence_summary s;
-  s.struct_size = sizeof s;
-  Rcpp::NumericVector loo(n), h(n);
-  Rcpp::IntegerVector out(n), bound(n);
-  rpwb::check(pwb_lambda_influence(y.begin(), p > 0 ? X.begin() : nullptr, n, p, &opt, &s,
-                                   loo.begin(), h.begin(), out.begin(), bound.begin()));
-  return Rcpp::List::create(
-      Rcpp::Named("lambda") = s.lambda,
-      Rcpp::Named("conf_int") = Rcpp::NumericVector::create(s.conf_low, s.conf_high),
-      Rcpp::Named("loglik") = s.loglik, Rcpp::Named("at_bound") = s.at_bound != 0,
-      Rcpp::Named("converged") = s.converged != 0, Rcpp::Named("loo_lambda") = loo,
-      Rcpp::Named("leverage") = h, Rcpp::Named("outside") = out, Rcpp::Named("loo_at_bound") = bound);
-}
 
 // Fold ids as an n-by-repeats integer matrix, stratified (strata: n codes >= 0) or grouped
 // (groups: n codes >= 0); both NULL gives the plain folds of rpwb_cv_folds.

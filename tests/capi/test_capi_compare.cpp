@@ -1,4 +1,4 @@
-// The comparison tools through the C ABI: Box-Tidwell, lambda influence, folds and scores.
+// The comparison tools through the C ABI: folds and scores.
 #include <catch2/catch.hpp>
 
 #include <cmath>
@@ -10,84 +10,6 @@
 #include "powerback.h"
 
 using Catch::Matchers::Contains;
-
-TEST_CASE("pwb_box_tidwell fills the caller's buffers and history", "[capi_compare]") {
-  std::mt19937 gen(21);
-  std::uniform_real_distribution<double> u(0.5, 5);
-  std::normal_distribution<double> nd;
-  const size_t n = 200;
-  std::vector<double> y(n), x(n);
-  for (size_t i = 0; i < n; ++i) {
-    x[i] = u(gen);
-    y[i] = 3 + 2 * std::log(x[i]) + 0.2 * nd(gen);
-  }
-  pwb_box_tidwell_options opt;
-  pwb_box_tidwell_options_init(&opt);
-  CHECK(opt.max_iter == 50);
-  pwb_box_tidwell_result res;
-  res.struct_size = sizeof res;
-  double alpha = NAN, se = NAN, t = NAN, p = NAN;
-  std::vector<double> hist(static_cast<size_t>(opt.max_iter) + 1);
-  REQUIRE(pwb_box_tidwell(y.data(), nullptr, n, 0, x.data(), 1, &opt, &alpha, &se, &t, &p,
-                          hist.data(), &res) == PWB_OK);
-  CHECK(res.converged == 1);
-  CHECK(res.n == n);
-  // simulated from log x, the limit of the power family at 0: 2 SE is a ~95% band
-  CHECK(std::fabs(alpha) < 2 * se);
-  CHECK(p < 1e-6);  // strong curvature in x: power 1 is rejected
-  CHECK(hist[0] == 1.0);
-  CHECK(hist[static_cast<size_t>(res.iterations)] == alpha);
-  CHECK(std::isnan(hist.back()));
-}
-
-TEST_CASE("pwb_box_tidwell rejects bad input with a message", "[capi_compare]") {
-  std::vector<double> y = {1, 2, 3, 4, 5, 6}, x = {1, -2, 3, 4, 5, 6};
-  pwb_box_tidwell_result res;
-  res.struct_size = sizeof res;
-  double a, s;
-  CHECK(pwb_box_tidwell(y.data(), nullptr, 6, 0, x.data(), 1, nullptr, &a, &s, nullptr, nullptr,
-                        nullptr, &res) == PWB_ERR_DOMAIN);
-  CHECK_THAT(pwb_last_error(), Contains("must be > 0") && Contains("rows 1"));
-  CHECK(pwb_box_tidwell(y.data(), nullptr, 6, 0, nullptr, 1, nullptr, &a, &s, nullptr, nullptr,
-                        nullptr, &res) == PWB_ERR_ARGUMENT);
-  res.struct_size = 1;
-  x[1] = 2;
-  CHECK(pwb_box_tidwell(y.data(), nullptr, 6, 0, x.data(), 1, nullptr, &a, &s, nullptr, nullptr,
-                        nullptr, &res) == PWB_ERR_ARGUMENT);
-  CHECK_THAT(pwb_last_error(), Contains("struct_size"));
-}
-
-TEST_CASE("pwb_lambda_influence agrees with its full estimate and flags rows", "[capi_compare]") {
-  std::mt19937 gen(8);
-  std::normal_distribution<double> nd;
-  const size_t n = 30;
-  std::vector<double> y(n), x(n);
-  for (size_t i = 0; i < n; ++i) {
-    x[i] = static_cast<double>(i) / 3.0;
-    y[i] = std::exp(1 + 0.2 * x[i] + 0.1 * nd(gen));
-  }
-  y[0] = 40;  // a gross outlier at the low end
-  pwb_influence_options opt;
-  pwb_influence_options_init(&opt);
-  pwb_influence_summary s;
-  s.struct_size = sizeof s;
-  std::vector<double> loo(n), h(n);
-  std::vector<int> out(n), bound(n);
-  REQUIRE(pwb_lambda_influence(y.data(), x.data(), n, 1, &opt, &s, loo.data(), h.data(),
-                               out.data(), bound.data()) == PWB_OK);
-  CHECK(s.n == n);
-  CHECK(s.conf_low < s.lambda);
-  CHECK(s.lambda < s.conf_high);
-  size_t flagged = 0;
-  for (size_t i = 0; i < n; ++i) flagged += static_cast<size_t>(out[i]);
-  CHECK(flagged == s.n_outside);
-  // deleting the outlier moves lambda-hat out of the interval (it drives the fit alone)
-  CHECK(out[0] == 1);
-  opt.family = PWB_LOG;
-  CHECK(pwb_lambda_influence(y.data(), x.data(), n, 1, &opt, &s, nullptr, nullptr, nullptr,
-                             nullptr) == PWB_ERR_ARGUMENT);
-  CHECK_THAT(pwb_last_error(), Contains("PWB_BOX_COX"));
-}
 
 TEST_CASE("pwb_cv_folds and pwb_holdout_score", "[capi_compare]") {
   std::vector<int> f(20);

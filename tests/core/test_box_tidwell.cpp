@@ -10,6 +10,7 @@
 
 #include "powerback/box_tidwell.hpp"
 #include "powerback/errors.hpp"
+#include "powerback/lambda.hpp"
 
 using namespace powerback;
 using Catch::Matchers::Contains;
@@ -152,4 +153,96 @@ TEST_CASE("an unidentified power is flagged as not converged", "[box_tidwell]") 
   CHECK(r.history.size() == 51);
   // no information: the standard error dwarfs any plausible power
   CHECK(r.se[0] > 2);
+}
+
+TEST_CASE("advice: linear when the score test does not reject, else a convenient power",
+          "[box_tidwell]") {
+  // straight lines in x: the rule holds on each of 20 data sets, and since the score test has
+  // size 5%, at least 16 of 20 say linear (binomial(20, 0.05): P(more than 4 rejections) < 0.003)
+  int linear = 0;
+  for (unsigned rep = 0; rep < 20; ++rep) {
+    const Sim lin = simulate(1.0, 100, 0.5, 21u + rep);
+    const BoxTidwellResult r1 = box_tidwell(lin.y.data(), lin.z.data(), 100, 1, lin.x.data(), 1, {});
+    CAPTURE(rep, r1.score_p[0], r1.conf_low[0], r1.conf_high[0]);
+    const bool keep = r1.score_p[0] >= 0.05 || (r1.conf_low[0] <= 1 && r1.conf_high[0] >= 1);
+    CHECK((r1.advice[0] == BoxTidwellAdvice::Linear) == keep);
+    if (keep) CHECK(r1.suggested[0] == 1.0);
+    else CHECK(r1.suggested[0] == convenient_lambda(r1.alpha[0], r1.conf_low[0], r1.conf_high[0]));
+    linear += keep;
+  }
+  CHECK(linear >= 16);
+  // a reciprocal: the interval excludes 1 and holds -1, the convenient power
+  const Sim rec = simulate(-1.0, 300, 0.3, 11u);
+  const BoxTidwellResult r2 = box_tidwell(rec.y.data(), rec.z.data(), 300, 1, rec.x.data(), 1, {});
+  REQUIRE(r2.conf_low[0] <= -1.0);
+  REQUIRE(r2.conf_high[0] >= -1.0);
+  CHECK(r2.advice[0] == BoxTidwellAdvice::Power);
+  CHECK(r2.suggested[0] == -1.0);
+  // the Wald interval is alpha +- 1.959964 se (normal quantile 0.975, from memory to 7 digits)
+  CHECK(r2.conf_high[0] - r2.alpha[0] == Approx(1.959964 * r2.se[0]).epsilon(1e-6));
+  CHECK(r2.level == 0.95);
+}
+
+TEST_CASE("a log relationship is advised as the log", "[box_tidwell]") {
+  std::mt19937 gen(4u);
+  std::uniform_real_distribution<double> ux(0.5, 20.0);
+  std::normal_distribution<double> nd;
+  std::vector<double> x, y;
+  for (int i = 0; i < 300; ++i) {
+    x.push_back(ux(gen));
+    y.push_back(2 + 3 * std::log(x.back()) + 0.2 * nd(gen));
+  }
+  const BoxTidwellResult r = box_tidwell(y.data(), nullptr, 300, 0, x.data(), 1, {});
+  REQUIRE(r.conf_low[0] <= 0.0);
+  REQUIRE(r.conf_high[0] >= 0.0);
+  CHECK(r.advice[0] == BoxTidwellAdvice::Log);
+  CHECK(r.suggested[0] == 0.0);
+}
+
+TEST_CASE("weights: integer weights equal repeated rows, a zero weight drops its row",
+          "[box_tidwell]") {
+  const Sim s = simulate(0.5, 80, 0.4, 31u);
+  std::vector<double> w(80, 1.0), yr = s.y, xr = s.x, zr = s.z;
+  for (int i = 0; i < 80; i += 3) {  // weight 2 = the row twice (same coefficients at every step)
+    w[i] = 2.0;
+    yr.push_back(s.y[i]);
+    xr.push_back(s.x[i]);
+    zr.push_back(s.z[i]);
+  }
+  BoxTidwellOptions ow;
+  ow.weights = w.data();
+  const BoxTidwellResult rw = box_tidwell(s.y.data(), s.z.data(), 80, 1, s.x.data(), 1, ow);
+  const BoxTidwellResult rr = box_tidwell(yr.data(), zr.data(), yr.size(), 1, xr.data(), 1, {});
+  // the same weighted normal equations at every step: rounding only (1e-9 for ~10 updates)
+  CHECK(rw.alpha[0] == Approx(rr.alpha[0]).epsilon(1e-9));
+  CHECK(rw.iterations == rr.iterations);
+  CHECK(rw.n == 80);
+  // a zero weight is the row left out
+  w.assign(80, 1.0);
+  w[7] = 0.0;
+  const BoxTidwellResult r0 = box_tidwell(s.y.data(), s.z.data(), 80, 1, s.x.data(), 1, ow);
+  std::vector<double> y7 = s.y, x7 = s.x, z7 = s.z;
+  y7.erase(y7.begin() + 7);
+  x7.erase(x7.begin() + 7);
+  z7.erase(z7.begin() + 7);
+  const BoxTidwellResult rd = box_tidwell(y7.data(), z7.data(), 79, 1, x7.data(), 1, {});
+  CHECK(r0.n == 79);
+  CHECK(r0.alpha[0] == Approx(rd.alpha[0]).epsilon(1e-12));  // identical fits: rounding only
+  CHECK(r0.se[0] == Approx(rd.se[0]).epsilon(1e-12));
+  CHECK(r0.score_t[0] == Approx(rd.score_t[0]).epsilon(1e-12));
+  // a zero weight lifts the domain check on its row
+  std::vector<double> xb = s.x;
+  xb[7] = -1.0;
+  CHECK_NOTHROW(box_tidwell(s.y.data(), s.z.data(), 80, 1, xb.data(), 1, ow));
+  // negative or non-finite weights name their rows
+  w[7] = -1.0;
+  try {
+    box_tidwell(s.y.data(), s.z.data(), 80, 1, s.x.data(), 1, ow);
+    FAIL("a negative weight was accepted");
+  } catch (const IndexedError& e) {
+    CHECK(e.code() == ErrorCode::Domain);
+    CHECK(e.first_indices() == std::vector<std::size_t>{7});
+  }
+  w[7] = std::nan("");
+  CHECK_THROWS_AS(box_tidwell(s.y.data(), s.z.data(), 80, 1, s.x.data(), 1, ow), IndexedError);
 }

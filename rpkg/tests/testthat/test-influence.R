@@ -31,6 +31,72 @@ test_that("leave-one-out lambda equals refits without each row", {
   expect_equal(inf$rows$leverage, unname(hatvalues(lm(y ~ x + g, d))), tolerance = 1e-10)
 })
 
+# The weighted profile by hand: weighted RSS from base R lm(weights =), unweighted Jacobian over
+# the rows of positive weight (the constant 1/2 sum log w dropped), maximised by optimize().
+brute_weighted <- function(d, w) {
+  keep <- w > 0
+  d <- d[keep, ]
+  w <- w[keep]
+  prof <- function(l) {
+    z <- if (abs(l) < 1e-12) log(d$y) else (d$y^l - 1) / l
+    fit <- lm(z ~ x + g, data = cbind(d, z = z), weights = w)
+    -nrow(d) / 2 * log(sum(w * residuals(fit)^2)) + (l - 1) * sum(log(d$y))
+  }
+  optimize(prof, c(-3, 3), maximum = TRUE, tol = 1e-10)$maximum
+}
+
+test_that("weighted leave-one-out lambda equals weighted refits; subset follows lm", {
+  d <- sim_inf(30, 6)
+  d$w <- rep(c(0.5, 1, 2.5), 10)
+  d$w[4] <- 0
+  inf <- tryCatch(lambda_influence(y ~ x + g, d, weights = w), error = function(e) e)
+  if (inherits(inf, "error")) {
+    # a core whose lambda search has no weights refuses them with a clear message
+    expect_match(conditionMessage(inf), "no weights")
+  } else {
+    ref <- vapply(seq_len(nrow(d)), function(i) brute_weighted(d[-i, ], d$w[-i]), numeric(1))
+    used <- d$w > 0
+    # optimize() to 1e-10, the package's Brent to ~1.5e-8 on the same profile
+    expect_lt(max(abs(inf$rows$lambda - ref[used])), 1e-6)
+    expect_lt(abs(inf$lambda - brute_weighted(d, d$w)), 1e-6)
+    expect_false(4L %in% inf$rows$row)  # weight 0: left out, as lm does
+    expect_equal(inf$n, 29L)
+    # leverages: hatvalues() of the weighted lm (base R stats, which leaves weight-0 rows out too)
+    expect_equal(inf$rows$leverage, unname(hatvalues(lm(y ~ x + g, d, weights = w))),
+                 tolerance = 1e-10)
+  }
+  s <- lambda_influence(y ~ x + g, d, subset = x > 0.5)
+  expect_equal(s$rows$lambda, lambda_influence(y ~ x + g, d[d$x > 0.5, ])$rows$lambda)
+  expect_equal(s$rows$row, which(d$x > 0.5))
+  d$w[6] <- -1
+  expect_error(lambda_influence(y ~ x + g, d, weights = w), "at row 6")
+})
+
+test_that("rows are named by the data's row names where it has them", {
+  d <- sim_inf(24, 3)
+  rownames(d) <- paste0("plot_", LETTERS[1:24])
+  d$y[5] <- 5 * d$y[5]
+  inf <- lambda_influence(y ~ x + g, d)
+  expect_equal(inf$rows$row, rownames(d))
+  expect_equal(inf$n_outside, sum(inf$rows$outside))
+  out <- capture.output(print(inf))
+  expect_true(any(grepl("plot_E", out)))
+  # the plot labels the rows that move lambda most by name: check the recorded text calls
+  f <- tempfile(fileext = ".png")
+  grDevices::png(f)
+  grDevices::dev.control("enable")
+  plot(inf)
+  rec <- grDevices::recordPlot()
+  grDevices::dev.off()
+  unlink(f)
+  # each recorded call is (function, (native routine, its arguments...)): the labels of C_text
+  labels <- unlist(lapply(as.list(rec[[1]]), function(op) {
+    args <- as.list(op[[2]])
+    if (identical(args[[1]]$name, "C_text")) Filter(is.character, args[-1]) else NULL
+  }))
+  expect_true("plot_E" %in% labels)
+})
+
 test_that("lm and formula inputs agree; rows refer to the data", {
   d <- sim_inf(25, 9)
   d$x[3] <- NA
