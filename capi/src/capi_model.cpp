@@ -1,4 +1,6 @@
 // The model handle of the C ABI: fit, accessors, predictions in original units.
+#include <algorithm>
+#include <cstddef>
 #include <cstring>
 #include <memory>
 
@@ -33,6 +35,7 @@ void pwb_model_options_init(pwb_model_options* opt) {
   opt->struct_size = sizeof(pwb_model_options);
   opt->intercept = 1;
   opt->estimated_parameters = 0;
+  opt->weights = nullptr;
 }
 
 pwb_status pwb_model_fit(const double* y, const double* X, size_t n, size_t p,
@@ -46,12 +49,17 @@ pwb_status pwb_model_fit(const double* y, const double* X, size_t n, size_t p,
     pwb_model_options o;
     pwb_model_options_init(&o);
     if (opt) {
-      capi::need_struct(opt->struct_size, sizeof(pwb_model_options), "pwb_model_options");
-      o = *opt;
+      // The first version of the struct ended before `weights`; a caller built against it
+      // gets no weights.
+      capi::need_struct(opt->struct_size, offsetof(pwb_model_options, weights),
+                        "pwb_model_options");
+      std::memcpy(&o, opt, std::min(opt->struct_size, sizeof o));
+      o.struct_size = sizeof o;
     }
     std::unique_ptr<Transform> tr;
     if (response) tr.reset(new Transform(capi::transform_of(response, "response")));
-    *out = new pwb_model{Model(y, X, n, p, o.intercept != 0, tr.get(), o.estimated_parameters)};
+    *out = new pwb_model{Model(y, X, n, p, o.intercept != 0, tr.get(), o.estimated_parameters,
+                               o.weights)};
   });
 }
 
@@ -60,7 +68,8 @@ void pwb_model_free(pwb_model* m) { delete m; }
 pwb_status pwb_model_get_info(const pwb_model* m, pwb_model_info* info) {
   return capi::guarded([&] {
     capi::need(m, "m");
-    capi::need_sized(info, "info", "pwb_model_info");
+    capi::need(info, "info");
+    capi::need_struct(info->struct_size, offsetof(pwb_model_info, nobs), "pwb_model_info");
     const Model& f = m->impl;
     info->n = f.n();
     info->columns = f.columns();
@@ -72,6 +81,10 @@ pwb_status pwb_model_get_info(const pwb_model* m, pwb_model_info* info) {
     info->loglik = f.loglik();
     info->loglik_df = f.loglik_df();
     info->jacobian = f.jacobian();
+    if (info->struct_size >= offsetof(pwb_model_info, nobs) + sizeof info->nobs)
+      info->nobs = f.nobs();
+    if (info->struct_size >= offsetof(pwb_model_info, weighted) + sizeof info->weighted)
+      info->weighted = f.weighted() ? 1 : 0;
   });
 }
 
