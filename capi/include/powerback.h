@@ -532,6 +532,15 @@ PWB_API pwb_status pwb_model_predict(const pwb_model *m, const double *Xnew, siz
                                      const pwb_predict_options *opt, double *fit, double *lwr,
                                      double *upr, unsigned *flags);
 
+/* Predicts at the model's own rows, as pwb_model_predict would with the training design, without
+ * the caller rebuilding that design: fit/lwr/upr/flags as there, `rows` must equal
+ * pwb_model_info.n. Rows of zero weight in a weighted model are not stored by the model: they
+ * come back NaN with PWB_PRED_MISSING. Errors: as pwb_model_predict, and PWB_ERR_ARGUMENT for
+ * another `rows`. Thread-safe for one m. */
+PWB_API pwb_status pwb_model_predict_fitted(const pwb_model *m, const pwb_predict_options *opt,
+                                            double *fit, double *lwr, double *upr,
+                                            unsigned *flags, size_t rows);
+
 /* The coefficient covariance sigma^2 (X'WX)^{-1} (W = I unweighted), columns-by-columns,
  * column-major, into the caller's array cov of columns * columns doubles (columns =
  * pwb_model_info.columns, intercept first); rows and columns of aliased coefficients are NaN (R's

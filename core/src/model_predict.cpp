@@ -2,6 +2,7 @@
 #include <boost/math/distributions/students_t.hpp>
 #include <cmath>
 #include <string>
+#include <utility>
 
 #include "powerback/errors.hpp"
 #include "powerback/model.hpp"
@@ -51,8 +52,33 @@ Prediction Model::predict(const double* Xnew, std::size_t m, std::size_t p,
                           const PredictOptions& opt) const {
   require(std::isfinite(opt.level) && opt.level > 0.0 && opt.level < 1.0,
           "level must lie strictly between 0 and 1 (e.g. 0.95), not " + format_number(opt.level));
+  std::vector<unsigned> flags;
+  const Eigen::MatrixXd rows = design_rows(Xnew, m, p, flags);
+  return predict_rows(rows, std::move(flags), opt);
+}
+
+Prediction Model::predict_fitted(const PredictOptions& opt) const {
+  require(std::isfinite(opt.level) && opt.level > 0.0 && opt.level < 1.0,
+          "level must lie strictly between 0 and 1 (e.g. 0.95), not " + format_number(opt.level));
+  if (!weighted()) return predict_rows(ls_.design(), std::vector<unsigned>(n(), 0u), opt);
+  const Eigen::Index ni = static_cast<Eigen::Index>(n());
+  Eigen::MatrixXd rows = Eigen::MatrixXd::Zero(ni, static_cast<Eigen::Index>(columns()));
+  std::vector<unsigned> flags(n(), kPredMissing);
+  const Eigen::MatrixXd& d = ls_.design();
+  for (std::size_t k = 0; k < kept_rows_.size(); ++k) {
+    const std::size_t i = kept_rows_[k];
+    const double s = std::sqrt(weights_(static_cast<Eigen::Index>(i)));
+    rows.row(static_cast<Eigen::Index>(i)) = d.row(static_cast<Eigen::Index>(k)) / s;
+    flags[i] = 0u;
+  }
+  return predict_rows(rows, std::move(flags), opt);
+}
+
+Prediction Model::predict_rows(const Eigen::MatrixXd& rows, std::vector<unsigned> flags,
+                               const PredictOptions& opt) const {
+  const std::size_t m = static_cast<std::size_t>(rows.rows());
   Prediction out;
-  const Eigen::MatrixXd rows = design_rows(Xnew, m, p, out.flags);
+  out.flags = std::move(flags);
   out.fit.assign(m, math::kNaN);
   out.lower.assign(m, math::kNaN);
   out.upper.assign(m, math::kNaN);

@@ -53,6 +53,10 @@ rpwb_model_predict <- function(handle, Xnew, level, interval, center, mean_metho
     .Call(`_powerback_rpwb_model_predict`, handle, Xnew, level, interval, center, mean_method, transformed, se_fit)
 }
 
+rpwb_model_predict_fitted <- function(handle, level, interval, center, mean_method, transformed) {
+    .Call(`_powerback_rpwb_model_predict_fitted`, handle, level, interval, center, mean_method, transformed)
+}
+
 rpwb_shapiro_wilk <- function(x) {
     .Call(`_powerback_rpwb_shapiro_wilk`, x)
 }

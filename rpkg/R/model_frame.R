@@ -86,7 +86,14 @@ pwb_variables_frame <- function(src) {
 # model after a reload, so the design is the same bit for bit.
 pwb_model_design <- function(object, tdata) {
   tt <- stats::terms(object$formula)
-  mf <- stats::model.frame(tt, tdata, na.action = stats::na.pass)
+  vars <- as.list(attr(tt, "variables"))[-1L]
+  if (all(vapply(vars, is.symbol, logical(1)))) {
+    # Every variable is a plain name: the model frame is those columns of tdata (no copy).
+    mf <- tdata[vapply(vars, as.character, character(1))]
+    attr(mf, "terms") <- tt
+  } else {
+    mf <- stats::model.frame(tt, tdata, na.action = stats::na.pass)
+  }
   mm <- stats::model.matrix(attr(mf, "terms"), mf, contrasts.arg = object$contrasts)
   intercept <- ncol(mm) > 0L && colnames(mm)[1L] == "(Intercept)"
   X <- if (intercept) mm[, -1L, drop = FALSE] else mm

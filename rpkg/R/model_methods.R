@@ -191,9 +191,7 @@ pwb_fitted_median <- function(object) {
   f <- object$fitted
   res <- rpwb_transform_map(unclass(object$response), f, 1L)
   if (res$status == 0L) return(res$value)
-  X <- pwb_model_design(object, pwb_transform_columns(pwb_frame_variables(object$frame),
-                                                       object$predictors))$X
-  rpwb_model_predict(pwb_handle(object), X, 0.95, 0L, 0L, 0L, FALSE, FALSE)$fit
+  rpwb_model_predict_fitted(pwb_handle(object), 0.95, 0L, 0L, 0L, FALSE)$fit
 }
 
 #' @rdname pwb_model_methods

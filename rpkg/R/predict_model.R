@@ -86,16 +86,22 @@ predict.pwb_model <- function(object, newdata, se.fit = FALSE,
     row_names <- row.names(newdata)
   }
   handle <- pwb_handle(object)
+  codes <- list(match(interval, c("none", "confidence", "prediction")) - 1L,
+                match(center, c("median", "mean")) - 1L,
+                match(mean_method, c("smearing", "normal")) - 1L)
   if (is.null(Xnew)) {
-    # The training rows: their design is the model's own (rebuilt from the stored frame).
-    Xnew <- pwb_model_design(object, pwb_transform_columns(pwb_frame_variables(object$frame),
-                                                           object$predictors))$X
+    # The training rows, read from the core model (their design is not rebuilt).
+    res <- rpwb_model_predict_fitted(handle, level, codes[[1L]], codes[[2L]], codes[[3L]],
+                                     type == "transformed")
+    if (se.fit) {
+      w <- stats::model.weights(object$frame)
+      lev <- rpwb_model_vector(handle, 2L)
+      res$se <- object$sigma * sqrt(if (is.null(w)) lev else ifelse(w > 0, lev / w, NA_real_))
+    }
+  } else {
+    res <- rpwb_model_predict(handle, Xnew, level, codes[[1L]], codes[[2L]], codes[[3L]],
+                              type == "transformed", se.fit)
   }
-  res <- rpwb_model_predict(handle, Xnew, level,
-                            match(interval, c("none", "confidence", "prediction")) - 1L,
-                            match(center, c("median", "mean")) - 1L,
-                            match(mean_method, c("smearing", "normal")) - 1L,
-                            type == "transformed", se.fit)
   out <- data.frame(fit = res$fit, lwr = res$lwr, upr = res$upr,
                     bounded = bitwAnd(res$flags, 1L) > 0L,
                     invalid = rep(FALSE, length(res$fit)))

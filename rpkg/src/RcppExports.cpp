@@ -196,6 +196,22 @@ BEGIN_RCPP
     return rcpp_result_gen;
 END_RCPP
 }
+// rpwb_model_predict_fitted
+Rcpp::List rpwb_model_predict_fitted(SEXP handle, double level, int interval, int center, int mean_method, bool transformed);
+RcppExport SEXP _powerback_rpwb_model_predict_fitted(SEXP handleSEXP, SEXP levelSEXP, SEXP intervalSEXP, SEXP centerSEXP, SEXP mean_methodSEXP, SEXP transformedSEXP) {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< SEXP >::type handle(handleSEXP);
+    Rcpp::traits::input_parameter< double >::type level(levelSEXP);
+    Rcpp::traits::input_parameter< int >::type interval(intervalSEXP);
+    Rcpp::traits::input_parameter< int >::type center(centerSEXP);
+    Rcpp::traits::input_parameter< int >::type mean_method(mean_methodSEXP);
+    Rcpp::traits::input_parameter< bool >::type transformed(transformedSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_model_predict_fitted(handle, level, interval, center, mean_method, transformed));
+    return rcpp_result_gen;
+END_RCPP
+}
 // rpwb_shapiro_wilk
 Rcpp::List rpwb_shapiro_wilk(Rcpp::NumericVector x);
 RcppExport SEXP _powerback_rpwb_shapiro_wilk(SEXP xSEXP) {
@@ -328,6 +344,7 @@ static const R_CallMethodDef CallEntries[] = {
     {"_powerback_rpwb_model_summary", (DL_FUNC) &_powerback_rpwb_model_summary, 1},
     {"_powerback_rpwb_model_vector", (DL_FUNC) &_powerback_rpwb_model_vector, 2},
     {"_powerback_rpwb_model_predict", (DL_FUNC) &_powerback_rpwb_model_predict, 8},
+    {"_powerback_rpwb_model_predict_fitted", (DL_FUNC) &_powerback_rpwb_model_predict_fitted, 6},
     {"_powerback_rpwb_shapiro_wilk", (DL_FUNC) &_powerback_rpwb_shapiro_wilk, 1},
     {"_powerback_rpwb_moments", (DL_FUNC) &_powerback_rpwb_moments, 1},
     {"_powerback_rpwb_ladder", (DL_FUNC) &_powerback_rpwb_ladder, 1},

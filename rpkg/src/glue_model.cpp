@@ -99,3 +99,26 @@ Rcpp::List rpwb_model_predict(SEXP handle, Rcpp::NumericMatrix Xnew, double leve
   }
   return out;
 }
+
+// Predictions at the model's own rows (no design from R); arguments as rpwb_model_predict.
+// [[Rcpp::export]]
+Rcpp::List rpwb_model_predict_fitted(SEXP handle, double level, int interval, int center,
+                                     int mean_method, bool transformed) {
+  const pwb_model* m = rpwb::model_of(handle);
+  pwb_predict_options o;
+  pwb_predict_options_init(&o);
+  o.level = level;
+  o.interval = static_cast<pwb_interval>(interval);
+  o.center = static_cast<pwb_center>(center);
+  o.mean_method = static_cast<pwb_mean_method>(mean_method);
+  o.transformed_scale = transformed ? 1 : 0;
+  const std::size_t rows = info_of(m).n;
+  std::vector<double> fit(rows), lwr(rows), upr(rows);
+  std::vector<unsigned> flags(rows);
+  rpwb::check(pwb_model_predict_fitted(m, &o, fit.data(), lwr.data(), upr.data(), flags.data(),
+                                       rows));
+  Rcpp::IntegerVector fl(rows);
+  for (std::size_t i = 0; i < rows; ++i) fl[i] = static_cast<int>(flags[i]);
+  return Rcpp::List::create(Rcpp::Named("fit") = vec(fit), Rcpp::Named("lwr") = vec(lwr),
+                            Rcpp::Named("upr") = vec(upr), Rcpp::Named("flags") = fl);
+}

@@ -161,3 +161,23 @@ TEST_CASE("bad weights and old struct sizes", "[capi][model][weights]") {
   CHECK(pwb_model_predict_se(m, kX.data(), 1, 2, cov) == PWB_ERR_ARGUMENT);
   pwb_model_free(m);
 }
+
+TEST_CASE("predictions at the model's own rows equal predictions of its design", "[capi][model]") {
+  pwb_model* m = nullptr;
+  REQUIRE(pwb_model_fit(kY.data(), kX.data(), kX.size(), 1, nullptr, nullptr, &m) == PWB_OK);
+  pwb_predict_options po;
+  pwb_predict_options_init(&po);
+  po.interval = PWB_INTERVAL_PREDICTION;
+  const std::size_t n = kX.size();
+  std::vector<double> f1(n), l1(n), f2(n), l2(n);
+  REQUIRE(pwb_model_predict_fitted(m, &po, f1.data(), l1.data(), nullptr, nullptr, n) == PWB_OK);
+  REQUIRE(pwb_model_predict(m, kX.data(), n, 1, &po, f2.data(), l2.data(), nullptr, nullptr) ==
+          PWB_OK);
+  for (std::size_t i = 0; i < n; ++i) {
+    CHECK(f1[i] == f2[i]);  // the same rows, the same arithmetic
+    CHECK(l1[i] == l2[i]);
+  }
+  CHECK(pwb_model_predict_fitted(m, &po, f1.data(), nullptr, nullptr, nullptr, n - 1) ==
+        PWB_ERR_ARGUMENT);
+  pwb_model_free(m);
+}

@@ -107,6 +107,12 @@ class Model {
   Prediction predict(const double* Xnew, std::size_t m, std::size_t p,
                      const PredictOptions& opt) const;
 
+  // Predictions at the model's own rows (as predict() of the training design, without the
+  // caller rebuilding it). Unweighted models read the stored design; a weighted model rebuilds
+  // its rows from the weighted design (zero-weight rows, which it does not store, come back
+  // NaN and flagged kPredMissing).
+  Prediction predict_fitted(const PredictOptions& opt) const;
+
   // Standard errors of the fitted values x0'b at m new rows (transformed scale):
   // sigma sqrt(x0' (X'WX)^{-1} x0); NaN for rows with a non-finite entry. Same layout and errors
   // as predict().
@@ -126,6 +132,9 @@ class Model {
   // zero and flagged kPredMissing in flags.
   Eigen::MatrixXd design_rows(const double* Xnew, std::size_t m, std::size_t p,
                               std::vector<unsigned>& flags) const;
+  // Predictions at the rows of a design (intercept column included when the model has one).
+  Prediction predict_rows(const Eigen::MatrixXd& rows, std::vector<unsigned> flags,
+                          const PredictOptions& opt) const;
 
   Transform response_;
   std::vector<std::size_t> kept_rows_;  // rows of positive weight (empty when unweighted);
