@@ -98,7 +98,9 @@ pwb_model_design <- function(object, tdata) {
   intercept <- ncol(mm) > 0L && colnames(mm)[1L] == "(Intercept)"
   X <- if (intercept) mm[, -1L, drop = FALSE] else mm
   storage.mode(X) <- "double"
-  list(y = as.double(stats::model.response(mf)), X = X, intercept = intercept,
+  y <- .subset2(mf, 1L)  # the response column (model.response() would name 1e6 rows)
+  if (!is.double(y)) y <- as.double(y)
+  list(y = y, X = X, intercept = intercept,
        names = colnames(mm), terms = attr(mf, "terms"), xlevels = stats::.getXlevels(tt, mf),
        contrasts = attr(mm, "contrasts"), assign = attr(mm, "assign"))
 }
