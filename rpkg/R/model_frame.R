@@ -129,6 +129,22 @@ pwb_handle <- function(object) {
   env$ptr
 }
 
+#' Parts of a pwb_model read on request
+#'
+#' `model$name` returns a stored part of the model (see [lm_transformed()]) or one computed on
+#' request: `lm` (the honest lm of [transformed_lm()], fitted anew each time), `y` (the raw
+#' response of the rows used), `weights`, `residuals`, `fitted` (transformed scale, from the core
+#' model), `leverages`, `z` (the transformed response) and `data` (the model's raw variables
+#' placed back at their rows, `NA` in rows left out by `na.action`). Other names match stored
+#' parts partially, as `$` on a list does.
+#'
+#' @param x a `pwb_model`.
+#' @param name the part's name.
+#' @return The part, or `NULL` when there is none.
+#' @examples
+#' m <- lm_transformed(Volume ~ Girth, trees, response = new_transform("log"))
+#' head(m$residuals)
+#' m$lm
 #' @export
 `$.pwb_model` <- function(x, name) {
   if (name %in% names(x)) return(.subset2(x, name))
