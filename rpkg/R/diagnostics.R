@@ -30,8 +30,11 @@
 #' A `pwb_model`'s checks are computed by its live core model (no refit); all four come from one
 #' computation.
 #'
-#' @param object a `pwb_model` from [lm_transformed()] or an `lm` fit (weighted or not).
+#' @param object a `pwb_model` from [lm_transformed()], an `lm` fit (weighted or not), or a
+#'   model formula, which is fitted by [stats::lm()] with `data`, `weights` and `subset` first.
 #' @param compare logical: also check the untransformed twin of a `pwb_model`.
+#' @param data,weights,subset for a formula: as in [stats::lm()] (`weights` and `subset` are
+#'   evaluated in `data`). Not used with a fitted object, which carries its own.
 #' @return An object of class `pwb_checks`: a list with `n`, `shapiro_wilk` (`statistic`,
 #'   `p_value`, `computed`, `note`), `breusch_pagan` (`statistic`, `df`, `p_value`), `reset`
 #'   (`statistic`, `df1`, `df2`, `p_value`), `skewness`, `table` (one row per check) and, with
@@ -45,9 +48,20 @@
 #' residual_checks(m, compare = TRUE)
 #' residual_checks(lm(sediment_t_day ~ flow_m3s + season, river))
 #' @export
-residual_checks <- function(object, compare = FALSE) {
+residual_checks <- function(object, compare = FALSE, data = NULL, weights = NULL,
+                            subset = NULL) {
   if (!is.logical(compare) || length(compare) != 1L || is.na(compare))
     stop("`compare` must be TRUE or FALSE", call. = FALSE)
+  if (inherits(object, "formula")) {
+    cl <- match.call()
+    cl$compare <- NULL
+    names(cl)[names(cl) == "object"] <- "formula"
+    cl[[1L]] <- quote(stats::lm)
+    return(residual_checks(eval(cl, parent.frame()), compare = compare))
+  }
+  if (!is.null(data) || !missing(weights) || !missing(subset))
+    stop(paste0("`data`, `weights` and `subset` go with a formula; a fitted model carries its ",
+                "own (refit it with them)"), call. = FALSE)
   if (inherits(object, "pwb_model")) {
     out <- pwb_checks_from(rpwb_model_checks(pwb_handle(object)))
     if (compare) {

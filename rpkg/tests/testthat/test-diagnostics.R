@@ -101,3 +101,13 @@ test_that("a weighted lm is checked through its weighted regression", {
   m <- lm_transformed(y ~ x1 + x2, d, weights = w, response = "none")
   expect_equal(residual_checks(m)$table$statistic, ch$table$statistic, tolerance = 1e-10)
 })
+
+test_that("a formula is fitted with data, weights and subset first", {
+  d <- pwb_sim_checks(60)
+  d$w <- rep(c(0.5, 1, 2), 20)
+  # Reference: the same checks of base R lm(weights =, subset =) fitted by hand.
+  ref <- residual_checks(lm(y ~ x1 + x2, d, weights = w, subset = x2 > -1))
+  got <- residual_checks(y ~ x1 + x2, data = d, weights = w, subset = x2 > -1)
+  expect_identical(got$table, ref$table)
+  expect_error(residual_checks(lm(y ~ x1, d), weights = w), "go with a formula")
+})
