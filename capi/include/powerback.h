@@ -414,9 +414,15 @@ typedef struct pwb_model_options {
   size_t estimated_parameters; /* transform parameters estimated from these data, added to the
                                   log-likelihood's degrees of freedom (default 0; 1 when the
                                   response lambda was estimated) */
+  const double *weights;       /* n precision weights (variance sigma^2 / w_i, as R's lm), or
+                                  NULL (default) for none. Each must be finite and >= 0; a zero
+                                  weight drops the row from the fit (it keeps a fitted value and a
+                                  residual, leverage 0). Read only during pwb_model_fit (copied).
+                                  Absent (NULL) when struct_size does not reach this field. */
 } pwb_model_options;
 
-/* Sets struct_size and the defaults (intercept 1, estimated_parameters 0). NULL is ignored. */
+/* Sets struct_size and the defaults (intercept 1, estimated_parameters 0, weights NULL). NULL is
+ * ignored. */
 PWB_API void pwb_model_options_init(pwb_model_options *opt);
 
 /* Fits the model. y: n raw responses (original units); X: n-by-p predictors, column-major,
@@ -426,7 +432,12 @@ PWB_API void pwb_model_options_init(pwb_model_options *opt);
  * NULL. Errors: PWB_ERR_ARGUMENT for NULL y or out, n == 0, a struct_size too small;
  * PWB_ERR_NONFINITE for non-finite X or y (the first row and column named, 0-based);
  * PWB_ERR_DOMAIN when T cannot be applied to some y (count and first rows in the message);
- * PWB_ERR_SINGULAR when every column is zero or no residual degrees of freedom remain.
+ * PWB_ERR_DOMAIN for negative or non-finite weights (count and first rows, 0-based);
+ * PWB_ERR_SINGULAR when every column is zero, every weight is zero or no residual degrees of
+ * freedom remain. With weights the fit is weighted least squares on the rows of positive
+ * weight; sigma, rss (sum of w e^2), standard errors and the log-likelihood are those of R's lm
+ * with the same weights (loglik: 1/2 sum log w - N/2 (log(2 pi) + 1 - log N + log rss) plus the
+ * unweighted Jacobian, over the N rows of positive weight).
  * Thread-safe (touches only its arguments). */
 PWB_API pwb_status pwb_model_fit(const double *y, const double *X, size_t n, size_t p,
                                  const pwb_transform *response, const pwb_model_options *opt,
@@ -447,9 +458,13 @@ typedef struct pwb_model_info {
   double loglik;       /* original-scale log-likelihood (Jacobian of T included) */
   double loglik_df;    /* rank + 1 + estimated_parameters */
   double jacobian;     /* sum over rows of log |dT/dy| (0 for no transform) */
+  size_t nobs;         /* rows in the fit: those of positive weight (n when unweighted) */
+  int weighted;        /* 1 when the model was fitted with weights */
 } pwb_model_info;
 
-/* Fills *info. Errors: PWB_ERR_ARGUMENT for NULL arguments or a struct_size too small. */
+/* Fills *info. Fields beyond the caller's struct_size are not written (a caller built against an
+ * older header gets the fields it knows). Errors: PWB_ERR_ARGUMENT for NULL arguments or a
+ * struct_size smaller than the first version of the struct (up to `jacobian`). */
 PWB_API pwb_status pwb_model_get_info(const pwb_model *m, pwb_model_info *info);
 
 /* Copies the coefficients, their standard errors and aliasing (1 = aliased, coefficient and SE
@@ -516,6 +531,41 @@ PWB_API void pwb_predict_options_init(pwb_predict_options *opt);
 PWB_API pwb_status pwb_model_predict(const pwb_model *m, const double *Xnew, size_t rows, size_t p,
                                      const pwb_predict_options *opt, double *fit, double *lwr,
                                      double *upr, unsigned *flags);
+
+/* Predicts at the model's own rows, as pwb_model_predict would with the training design, without
+ * the caller rebuilding that design: fit/lwr/upr/flags as there, `rows` must equal
+ * pwb_model_info.n. Rows of zero weight in a weighted model are not stored by the model: they
+ * come back NaN with PWB_PRED_MISSING. Errors: as pwb_model_predict, and PWB_ERR_ARGUMENT for
+ * another `rows`. Thread-safe for one m. */
+PWB_API pwb_status pwb_model_predict_fitted(const pwb_model *m, const pwb_predict_options *opt,
+                                            double *fit, double *lwr, double *upr,
+                                            unsigned *flags, size_t rows);
+
+/* The coefficient covariance sigma^2 (X'WX)^{-1} (W = I unweighted), columns-by-columns,
+ * column-major, into the caller's array cov of columns * columns doubles (columns =
+ * pwb_model_info.columns, intercept first); rows and columns of aliased coefficients are NaN (R's
+ * vcov.lm gives NA there). Errors: PWB_ERR_ARGUMENT for a NULL m or cov, or a columns other than
+ * the model's. Thread-safe for one m. */
+PWB_API pwb_status pwb_model_covariance(const pwb_model *m, double *cov, size_t columns);
+
+/* Standard errors of the transformed-scale fit x0'b at `rows` new rows (R's
+ * predict.lm(se.fit = TRUE)): se[i] = sigma sqrt(x0' (X'WX)^{-1} x0). Xnew as in
+ * pwb_model_predict (rows-by-p, column-major, without the intercept column); a row with a NaN
+ * or infinite entry gets NaN. se: caller-owned, `rows` doubles. Errors: PWB_ERR_ARGUMENT for a
+ * NULL m or se, or p other than the fit's. Thread-safe for one m. */
+PWB_API pwb_status pwb_model_predict_se(const pwb_model *m, const double *Xnew, size_t rows,
+                                        size_t p, double *se);
+
+/* The residual checks of m (see pwb_model_residual_checks) and their Shapiro-Wilk note, computed
+ * once: *out as pwb_model_residual_checks fills it, the note written like snprintf into buf (cap
+ * bytes with the NUL; buf may be NULL when cap is 0) with its full length in *needed when not
+ * NULL. A weighted model is checked through its weighted regression: the residuals sqrt(w) e and
+ * the design sqrt(w) [1 X] over the rows of positive weight. Errors: PWB_ERR_ARGUMENT for a NULL
+ * m or out or a struct_size too small. Thread-safe for one m. */
+struct pwb_residual_checks;
+PWB_API pwb_status pwb_model_residual_checks_with_note(const pwb_model *m,
+                                                       struct pwb_residual_checks *out,
+                                                       char *buf, size_t cap, size_t *needed);
 
 /* @@PWB_SECTION_MODEL@@ (declarations of this section go above this line) */
 

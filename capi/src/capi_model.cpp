@@ -1,4 +1,6 @@
 // The model handle of the C ABI: fit, accessors, predictions in original units.
+#include <algorithm>
+#include <cstddef>
 #include <cstring>
 #include <memory>
 
@@ -24,6 +26,45 @@ int enum_value(const E& e) {
   return v;
 }
 
+PredictOptions predict_options_of(const pwb_predict_options* opt) {
+  pwb_predict_options o;
+  pwb_predict_options_init(&o);
+  if (opt) {
+    capi::need_struct(opt->struct_size, sizeof(pwb_predict_options), "pwb_predict_options");
+    o = *opt;
+  }
+  PredictOptions po;
+  po.level = o.level;
+  switch (enum_value(o.interval)) {
+    case PWB_INTERVAL_NONE: po.interval = IntervalKind::None; break;
+    case PWB_INTERVAL_CONFIDENCE: po.interval = IntervalKind::Confidence; break;
+    case PWB_INTERVAL_PREDICTION: po.interval = IntervalKind::Prediction; break;
+    default: throw Error(ErrorCode::Argument, "unknown interval kind " + std::to_string(enum_value(o.interval)));
+  }
+  switch (enum_value(o.center)) {
+    case PWB_CENTER_MEDIAN: po.center = Center::Median; break;
+    case PWB_CENTER_MEAN: po.center = Center::Mean; break;
+    default: throw Error(ErrorCode::Argument, "unknown center " + std::to_string(enum_value(o.center)));
+  }
+  switch (enum_value(o.mean_method)) {
+    case PWB_MEAN_SMEARING: po.mean_method = MeanMethod::Smearing; break;
+    case PWB_MEAN_NORMAL: po.mean_method = MeanMethod::Normal; break;
+    default: throw Error(ErrorCode::Argument, "unknown mean method " + std::to_string(enum_value(o.mean_method)));
+  }
+  po.transformed_scale = o.transformed_scale != 0;
+  return po;
+}
+
+void copy_prediction(const Prediction& pr, std::size_t rows, double* fit, double* lwr, double* upr,
+                     unsigned* flags) {
+  for (std::size_t i = 0; i < rows; ++i) {
+    fit[i] = pr.fit[i];
+    if (lwr) lwr[i] = pr.lower[i];
+    if (upr) upr[i] = pr.upper[i];
+    if (flags) flags[i] = pr.flags[i];
+  }
+}
+
 }  // namespace
 
 extern "C" {
@@ -33,6 +74,7 @@ void pwb_model_options_init(pwb_model_options* opt) {
   opt->struct_size = sizeof(pwb_model_options);
   opt->intercept = 1;
   opt->estimated_parameters = 0;
+  opt->weights = nullptr;
 }
 
 pwb_status pwb_model_fit(const double* y, const double* X, size_t n, size_t p,
@@ -46,12 +88,17 @@ pwb_status pwb_model_fit(const double* y, const double* X, size_t n, size_t p,
     pwb_model_options o;
     pwb_model_options_init(&o);
     if (opt) {
-      capi::need_struct(opt->struct_size, sizeof(pwb_model_options), "pwb_model_options");
-      o = *opt;
+      // The first version of the struct ended before `weights`; a caller built against it
+      // gets no weights.
+      capi::need_struct(opt->struct_size, offsetof(pwb_model_options, weights),
+                        "pwb_model_options");
+      std::memcpy(&o, opt, std::min(opt->struct_size, sizeof o));
+      o.struct_size = sizeof o;
     }
     std::unique_ptr<Transform> tr;
     if (response) tr.reset(new Transform(capi::transform_of(response, "response")));
-    *out = new pwb_model{Model(y, X, n, p, o.intercept != 0, tr.get(), o.estimated_parameters)};
+    *out = new pwb_model{Model(y, X, n, p, o.intercept != 0, tr.get(), o.estimated_parameters,
+                               o.weights)};
   });
 }
 
@@ -60,7 +107,8 @@ void pwb_model_free(pwb_model* m) { delete m; }
 pwb_status pwb_model_get_info(const pwb_model* m, pwb_model_info* info) {
   return capi::guarded([&] {
     capi::need(m, "m");
-    capi::need_sized(info, "info", "pwb_model_info");
+    capi::need(info, "info");
+    capi::need_struct(info->struct_size, offsetof(pwb_model_info, nobs), "pwb_model_info");
     const Model& f = m->impl;
     info->n = f.n();
     info->columns = f.columns();
@@ -72,6 +120,10 @@ pwb_status pwb_model_get_info(const pwb_model* m, pwb_model_info* info) {
     info->loglik = f.loglik();
     info->loglik_df = f.loglik_df();
     info->jacobian = f.jacobian();
+    if (info->struct_size >= offsetof(pwb_model_info, nobs) + sizeof info->nobs)
+      info->nobs = f.nobs();
+    if (info->struct_size >= offsetof(pwb_model_info, weighted) + sizeof info->weighted)
+      info->weighted = f.weighted() ? 1 : 0;
   });
 }
 
@@ -132,38 +184,21 @@ pwb_status pwb_model_predict(const pwb_model* m, const double* Xnew, size_t rows
     capi::need(m, "m");
     capi::need_array(fit, rows, "fit");
     capi::need_array(Xnew, capi::checked_matrix_size(rows, p, "Xnew"), "Xnew");
-    pwb_predict_options o;
-    pwb_predict_options_init(&o);
-    if (opt) {
-      capi::need_struct(opt->struct_size, sizeof(pwb_predict_options), "pwb_predict_options");
-      o = *opt;
-    }
-    PredictOptions po;
-    po.level = o.level;
-    switch (enum_value(o.interval)) {
-      case PWB_INTERVAL_NONE: po.interval = IntervalKind::None; break;
-      case PWB_INTERVAL_CONFIDENCE: po.interval = IntervalKind::Confidence; break;
-      case PWB_INTERVAL_PREDICTION: po.interval = IntervalKind::Prediction; break;
-      default: throw Error(ErrorCode::Argument, "unknown interval kind " + std::to_string(enum_value(o.interval)));
-    }
-    switch (enum_value(o.center)) {
-      case PWB_CENTER_MEDIAN: po.center = Center::Median; break;
-      case PWB_CENTER_MEAN: po.center = Center::Mean; break;
-      default: throw Error(ErrorCode::Argument, "unknown center " + std::to_string(enum_value(o.center)));
-    }
-    switch (enum_value(o.mean_method)) {
-      case PWB_MEAN_SMEARING: po.mean_method = MeanMethod::Smearing; break;
-      case PWB_MEAN_NORMAL: po.mean_method = MeanMethod::Normal; break;
-      default: throw Error(ErrorCode::Argument, "unknown mean method " + std::to_string(enum_value(o.mean_method)));
-    }
-    po.transformed_scale = o.transformed_scale != 0;
-    const Prediction pr = m->impl.predict(Xnew, rows, p, po);
-    for (std::size_t i = 0; i < rows; ++i) {
-      fit[i] = pr.fit[i];
-      if (lwr) lwr[i] = pr.lower[i];
-      if (upr) upr[i] = pr.upper[i];
-      if (flags) flags[i] = pr.flags[i];
-    }
+    const PredictOptions po = predict_options_of(opt);
+    copy_prediction(m->impl.predict(Xnew, rows, p, po), rows, fit, lwr, upr, flags);
+  });
+}
+
+pwb_status pwb_model_predict_fitted(const pwb_model* m, const pwb_predict_options* opt,
+                                    double* fit, double* lwr, double* upr, unsigned* flags,
+                                    size_t rows) {
+  return capi::guarded([&] {
+    capi::need(m, "m");
+    capi::need_array(fit, rows, "fit");
+    require(rows == m->impl.n(), "rows is " + std::to_string(rows) + " but the model has " +
+                                     std::to_string(m->impl.n()) + " rows");
+    const PredictOptions po = predict_options_of(opt);
+    copy_prediction(m->impl.predict_fitted(po), rows, fit, lwr, upr, flags);
   });
 }
 

@@ -78,6 +78,8 @@ void reset(const Model& m, ResidualChecks& out) {
 }  // namespace
 
 ResidualChecks residual_checks(const Model& model) {
+  // A weighted model: the checks of the regression of sqrt(w) z on sqrt(w) [1 X].
+  if (model.weighted()) return residual_checks(model.weighted_regression());
   ResidualChecks out;
   out.n = model.n();
   breusch_pagan(model, out);

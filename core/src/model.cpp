@@ -1,4 +1,5 @@
-// Fitting powerback::Model: transform the response, least squares, sigma-hat, log-likelihood.
+// Fitting powerback::Model: transform the response, (weighted) least squares, sigma-hat,
+// log-likelihood; the coefficient covariance and the weighted-regression twin.
 #include "powerback/model.hpp"
 
 #include <cmath>
@@ -10,47 +11,173 @@ namespace powerback {
 
 namespace {
 constexpr double kLog2Pi = 1.837877066409345483560659472811235279;
+
+// Rows of negative or non-finite weights: IndexedError(Domain) naming them.
+void check_weights(const double* w, std::size_t n) {
+  std::vector<std::size_t> bad;
+  std::size_t count = 0;
+  for (std::size_t i = 0; i < n; ++i) {
+    if (std::isfinite(w[i]) && w[i] >= 0.0) continue;
+    if (bad.size() < kMaxReportedIndices) bad.push_back(i);
+    ++count;
+  }
+  if (count)
+    throw IndexedError(ErrorCode::Domain,
+                       "weights must be finite and >= 0; " + std::to_string(count) +
+                           " weights are negative or not finite, at rows " +
+                           format_indices(bad, count) + " (0-based): fix or drop those rows",
+                       count, bad);
 }
 
+// The factorisation of [1 X] (unweighted) or of sqrt(w) [1 X] over the rows of positive weight.
+LeastSquares factor_design(const double* X, std::size_t n, std::size_t p, bool intercept,
+                           const double* w, std::vector<std::size_t>& kept_rows) {
+  if (!w) return LeastSquares(X, n, p, intercept);
+  require(n > 0, "the design has no rows");
+  require(X != nullptr || p == 0, "the predictor matrix is NULL");
+  check_weights(w, n);
+  for (std::size_t j = 0; j < p; ++j)
+    for (std::size_t i = 0; i < n; ++i)
+      if (!std::isfinite(X[j * n + i]))
+        throw Error(ErrorCode::NonFinite, "predictor column " + std::to_string(j) + " has a " +
+                                              "non-finite value at row " + std::to_string(i) +
+                                              " (0-based): remove or impute it first");
+  for (std::size_t i = 0; i < n; ++i)
+    if (w[i] > 0.0) kept_rows.push_back(i);
+  if (kept_rows.empty())
+    throw Error(ErrorCode::Singular, "every weight is zero: no row is left to fit");
+  const std::size_t c0 = intercept ? 1 : 0;
+  const Eigen::Index nk = static_cast<Eigen::Index>(kept_rows.size());
+  Eigen::MatrixXd d(nk, static_cast<Eigen::Index>(p + c0));
+  for (Eigen::Index r = 0; r < nk; ++r) {
+    const std::size_t i = kept_rows[static_cast<std::size_t>(r)];
+    const double s = std::sqrt(w[i]);
+    if (c0) d(r, 0) = s;
+    for (std::size_t j = 0; j < p; ++j) d(r, static_cast<Eigen::Index>(j + c0)) = s * X[j * n + i];
+  }
+  return LeastSquares(d);
+}
+
+void require_residual_df(const LeastSquares& ls) {
+  if (ls.df_residual() == 0)
+    throw Error(ErrorCode::Singular,
+                "the model has " + std::to_string(ls.rank()) + " estimable coefficients and " +
+                    std::to_string(ls.n()) + " rows, which leaves no residual degrees of freedom: " +
+                    "use fewer predictors or more rows");
+}
+}  // namespace
+
 Model::Model(const double* y, const double* X, std::size_t n, std::size_t p, bool intercept,
-             const Transform* response, std::size_t estimated_parameters)
-    : response_(response ? *response : Transform()), ls_(X, n, p, intercept) {
+             const Transform* response, std::size_t estimated_parameters, const double* weights)
+    : response_(response ? *response : Transform()),
+      ls_(factor_design(X, n, p, intercept, weights, kept_rows_)),
+      intercept_(intercept) {
   require(y != nullptr, "the response y is NULL");
   const std::vector<double> yv(y, y + n);
   const std::vector<double> zv = response_.apply_checked(yv, "y");
-  const std::vector<double> jac = [&] {
-    std::vector<double> d(n);
-    const MapReport r = response_.log_abs_derivative(yv.data(), n, d.data());
-    response_.throw_if_failed(r, n, "y", false);
-    return d;
-  }();
-  if (ls_.df_residual() == 0)
-    throw Error(ErrorCode::Singular,
-                "the model has " + std::to_string(ls_.rank()) + " estimable coefficients and " +
-                    std::to_string(n) + " rows, which leaves no residual degrees of freedom: " +
-                    "use fewer predictors or more rows");
+  std::vector<double> jac(n);
+  const MapReport r = response_.log_abs_derivative(yv.data(), n, jac.data());
+  response_.throw_if_failed(r, n, "y", false);
+  require_residual_df(ls_);
   z_ = Eigen::Map<const Eigen::VectorXd>(zv.data(), static_cast<Eigen::Index>(n));
+  double sum_log_w = 0.0;
+  jacobian_ = 0.0;
+  if (!weights) {
+    finish_unweighted();
+    for (double d : jac) jacobian_ += d;
+  } else {
+    weights_ = Eigen::Map<const Eigen::VectorXd>(weights, static_cast<Eigen::Index>(n));
+    const Eigen::Index nk = static_cast<Eigen::Index>(kept_rows_.size());
+    Eigen::VectorXd zw(nk);
+    for (Eigen::Index k = 0; k < nk; ++k) {
+      const std::size_t i = kept_rows_[static_cast<std::size_t>(k)];
+      zw(k) = std::sqrt(weights[i]) * z_(static_cast<Eigen::Index>(i));
+      sum_log_w += std::log(weights[i]);
+      jacobian_ += jac[i];
+    }
+    coef_ = ls_.coefficients(zw);
+    rss_ = ls_.rss(zw);
+    // Fitted values x'b for every row (zero-weight rows included, as lm reports them).
+    const std::size_t c0 = intercept ? 1 : 0;
+    fitted_ = Eigen::VectorXd::Zero(static_cast<Eigen::Index>(n));
+    for (std::size_t j = 0; j < columns(); ++j) {
+      const double b = coef_(static_cast<Eigen::Index>(j));
+      if (std::isnan(b)) continue;  // aliased
+      if (c0 && j == 0) {
+        fitted_.array() += b;
+        continue;
+      }
+      const double* col = X + (j - c0) * n;
+      for (std::size_t i = 0; i < n; ++i) fitted_(static_cast<Eigen::Index>(i)) += b * col[i];
+    }
+    resid_ = z_ - fitted_;
+    smear_.resize(nk);
+    for (Eigen::Index k = 0; k < nk; ++k) {
+      const std::size_t i = kept_rows_[static_cast<std::size_t>(k)];
+      smear_(k) = std::sqrt(weights[i]) * resid_(static_cast<Eigen::Index>(i));
+    }
+    sigma_ = std::sqrt(rss_ / static_cast<double>(ls_.df_residual()));
+    const Eigen::MatrixXd cov = ls_.unscaled_covariance();
+    se_.resize(cov.rows());
+    for (Eigen::Index j = 0; j < cov.rows(); ++j) se_(j) = sigma_ * std::sqrt(cov(j, j));
+  }
+  const double nd = static_cast<double>(ls_.n());
+  // Normal log-likelihood of z at the MLE variance RSS / N (as R's logLik.lm, weighted or not),
+  // plus the Jacobian of T over the same rows.
+  loglik_ = 0.5 * sum_log_w - 0.5 * nd * (kLog2Pi + std::log(rss_ / nd) + 1.0) + jacobian_;
+  loglik_df_ = static_cast<double>(ls_.rank() + 1 + estimated_parameters);
+}
+
+Model::Model(PreTransformed, const Eigen::VectorXd& z, const Eigen::MatrixXd& design)
+    : ls_(design), intercept_(ls_.has_intercept()) {
+  require_residual_df(ls_);
+  z_ = z;
+  finish_unweighted();
+  const double nd = static_cast<double>(ls_.n());
+  loglik_ = -0.5 * nd * (kLog2Pi + std::log(rss_ / nd) + 1.0);
+  loglik_df_ = static_cast<double>(ls_.rank() + 1);
+}
+
+void Model::finish_unweighted() {
   coef_ = ls_.coefficients(z_);
   fitted_ = ls_.fitted(z_);
   resid_ = z_ - fitted_;
   rss_ = ls_.rss(z_);
-  const double df = static_cast<double>(ls_.df_residual());
-  sigma_ = std::sqrt(rss_ / df);
+  sigma_ = std::sqrt(rss_ / static_cast<double>(ls_.df_residual()));
   const Eigen::MatrixXd cov = ls_.unscaled_covariance();
   se_.resize(cov.rows());
   for (Eigen::Index j = 0; j < cov.rows(); ++j) se_(j) = sigma_ * std::sqrt(cov(j, j));  // NaN stays NaN
-  jacobian_ = 0.0;
-  for (double d : jac) jacobian_ += d;
-  const double nd = static_cast<double>(n);
-  // Normal log-likelihood of z at the MLE variance RSS / n (as R's logLik.lm), plus the Jacobian.
-  loglik_ = -0.5 * nd * (kLog2Pi + std::log(rss_ / nd) + 1.0) + jacobian_;
-  loglik_df_ = static_cast<double>(ls_.rank() + 1 + estimated_parameters);
 }
 
 std::vector<bool> Model::aliased() const {
   std::vector<bool> a(columns(), false);
   for (std::size_t j : ls_.aliased()) a[j] = true;
   return a;
+}
+
+Eigen::VectorXd Model::leverages() const {
+  if (!weighted()) return ls_.leverages();
+  const Eigen::VectorXd h = ls_.leverages();
+  Eigen::VectorXd out = Eigen::VectorXd::Zero(static_cast<Eigen::Index>(n()));
+  for (std::size_t k = 0; k < kept_rows_.size(); ++k)
+    out(static_cast<Eigen::Index>(kept_rows_[k])) = h(static_cast<Eigen::Index>(k));
+  return out;
+}
+
+Eigen::MatrixXd Model::covariance() const {
+  return (sigma_ * sigma_) * ls_.unscaled_covariance();  // NaN where aliased stays NaN
+}
+
+Model Model::weighted_regression() const {
+  const Eigen::Index nk = static_cast<Eigen::Index>(ls_.n());
+  Eigen::VectorXd zw(nk);
+  for (Eigen::Index k = 0; k < nk; ++k) {
+    const std::size_t i = weighted() ? kept_rows_[static_cast<std::size_t>(k)]
+                                     : static_cast<std::size_t>(k);
+    const double s = weighted() ? std::sqrt(weights_(static_cast<Eigen::Index>(i))) : 1.0;
+    zw(k) = s * z_(static_cast<Eigen::Index>(i));
+  }
+  return Model(PreTransformed{}, zw, ls_.design());
 }
 
 }  // namespace powerback

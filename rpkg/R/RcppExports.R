@@ -13,8 +13,8 @@ rpwb_holdout_score <- function(y, fit, lwr, upr) {
     .Call(`_powerback_rpwb_holdout_score`, y, fit, lwr, upr)
 }
 
-rpwb_model_checks <- function(y, X, intercept, response) {
-    .Call(`_powerback_rpwb_model_checks`, y, X, intercept, response)
+rpwb_model_checks <- function(handle) {
+    .Call(`_powerback_rpwb_model_checks`, handle)
 }
 
 rpwb_lambda_influence <- function(y, X, family, lower, upper, level, weights) {
@@ -33,12 +33,28 @@ rpwb_lambda_profile <- function(y, X, family, grid) {
     .Call(`_powerback_rpwb_lambda_profile`, y, X, family, grid)
 }
 
-rpwb_model_fit <- function(y, X, intercept, response, estimated) {
-    .Call(`_powerback_rpwb_model_fit`, y, X, intercept, response, estimated)
+rpwb_model_new <- function(y, X, intercept, response, estimated, weights) {
+    .Call(`_powerback_rpwb_model_new`, y, X, intercept, response, estimated, weights)
 }
 
-rpwb_model_predict <- function(y, X, intercept, response, estimated, Xnew, level, interval, center, mean_method, transformed) {
-    .Call(`_powerback_rpwb_model_predict`, y, X, intercept, response, estimated, Xnew, level, interval, center, mean_method, transformed)
+rpwb_model_is_live <- function(handle) {
+    .Call(`_powerback_rpwb_model_is_live`, handle)
+}
+
+rpwb_model_summary <- function(handle) {
+    .Call(`_powerback_rpwb_model_summary`, handle)
+}
+
+rpwb_model_vector <- function(handle, which) {
+    .Call(`_powerback_rpwb_model_vector`, handle, which)
+}
+
+rpwb_model_predict <- function(handle, Xnew, level, interval, center, mean_method, transformed, se_fit) {
+    .Call(`_powerback_rpwb_model_predict`, handle, Xnew, level, interval, center, mean_method, transformed, se_fit)
+}
+
+rpwb_model_predict_fitted <- function(handle, level, interval, center, mean_method, transformed) {
+    .Call(`_powerback_rpwb_model_predict_fitted`, handle, level, interval, center, mean_method, transformed)
 }
 
 rpwb_screen_variable <- function(x, level, lower, upper) {

@@ -17,10 +17,24 @@
 #' looking at the residual plots ([plot.pwb_model()]) and judgement about the subject matter.
 #'
 #' With `compare = TRUE` and a `pwb_model`, the same checks are made for its untransformed twin
-#' (the same formula fitted by `lm()` to the raw variables) and a before/after table is added.
+#' (the same formula fitted by `lm()` to the raw variables of the same rows, with the same
+#' weights) and a before/after table is added.
 #'
-#' @param object a `pwb_model` from [lm_transformed()] or an unweighted `lm` fit.
+#' Weighted fits (a weighted `pwb_model` or an `lm` fitted with `weights =`) are checked through
+#' their weighted regression, as R's own `lm` diagnostics use weighted residuals: the residuals
+#' are \eqn{\sqrt{w_i} e_i}, the regressors of the Breusch-Pagan and RESET regressions are the
+#' columns of \eqn{\sqrt{w}[1\ X]} (plus an intercept for Breusch-Pagan, so its df counts
+#' \eqn{\sqrt{w}} as a regressor when the weights vary) and the fitted values are
+#' \eqn{\sqrt{w_i}\hat z_i}; rows of zero weight are left out.
+#'
+#' A `pwb_model`'s checks are computed by its live core model (no refit); all four come from one
+#' computation.
+#'
+#' @param object a `pwb_model` from [lm_transformed()], an `lm` fit (weighted or not), or a
+#'   model formula, which is fitted by [stats::lm()] with `data`, `weights` and `subset` first.
 #' @param compare logical: also check the untransformed twin of a `pwb_model`.
+#' @param data,weights,subset for a formula: as in [stats::lm()] (`weights` and `subset` are
+#'   evaluated in `data`). Not used with a fitted object, which carries its own.
 #' @return An object of class `pwb_checks`: a list with `n`, `shapiro_wilk` (`statistic`,
 #'   `p_value`, `computed`, `note`), `breusch_pagan` (`statistic`, `df`, `p_value`), `reset`
 #'   (`statistic`, `df1`, `df2`, `p_value`), `skewness`, `table` (one row per check) and, with
@@ -34,13 +48,22 @@
 #' residual_checks(m, compare = TRUE)
 #' residual_checks(lm(sediment_t_day ~ flow_m3s + season, river))
 #' @export
-residual_checks <- function(object, compare = FALSE) {
+residual_checks <- function(object, compare = FALSE, data = NULL, weights = NULL,
+                            subset = NULL) {
   if (!is.logical(compare) || length(compare) != 1L || is.na(compare))
     stop("`compare` must be TRUE or FALSE", call. = FALSE)
+  if (inherits(object, "formula")) {
+    cl <- match.call()
+    cl$compare <- NULL
+    names(cl)[names(cl) == "object"] <- "formula"
+    cl[[1L]] <- quote(stats::lm)
+    return(residual_checks(eval(cl, parent.frame()), compare = compare))
+  }
+  if (!is.null(data) || !missing(weights) || !missing(subset))
+    stop(paste0("`data`, `weights` and `subset` go with a formula; a fitted model carries its ",
+                "own (refit it with them)"), call. = FALSE)
   if (inherits(object, "pwb_model")) {
-    design <- pwb_design_parts(stats::model.matrix(object$lm))
-    out <- pwb_checks_from(rpwb_model_checks(object$y, design$X, design$intercept,
-                                             pwb_spec_or_null(object$response)))
+    out <- pwb_checks_from(rpwb_model_checks(pwb_handle(object)))
     if (compare) {
       twin <- pwb_untransformed_twin(object)
       before <- residual_checks(twin)
@@ -53,23 +76,31 @@ residual_checks <- function(object, compare = FALSE) {
     }
     return(out)
   }
-  if (inherits(object, "lm") && !inherits(object, "glm")) {
+  if (inherits(object, "lm") && !inherits(object, c("glm", "mlm"))) {
     if (compare) stop("`compare = TRUE` needs a pwb_model (a plain lm has no twin)", call. = FALSE)
-    if (!is.null(object$weights))
-      stop("weighted lm fits are not supported: refit without weights", call. = FALSE)
     mf <- stats::model.frame(object)
+    if (!is.null(stats::model.offset(mf)))
+      stop("lm fits with an offset are not supported: move the offset into the response first",
+           call. = FALSE)
     y <- stats::model.response(mf)
     if (!is.numeric(y) || NCOL(y) != 1L)
       stop("the lm's response must be one numeric column", call. = FALSE)
-    design <- pwb_design_parts(stats::model.matrix(object))
-    return(pwb_checks_from(rpwb_model_checks(as.double(y), design$X, design$intercept, NULL)))
+    mm <- stats::model.matrix(object)
+    intercept <- ncol(mm) > 0L && colnames(mm)[1L] == "(Intercept)"
+    X <- if (intercept) mm[, -1L, drop = FALSE] else mm
+    storage.mode(X) <- "double"
+    w <- stats::model.weights(mf)
+    h <- rpwb_model_new(as.double(y), X, intercept, NULL, 0L,
+                        if (is.null(w)) NULL else as.double(w))
+    return(pwb_checks_from(rpwb_model_checks(h)))
   }
   stop("`object` must be a pwb_model (lm_transformed()) or an lm fit", call. = FALSE)
 }
 
-# The same formula fitted by lm() to the raw variables, with the same missing-value handling.
+# The same formula fitted by lm() to the raw variables of the rows the model used, with its
+# weights.
 pwb_untransformed_twin <- function(object) {
-  stats::lm(object$formula, data = object$data, na.action = object$na.action)
+  pwb_lm_on_frame(object$formula, object$frame)
 }
 
 pwb_checks_from <- function(r) {

@@ -31,15 +31,26 @@ plot.pwb_model <- function(x, compare = FALSE, ...) {
   cols <- if (panels <= 4L) 2L else 3L
   op <- graphics::par(mfrow = c(ceiling(panels / cols), cols))
   on.exit(graphics::par(op))
-  r <- x$residuals
-  f <- x$fitted
+  handle <- pwb_handle(x)
+  r <- rpwb_model_vector(handle, 0L)
+  f <- rpwb_model_vector(handle, 1L)
+  lev <- rpwb_model_vector(handle, 2L)
+  w <- stats::model.weights(x$frame)
+  if (!is.null(w)) {
+    # Weighted residuals (as plot.lm uses), rows of zero weight left out.
+    keep <- w > 0
+    r <- (r * sqrt(w))[keep]
+    f <- f[keep]
+    lev <- lev[keep]
+  }
   pwb_panel_resid_fitted(f, r, "Residuals vs fitted (transformed scale)", ...)
   pwb_panel_qq(r, "Normal Q-Q of residuals", ...)
-  s <- r / (x$sigma * sqrt(pmax(1 - x$leverages, .Machine$double.eps)))
+  s <- r / (x$sigma * sqrt(pmax(1 - lev, .Machine$double.eps)))
   graphics::plot(f, sqrt(abs(s)), xlab = "fitted (transformed scale)",
                  ylab = "sqrt(|standardized residual|)", main = "Scale-location", ...)
   pwb_smooth_line(f, sqrt(abs(s)))
-  mf <- x$lm$model
+  mf <- pwb_transform_columns(pwb_frame_variables(x$frame), x$predictors)
+  if (!is.null(w)) mf <- mf[keep, , drop = FALSE]
   for (v in preds) {
     label <- if (v %in% names(x$predictors)) sprintf("%s (transformed)", v) else v
     graphics::plot(mf[[v]], r, xlab = label, ylab = "residual", main = paste("Residuals vs", v), ...)
@@ -50,7 +61,7 @@ plot.pwb_model <- function(x, compare = FALSE, ...) {
 }
 
 pwb_numeric_model_predictors <- function(x) {
-  mf <- x$lm$model
+  mf <- x$frame
   x$xvars[vapply(x$xvars, function(v) v %in% names(mf) && is.numeric(mf[[v]]), logical(1))]
 }
 
@@ -60,9 +71,12 @@ pwb_plot_compare <- function(x, ...) {
   on.exit(graphics::par(op))
   pwb_panel_resid_fitted(stats::fitted(twin), stats::residuals(twin),
                          "Before: residuals vs fitted", ...)
-  pwb_panel_resid_fitted(x$fitted, x$residuals, "After: residuals vs fitted", ...)
+  handle <- pwb_handle(x)
+  r <- rpwb_model_vector(handle, 0L)
+  f <- rpwb_model_vector(handle, 1L)
+  pwb_panel_resid_fitted(f, r, "After: residuals vs fitted", ...)
   pwb_panel_qq(stats::residuals(twin), "Before: normal Q-Q", ...)
-  pwb_panel_qq(x$residuals, "After: normal Q-Q", ...)
+  pwb_panel_qq(r, "After: normal Q-Q", ...)
   x
 }
 

@@ -19,21 +19,32 @@
 #' `1 + lambda * z > 0`) a value beyond the limit is set to the limit in original units (such as
 #' 0 or `Inf`) and the row is marked in the column `bounded`.
 #'
+#' `se.fit = TRUE` adds the standard errors of the transformed-scale fit
+#' (\eqn{\sigma\sqrt{x_0'(X'WX)^{-1}x_0}}, as [stats::predict.lm()] gives them) and returns a
+#' list shaped like `predict.lm`'s: `fit` (the data frame above), `se.fit`, `df` and
+#' `residual.scale`. A new row has weight 1 in a prediction interval (variance \eqn{\sigma^2}),
+#' as `predict.lm`'s default.
+#'
 #' @param object a `pwb_model` from [lm_transformed()].
 #' @param newdata a data frame with the raw predictor variables; when omitted, the rows used in
-#'   fitting (padded with `NA` rows when the model was fitted with `na.exclude`).
+#'   fitting (padded with `NA` rows when the model was fitted with `na.exclude`). A data frame
+#'   with no rows gives a result with no rows.
+#' @param se.fit logical: also return the standard errors of the transformed-scale fit.
 #' @param interval `"none"`, `"confidence"` or `"prediction"`.
 #' @param level the interval's confidence level, strictly between 0 and 1.
+#' @param type `"response"` (original units, the default) or `"transformed"` (the fit and
+#'   interval on the transformed scale, as `predict.lm` on the transformed columns gives them).
 #' @param center `"median"` or `"mean"` (see Details).
 #' @param mean_method `"smearing"` or `"normal"`, used when `center = "mean"`.
 #' @param invalid what to do with new predictor values outside a transform's domain:
 #'   `"error"` (name the rows) or `"na"` (return those rows as `NA` with `invalid = TRUE`).
-#' @param scale `"original"` (default) or `"transformed"`, to get the fit and interval on the
-#'   transformed scale (as [stats::predict.lm()] on `object$lm` would).
+#' @param scale the older name of `type`: `"original"` is `type = "response"`,
+#'   `"transformed"` is `type = "transformed"`.
 #' @param ... unused.
 #' @return A data frame with one row per row of `newdata`: `fit`, `lwr`, `upr` (`NA` when
 #'   `interval = "none"`), `bounded` and `invalid` (logical). Rows with missing predictor values
-#'   are `NA`, in place.
+#'   are `NA`, in place. With `se.fit = TRUE`, a list of `fit` (that data frame), `se.fit`,
+#'   `df` and `residual.scale`.
 #' @examples
 #' river <- river_data()
 #' m <- lm_transformed(sediment_t_day ~ flow_m3s + rain72_mm + season, river,
@@ -44,21 +55,29 @@
 #' predict(m, new, interval = "prediction")
 #' predict(m, new, center = "mean")
 #' predict(m, new, center = "mean", mean_method = "normal")
+#' predict(m, new, type = "transformed", se.fit = TRUE)
 #' @export
-predict.pwb_model <- function(object, newdata, interval = c("none", "confidence", "prediction"),
-                              level = 0.95, center = c("median", "mean"),
+predict.pwb_model <- function(object, newdata, se.fit = FALSE,
+                              interval = c("none", "confidence", "prediction"),
+                              level = 0.95, type = c("response", "transformed"),
+                              center = c("median", "mean"),
                               mean_method = c("smearing", "normal"), invalid = c("error", "na"),
-                              scale = c("original", "transformed"), ...) {
+                              scale = NULL, ...) {
   interval <- match.arg(interval)
+  type <- match.arg(type)
+  if (!is.null(scale)) {
+    scale <- match.arg(scale, c("original", "transformed"))
+    type <- if (scale == "original") "response" else "transformed"
+  }
   center <- match.arg(center)
   mean_method <- match.arg(mean_method)
   invalid <- match.arg(invalid)
-  scale <- match.arg(scale)
   pwb_check_level(level)
-  design <- pwb_design_parts(stats::model.matrix(object$lm))
+  if (!is.logical(se.fit) || length(se.fit) != 1L || is.na(se.fit))
+    stop("`se.fit` must be TRUE or FALSE", call. = FALSE)
   bad <- integer()
   if (missing(newdata) || is.null(newdata)) {
-    Xnew <- design$X
+    Xnew <- NULL
     row_names <- NULL
   } else {
     nd <- pwb_prepare_newdata(object, newdata, invalid)
@@ -66,23 +85,41 @@ predict.pwb_model <- function(object, newdata, interval = c("none", "confidence"
     Xnew <- nd$X
     row_names <- row.names(newdata)
   }
-  res <- rpwb_model_predict(object$y, design$X, design$intercept,
-                            pwb_spec_or_null(object$response), object$estimated, Xnew, level,
-                            match(interval, c("none", "confidence", "prediction")) - 1L,
-                            match(center, c("median", "mean")) - 1L,
-                            match(mean_method, c("smearing", "normal")) - 1L,
-                            scale == "transformed")
+  handle <- pwb_handle(object)
+  codes <- list(match(interval, c("none", "confidence", "prediction")) - 1L,
+                match(center, c("median", "mean")) - 1L,
+                match(mean_method, c("smearing", "normal")) - 1L)
+  if (is.null(Xnew)) {
+    # The training rows, read from the core model (their design is not rebuilt).
+    res <- rpwb_model_predict_fitted(handle, level, codes[[1L]], codes[[2L]], codes[[3L]],
+                                     type == "transformed")
+    if (se.fit) {
+      w <- stats::model.weights(object$frame)
+      lev <- rpwb_model_vector(handle, 2L)
+      res$se <- object$sigma * sqrt(if (is.null(w)) lev else ifelse(w > 0, lev / w, NA_real_))
+    }
+  } else {
+    res <- rpwb_model_predict(handle, Xnew, level, codes[[1L]], codes[[2L]], codes[[3L]],
+                              type == "transformed", se.fit)
+  }
   out <- data.frame(fit = res$fit, lwr = res$lwr, upr = res$upr,
-                    bounded = bitwAnd(res$flags, 1L) > 0L, invalid = FALSE)
+                    bounded = bitwAnd(res$flags, 1L) > 0L,
+                    invalid = rep(FALSE, length(res$fit)))
   out$invalid[bad] <- TRUE
+  se <- res$se
   if (is.null(row_names)) {
-    if (!is.null(object$lm$na.action) && inherits(object$lm$na.action, "exclude"))
-      out <- pwb_pad_excluded(out, object$lm$na.action)
-    else row.names(out) <- row.names(object$lm$model)
+    if (inherits(object$na.action, "exclude")) {
+      out <- pwb_pad_excluded(out, object$na.action)
+      if (se.fit) se <- stats::napredict(object$na.action, se)
+    } else {
+      row.names(out) <- row.names(object$frame)
+    }
   } else {
     row.names(out) <- row_names
   }
-  out
+  if (!se.fit) return(out)
+  names(se) <- row.names(out)
+  list(fit = out, se.fit = se, df = object$df_residual, residual.scale = object$sigma)
 }
 
 # Rows of `df` placed back among the excluded ones (as na.exclude does for residuals).
@@ -100,17 +137,24 @@ pwb_pad_excluded <- function(df, omit) {
   out
 }
 
-# The design matrix (no intercept column) of new data, after checking variables and factor
-# levels and applying the stored predictor transforms.
+# The design matrix (no intercept column) of new data, after checking variables, their classes
+# and factor levels and applying the stored predictor transforms.
 pwb_prepare_newdata <- function(object, newdata, invalid) {
   if (!is.data.frame(newdata)) stop("`newdata` must be a data frame", call. = FALSE)
   missing_vars <- setdiff(object$xvars, names(newdata))
   if (length(missing_vars))
-    stop(sprintf("`newdata` lacks the %s %s used by the model", 
+    stop(sprintf("`newdata` lacks the %s %s used by the model",
                  pwb_plural(length(missing_vars), "variable"),
                  paste0("`", missing_vars, "`", collapse = ", ")), call. = FALSE)
-  for (v in intersect(names(object$lm$xlevels), names(newdata))) {
-    known <- object$lm$xlevels[[v]]
+  for (v in object$xvars) {
+    was_numeric <- is.numeric(object$frame[[v]])
+    if (was_numeric && !is.numeric(newdata[[v]]))
+      stop(sprintf(paste0("`%s` in `newdata` is %s, but the model was fitted with it numeric: ",
+                          "convert it first, e.g. newdata$%s <- as.numeric(newdata$%s)"),
+                   v, class(newdata[[v]])[1L], v, v), call. = FALSE)
+  }
+  for (v in intersect(names(object$xlevels), names(newdata))) {
+    known <- object$xlevels[[v]]
     vals <- as.character(newdata[[v]])
     unseen <- !is.na(vals) & !vals %in% known
     if (any(unseen))
@@ -121,17 +165,20 @@ pwb_prepare_newdata <- function(object, newdata, invalid) {
                    pwb_plural(sum(unseen), "row"), pwb_format_rows(which(unseen)),
                    paste0("\"", known, "\"", collapse = ", ")), call. = FALSE)
   }
+  p <- length(object$coefficients) - as.integer(attr(object$terms, "intercept") == 1L)
+  if (nrow(newdata) == 0L)
+    return(list(X = matrix(0, 0L, p), invalid_rows = integer()))
   bad <- integer()
   for (v in names(object$predictors)) {
-    if (!is.numeric(newdata[[v]]))
-      stop(sprintf("`%s` in `newdata` must be numeric", v), call. = FALSE)
     z <- pwb_map_values(object$predictors[[v]], newdata[[v]], v, invalid, inverse = FALSE)
     bad <- union(bad, attr(z, "invalid_rows"))
     attr(z, "invalid_rows") <- NULL
     newdata[[v]] <- z
   }
-  tt <- stats::delete.response(stats::terms(object$lm))
-  mf <- stats::model.frame(tt, newdata, na.action = stats::na.pass, xlev = object$lm$xlevels)
-  mm <- stats::model.matrix(tt, mf, contrasts.arg = object$lm$contrasts)
-  list(X = pwb_design_parts(mm)$X, invalid_rows = sort(as.integer(bad)))
+  tt <- stats::delete.response(object$terms)
+  mf <- stats::model.frame(tt, newdata, na.action = stats::na.pass, xlev = object$xlevels)
+  mm <- stats::model.matrix(tt, mf, contrasts.arg = object$contrasts)
+  X <- if (attr(tt, "intercept") == 1L) mm[, -1L, drop = FALSE] else mm
+  storage.mode(X) <- "double"
+  list(X = X, invalid_rows = sort(as.integer(bad)))
 }

@@ -59,16 +59,13 @@ BEGIN_RCPP
 END_RCPP
 }
 // rpwb_model_checks
-Rcpp::List rpwb_model_checks(Rcpp::NumericVector y, Rcpp::NumericMatrix X, bool intercept, Rcpp::Nullable<Rcpp::List> response);
-RcppExport SEXP _powerback_rpwb_model_checks(SEXP ySEXP, SEXP XSEXP, SEXP interceptSEXP, SEXP responseSEXP) {
+Rcpp::List rpwb_model_checks(SEXP handle);
+RcppExport SEXP _powerback_rpwb_model_checks(SEXP handleSEXP) {
 BEGIN_RCPP
     Rcpp::RObject rcpp_result_gen;
     Rcpp::RNGScope rcpp_rngScope_gen;
-    Rcpp::traits::input_parameter< Rcpp::NumericVector >::type y(ySEXP);
-    Rcpp::traits::input_parameter< Rcpp::NumericMatrix >::type X(XSEXP);
-    Rcpp::traits::input_parameter< bool >::type intercept(interceptSEXP);
-    Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::List> >::type response(responseSEXP);
-    rcpp_result_gen = Rcpp::wrap(rpwb_model_checks(y, X, intercept, response));
+    Rcpp::traits::input_parameter< SEXP >::type handle(handleSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_model_checks(handle));
     return rcpp_result_gen;
 END_RCPP
 }
@@ -136,9 +133,9 @@ BEGIN_RCPP
     return rcpp_result_gen;
 END_RCPP
 }
-// rpwb_model_fit
-Rcpp::List rpwb_model_fit(Rcpp::NumericVector y, Rcpp::NumericMatrix X, bool intercept, Rcpp::Nullable<Rcpp::List> response, int estimated);
-RcppExport SEXP _powerback_rpwb_model_fit(SEXP ySEXP, SEXP XSEXP, SEXP interceptSEXP, SEXP responseSEXP, SEXP estimatedSEXP) {
+// rpwb_model_new
+SEXP rpwb_model_new(Rcpp::NumericVector y, Rcpp::NumericMatrix X, bool intercept, Rcpp::Nullable<Rcpp::List> response, int estimated, Rcpp::Nullable<Rcpp::NumericVector> weights);
+RcppExport SEXP _powerback_rpwb_model_new(SEXP ySEXP, SEXP XSEXP, SEXP interceptSEXP, SEXP responseSEXP, SEXP estimatedSEXP, SEXP weightsSEXP) {
 BEGIN_RCPP
     Rcpp::RObject rcpp_result_gen;
     Rcpp::RNGScope rcpp_rngScope_gen;
@@ -147,28 +144,76 @@ BEGIN_RCPP
     Rcpp::traits::input_parameter< bool >::type intercept(interceptSEXP);
     Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::List> >::type response(responseSEXP);
     Rcpp::traits::input_parameter< int >::type estimated(estimatedSEXP);
-    rcpp_result_gen = Rcpp::wrap(rpwb_model_fit(y, X, intercept, response, estimated));
+    Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::NumericVector> >::type weights(weightsSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_model_new(y, X, intercept, response, estimated, weights));
+    return rcpp_result_gen;
+END_RCPP
+}
+// rpwb_model_is_live
+bool rpwb_model_is_live(SEXP handle);
+RcppExport SEXP _powerback_rpwb_model_is_live(SEXP handleSEXP) {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< SEXP >::type handle(handleSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_model_is_live(handle));
+    return rcpp_result_gen;
+END_RCPP
+}
+// rpwb_model_summary
+Rcpp::List rpwb_model_summary(SEXP handle);
+RcppExport SEXP _powerback_rpwb_model_summary(SEXP handleSEXP) {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< SEXP >::type handle(handleSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_model_summary(handle));
+    return rcpp_result_gen;
+END_RCPP
+}
+// rpwb_model_vector
+Rcpp::NumericVector rpwb_model_vector(SEXP handle, int which);
+RcppExport SEXP _powerback_rpwb_model_vector(SEXP handleSEXP, SEXP whichSEXP) {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< SEXP >::type handle(handleSEXP);
+    Rcpp::traits::input_parameter< int >::type which(whichSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_model_vector(handle, which));
     return rcpp_result_gen;
 END_RCPP
 }
 // rpwb_model_predict
-Rcpp::List rpwb_model_predict(Rcpp::NumericVector y, Rcpp::NumericMatrix X, bool intercept, Rcpp::Nullable<Rcpp::List> response, int estimated, Rcpp::NumericMatrix Xnew, double level, int interval, int center, int mean_method, bool transformed);
-RcppExport SEXP _powerback_rpwb_model_predict(SEXP ySEXP, SEXP XSEXP, SEXP interceptSEXP, SEXP responseSEXP, SEXP estimatedSEXP, SEXP XnewSEXP, SEXP levelSEXP, SEXP intervalSEXP, SEXP centerSEXP, SEXP mean_methodSEXP, SEXP transformedSEXP) {
+Rcpp::List rpwb_model_predict(SEXP handle, Rcpp::NumericMatrix Xnew, double level, int interval, int center, int mean_method, bool transformed, bool se_fit);
+RcppExport SEXP _powerback_rpwb_model_predict(SEXP handleSEXP, SEXP XnewSEXP, SEXP levelSEXP, SEXP intervalSEXP, SEXP centerSEXP, SEXP mean_methodSEXP, SEXP transformedSEXP, SEXP se_fitSEXP) {
 BEGIN_RCPP
     Rcpp::RObject rcpp_result_gen;
     Rcpp::RNGScope rcpp_rngScope_gen;
-    Rcpp::traits::input_parameter< Rcpp::NumericVector >::type y(ySEXP);
-    Rcpp::traits::input_parameter< Rcpp::NumericMatrix >::type X(XSEXP);
-    Rcpp::traits::input_parameter< bool >::type intercept(interceptSEXP);
-    Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::List> >::type response(responseSEXP);
-    Rcpp::traits::input_parameter< int >::type estimated(estimatedSEXP);
+    Rcpp::traits::input_parameter< SEXP >::type handle(handleSEXP);
     Rcpp::traits::input_parameter< Rcpp::NumericMatrix >::type Xnew(XnewSEXP);
     Rcpp::traits::input_parameter< double >::type level(levelSEXP);
     Rcpp::traits::input_parameter< int >::type interval(intervalSEXP);
     Rcpp::traits::input_parameter< int >::type center(centerSEXP);
     Rcpp::traits::input_parameter< int >::type mean_method(mean_methodSEXP);
     Rcpp::traits::input_parameter< bool >::type transformed(transformedSEXP);
-    rcpp_result_gen = Rcpp::wrap(rpwb_model_predict(y, X, intercept, response, estimated, Xnew, level, interval, center, mean_method, transformed));
+    Rcpp::traits::input_parameter< bool >::type se_fit(se_fitSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_model_predict(handle, Xnew, level, interval, center, mean_method, transformed, se_fit));
+    return rcpp_result_gen;
+END_RCPP
+}
+// rpwb_model_predict_fitted
+Rcpp::List rpwb_model_predict_fitted(SEXP handle, double level, int interval, int center, int mean_method, bool transformed);
+RcppExport SEXP _powerback_rpwb_model_predict_fitted(SEXP handleSEXP, SEXP levelSEXP, SEXP intervalSEXP, SEXP centerSEXP, SEXP mean_methodSEXP, SEXP transformedSEXP) {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< SEXP >::type handle(handleSEXP);
+    Rcpp::traits::input_parameter< double >::type level(levelSEXP);
+    Rcpp::traits::input_parameter< int >::type interval(intervalSEXP);
+    Rcpp::traits::input_parameter< int >::type center(centerSEXP);
+    Rcpp::traits::input_parameter< int >::type mean_method(mean_methodSEXP);
+    Rcpp::traits::input_parameter< bool >::type transformed(transformedSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_model_predict_fitted(handle, level, interval, center, mean_method, transformed));
     return rcpp_result_gen;
 END_RCPP
 }
@@ -251,13 +296,17 @@ static const R_CallMethodDef CallEntries[] = {
     {"_powerback_rpwb_box_tidwell", (DL_FUNC) &_powerback_rpwb_box_tidwell, 7},
     {"_powerback_rpwb_cv_folds_by", (DL_FUNC) &_powerback_rpwb_cv_folds_by, 6},
     {"_powerback_rpwb_holdout_score", (DL_FUNC) &_powerback_rpwb_holdout_score, 4},
-    {"_powerback_rpwb_model_checks", (DL_FUNC) &_powerback_rpwb_model_checks, 4},
+    {"_powerback_rpwb_model_checks", (DL_FUNC) &_powerback_rpwb_model_checks, 1},
     {"_powerback_rpwb_lambda_influence", (DL_FUNC) &_powerback_rpwb_lambda_influence, 7},
     {"_powerback_rpwb_estimate_lambda", (DL_FUNC) &_powerback_rpwb_estimate_lambda, 6},
     {"_powerback_rpwb_estimate_response_lambda", (DL_FUNC) &_powerback_rpwb_estimate_response_lambda, 7},
     {"_powerback_rpwb_lambda_profile", (DL_FUNC) &_powerback_rpwb_lambda_profile, 4},
-    {"_powerback_rpwb_model_fit", (DL_FUNC) &_powerback_rpwb_model_fit, 5},
-    {"_powerback_rpwb_model_predict", (DL_FUNC) &_powerback_rpwb_model_predict, 11},
+    {"_powerback_rpwb_model_new", (DL_FUNC) &_powerback_rpwb_model_new, 6},
+    {"_powerback_rpwb_model_is_live", (DL_FUNC) &_powerback_rpwb_model_is_live, 1},
+    {"_powerback_rpwb_model_summary", (DL_FUNC) &_powerback_rpwb_model_summary, 1},
+    {"_powerback_rpwb_model_vector", (DL_FUNC) &_powerback_rpwb_model_vector, 2},
+    {"_powerback_rpwb_model_predict", (DL_FUNC) &_powerback_rpwb_model_predict, 8},
+    {"_powerback_rpwb_model_predict_fitted", (DL_FUNC) &_powerback_rpwb_model_predict_fitted, 6},
     {"_powerback_rpwb_screen_variable", (DL_FUNC) &_powerback_rpwb_screen_variable, 4},
     {"_powerback_rpwb_spec_write_file", (DL_FUNC) &_powerback_rpwb_spec_write_file, 4},
     {"_powerback_rpwb_spec_read_file", (DL_FUNC) &_powerback_rpwb_spec_read_file, 1},

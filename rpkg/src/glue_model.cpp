@@ -1,6 +1,5 @@
-// Rcpp glue for models: thin wrappers over pwb_model_* of powerback.h. The R side builds the
-// design matrix (model.matrix without the intercept column) and refits the handle per call, so a
-// saved pwb_model needs no live pointer.
+// Rcpp glue for models: thin wrappers over pwb_model_* of powerback.h. A fit returns a live
+// handle (an external pointer); accessors and predictions read it without refitting.
 #include "glue_model_handle.h"
 
 #include <vector>
@@ -11,43 +10,69 @@ Rcpp::NumericVector vec(const std::vector<double>& v) {
   for (std::size_t i = 0; i < v.size(); ++i) out[i] = rpwb::nan_to_na(v[i]);
   return out;
 }
+
+pwb_model_info info_of(const pwb_model* m) {
+  pwb_model_info info;
+  info.struct_size = sizeof info;
+  rpwb::check(pwb_model_get_info(m, &info));
+  return info;
+}
 }  // namespace
 
 // [[Rcpp::export]]
-Rcpp::List rpwb_model_fit(Rcpp::NumericVector y, Rcpp::NumericMatrix X, bool intercept,
-                          Rcpp::Nullable<Rcpp::List> response, int estimated) {
-  rpwb::Model m(y, X, intercept, response, estimated);
-  pwb_model_info info;
-  info.struct_size = sizeof info;
-  rpwb::check(pwb_model_get_info(m.get(), &info));
-  const std::size_t k = info.columns, n = info.n;
-  std::vector<double> coef(k), se(k);
+SEXP rpwb_model_new(Rcpp::NumericVector y, Rcpp::NumericMatrix X, bool intercept,
+                    Rcpp::Nullable<Rcpp::List> response, int estimated,
+                    Rcpp::Nullable<Rcpp::NumericVector> weights) {
+  return rpwb::fit_model(y, X, intercept, response, estimated, weights);
+}
+
+// TRUE when the handle points at a model (FALSE after saveRDS/readRDS or serialize).
+// [[Rcpp::export]]
+bool rpwb_model_is_live(SEXP handle) {
+  return TYPEOF(handle) == EXTPTRSXP && R_ExternalPtrAddr(handle) != nullptr;
+}
+
+// The model's scalars, coefficients, standard errors, aliasing and covariance.
+// [[Rcpp::export]]
+Rcpp::List rpwb_model_summary(SEXP handle) {
+  const pwb_model* m = rpwb::model_of(handle);
+  const pwb_model_info info = info_of(m);
+  const std::size_t k = info.columns;
+  std::vector<double> coef(k), se(k), cov(k * k);
   std::vector<int> al(k);
-  rpwb::check(pwb_model_coefficients(m.get(), coef.data(), se.data(), al.data(), k));
-  std::vector<double> resid(n), fitted(n), lev(n), z(n);
-  rpwb::check(pwb_model_vector_get(m.get(), PWB_MODEL_RESIDUALS, resid.data(), n));
-  rpwb::check(pwb_model_vector_get(m.get(), PWB_MODEL_FITTED, fitted.data(), n));
-  rpwb::check(pwb_model_vector_get(m.get(), PWB_MODEL_LEVERAGES, lev.data(), n));
-  rpwb::check(pwb_model_vector_get(m.get(), PWB_MODEL_TRANSFORMED_RESPONSE, z.data(), n));
+  rpwb::check(pwb_model_coefficients(m, coef.data(), se.data(), al.data(), k));
+  rpwb::check(pwb_model_covariance(m, cov.data(), k));
+  Rcpp::NumericMatrix v(static_cast<int>(k), static_cast<int>(k));
+  for (std::size_t i = 0; i < k * k; ++i) v[i] = rpwb::nan_to_na(cov[i]);
   return Rcpp::List::create(
       Rcpp::Named("coefficients") = vec(coef), Rcpp::Named("se") = vec(se),
       Rcpp::Named("aliased") = Rcpp::LogicalVector(al.begin(), al.end()),
-      Rcpp::Named("sigma") = info.sigma, Rcpp::Named("df_residual") = static_cast<double>(info.df_residual),
+      Rcpp::Named("vcov") = v, Rcpp::Named("sigma") = info.sigma,
+      Rcpp::Named("df_residual") = static_cast<double>(info.df_residual),
       Rcpp::Named("rank") = static_cast<double>(info.rank), Rcpp::Named("rss") = info.rss,
-      Rcpp::Named("residuals") = vec(resid), Rcpp::Named("fitted") = vec(fitted),
-      Rcpp::Named("leverages") = vec(lev), Rcpp::Named("z") = vec(z),
       Rcpp::Named("loglik") = info.loglik, Rcpp::Named("loglik_df") = info.loglik_df,
-      Rcpp::Named("jacobian") = info.jacobian);
+      Rcpp::Named("jacobian") = info.jacobian,
+      Rcpp::Named("nobs") = static_cast<double>(info.nobs),
+      Rcpp::Named("n") = static_cast<double>(info.n));
+}
+
+// One per-row vector: 0 residuals, 1 fitted, 2 leverages, 3 transformed response.
+// [[Rcpp::export]]
+Rcpp::NumericVector rpwb_model_vector(SEXP handle, int which) {
+  const pwb_model* m = rpwb::model_of(handle);
+  const std::size_t n = info_of(m).n;
+  std::vector<double> out(n);
+  rpwb::check(pwb_model_vector_get(m, static_cast<pwb_model_vector>(which), out.data(), n));
+  return vec(out);
 }
 
 // interval: 0 none, 1 confidence, 2 prediction; center: 0 median, 1 mean; mean_method: 0
-// smearing, 1 normal. Rows of Xnew with NA come back NA with flag 2 (PWB_PRED_MISSING).
+// smearing, 1 normal. Rows of Xnew with NA come back NA with flag 2 (PWB_PRED_MISSING). With
+// se_fit, `se` holds the transformed-scale standard errors of the fit.
 // [[Rcpp::export]]
-Rcpp::List rpwb_model_predict(Rcpp::NumericVector y, Rcpp::NumericMatrix X, bool intercept,
-                              Rcpp::Nullable<Rcpp::List> response, int estimated,
-                              Rcpp::NumericMatrix Xnew, double level, int interval, int center,
-                              int mean_method, bool transformed) {
-  rpwb::Model m(y, X, intercept, response, estimated);
+Rcpp::List rpwb_model_predict(SEXP handle, Rcpp::NumericMatrix Xnew, double level, int interval,
+                              int center, int mean_method, bool transformed, bool se_fit) {
+  const pwb_model* m = rpwb::model_of(handle);
   pwb_predict_options o;
   pwb_predict_options_init(&o);
   o.level = level;
@@ -56,12 +81,42 @@ Rcpp::List rpwb_model_predict(Rcpp::NumericVector y, Rcpp::NumericMatrix X, bool
   o.mean_method = static_cast<pwb_mean_method>(mean_method);
   o.transformed_scale = transformed ? 1 : 0;
   const std::size_t rows = static_cast<std::size_t>(Xnew.nrow());
+  const std::size_t p = static_cast<std::size_t>(Xnew.ncol());
+  const double* x = p > 0 && rows > 0 ? Xnew.begin() : nullptr;
   // R's NA_real_ is a NaN, which the library treats as a missing row.
   std::vector<double> fit(rows), lwr(rows), upr(rows);
   std::vector<unsigned> flags(rows);
-  rpwb::check(pwb_model_predict(m.get(), Xnew.ncol() > 0 ? Xnew.begin() : nullptr, rows,
-                                static_cast<size_t>(Xnew.ncol()), &o, fit.data(), lwr.data(),
-                                upr.data(), flags.data()));
+  rpwb::check(pwb_model_predict(m, x, rows, p, &o, fit.data(), lwr.data(), upr.data(),
+                                flags.data()));
+  Rcpp::IntegerVector fl(rows);
+  for (std::size_t i = 0; i < rows; ++i) fl[i] = static_cast<int>(flags[i]);
+  Rcpp::List out = Rcpp::List::create(Rcpp::Named("fit") = vec(fit), Rcpp::Named("lwr") = vec(lwr),
+                                      Rcpp::Named("upr") = vec(upr), Rcpp::Named("flags") = fl);
+  if (se_fit) {
+    std::vector<double> se(rows);
+    rpwb::check(pwb_model_predict_se(m, x, rows, p, se.data()));
+    out["se"] = vec(se);
+  }
+  return out;
+}
+
+// Predictions at the model's own rows (no design from R); arguments as rpwb_model_predict.
+// [[Rcpp::export]]
+Rcpp::List rpwb_model_predict_fitted(SEXP handle, double level, int interval, int center,
+                                     int mean_method, bool transformed) {
+  const pwb_model* m = rpwb::model_of(handle);
+  pwb_predict_options o;
+  pwb_predict_options_init(&o);
+  o.level = level;
+  o.interval = static_cast<pwb_interval>(interval);
+  o.center = static_cast<pwb_center>(center);
+  o.mean_method = static_cast<pwb_mean_method>(mean_method);
+  o.transformed_scale = transformed ? 1 : 0;
+  const std::size_t rows = info_of(m).n;
+  std::vector<double> fit(rows), lwr(rows), upr(rows);
+  std::vector<unsigned> flags(rows);
+  rpwb::check(pwb_model_predict_fitted(m, &o, fit.data(), lwr.data(), upr.data(), flags.data(),
+                                       rows));
   Rcpp::IntegerVector fl(rows);
   for (std::size_t i = 0; i < rows; ++i) fl[i] = static_cast<int>(flags[i]);
   return Rcpp::List::create(Rcpp::Named("fit") = vec(fit), Rcpp::Named("lwr") = vec(lwr),

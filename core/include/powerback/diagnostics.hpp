@@ -36,6 +36,8 @@ struct ResidualChecks {
 };
 
 // The checks of one fitted model, on the transformed scale (where its errors are modelled).
+// A weighted model is checked through its weighted regression (Model::weighted_regression():
+// residuals sqrt(w) e, design sqrt(w) [1 X]), as R's lm diagnostics use weighted residuals.
 // A test that cannot be computed (no regressor besides the intercept for Breusch-Pagan, no
 // residual df left for RESET, constant residuals) has NaN fields.
 ResidualChecks residual_checks(const Model& model);

@@ -11,8 +11,17 @@
 // freedom are rank + 1 (sigma), plus the number of estimated transform parameters the caller
 // declares (1 when lambda was estimated from these data).
 //
+// Precision weights w_i >= 0 (optional; variance sigma^2 / w_i, as R's lm): rows of positive
+// weight are fitted by least squares on sqrt(w) [1 X] and sqrt(w) z; a zero weight drops the
+// row from the fit (it still gets a fitted value and a residual, leverage 0), as lm does. With
+// weights, RSS = sum w e^2 over the kept rows, df = (rows of positive weight) - rank, and
+//   loglik = 1/2 sum log w_i - N/2 (log(2 pi) + 1 - log N + log RSS) + sum_i log |dT/dy (y_i)|
+// over the N rows of positive weight: the weighted normal log-likelihood of z (R's logLik.lm of
+// a weighted fit) plus the unweighted Jacobian. A new row predicted has weight 1.
+//
 // References: Box & Cox (1964), sec. 3 (the Jacobian term); Seber & Lee, Linear Regression
-// Analysis, 2nd ed., ch. 5 (confidence and prediction intervals of a linear model).
+// Analysis, 2nd ed., ch. 5 (confidence and prediction intervals of a linear model) and sec. 3.10
+// (weighted least squares).
 #pragma once
 
 #include <Eigen/Dense>
@@ -51,17 +60,26 @@ class Model {
   // y: n raw responses; X: n-by-p predictors, column-major, no intercept column (one is added
   // when `intercept`). `response` may be null (identity). `estimated_parameters` counts the
   // transform parameters estimated from these data (added to the log-likelihood's df).
+  // `weights` (n values, or null for none) are precision weights, each finite and >= 0.
   // Throws IndexedError naming "y" and its rows when T cannot be applied to y,
-  // Error(Singular) when the rank is not below n (no residual degrees of freedom).
+  // IndexedError(Domain) naming the rows of negative or non-finite weights,
+  // Error(Singular) when the rank is not below the rows of positive weight (no residual
+  // degrees of freedom) or no row has a positive weight.
   Model(const double* y, const double* X, std::size_t n, std::size_t p, bool intercept,
-        const Transform* response, std::size_t estimated_parameters = 0);
+        const Transform* response, std::size_t estimated_parameters = 0,
+        const double* weights = nullptr);
 
-  std::size_t n() const { return ls_.n(); }
+  std::size_t n() const { return static_cast<std::size_t>(z_.size()); }  // every row given
+  std::size_t nobs() const { return ls_.n(); }  // rows in the fit (positive weight)
   std::size_t columns() const { return ls_.columns(); }
   std::size_t rank() const { return ls_.rank(); }
   std::size_t df_residual() const { return ls_.df_residual(); }
-  bool intercept() const { return ls_.has_intercept(); }
+  bool intercept() const { return intercept_; }
+  bool weighted() const { return weights_.size() > 0; }
+  const Eigen::VectorXd& weights() const { return weights_; }  // empty when unweighted
   const Transform& response() const { return response_; }
+  // The factorisation of the fitted design: [1 X] (unweighted), or sqrt(w) [1 X] over the rows
+  // of positive weight.
   const LeastSquares& least_squares() const { return ls_; }
 
   const Eigen::VectorXd& transformed_response() const { return z_; }
@@ -70,8 +88,14 @@ class Model {
   std::vector<bool> aliased() const;                                // per design column
   const Eigen::VectorXd& residuals() const { return resid_; }       // transformed scale
   const Eigen::VectorXd& fitted() const { return fitted_; }         // transformed scale
-  Eigen::VectorXd leverages() const { return ls_.leverages(); }
-  double rss() const { return rss_; }
+  // Hat-matrix diagonal (of the weighted design when weighted; 0 for zero-weight rows).
+  Eigen::VectorXd leverages() const;
+  // sigma^2 (X'WX)^{-1}, columns() x columns(), NaN rows and columns where aliased.
+  Eigen::MatrixXd covariance() const;
+  // Residuals the smearing mean averages over: e (unweighted), sqrt(w) e over the rows of
+  // positive weight (weighted), so each has variance sigma^2 like a new row of weight 1.
+  const Eigen::VectorXd& smearing_residuals() const { return weighted() ? smear_ : resid_; }
+  double rss() const { return rss_; }  // sum of w e^2 (w = 1 when unweighted)
   double sigma() const { return sigma_; }
   double loglik() const { return loglik_; }
   double loglik_df() const { return loglik_df_; }
@@ -83,10 +107,42 @@ class Model {
   Prediction predict(const double* Xnew, std::size_t m, std::size_t p,
                      const PredictOptions& opt) const;
 
+  // Predictions at the model's own rows (as predict() of the training design, without the
+  // caller rebuilding it). Unweighted models read the stored design; a weighted model rebuilds
+  // its rows from the weighted design (zero-weight rows, which it does not store, come back
+  // NaN and flagged kPredMissing).
+  Prediction predict_fitted(const PredictOptions& opt) const;
+
+  // Standard errors of the fitted values x0'b at m new rows (transformed scale):
+  // sigma sqrt(x0' (X'WX)^{-1} x0); NaN for rows with a non-finite entry. Same layout and errors
+  // as predict().
+  std::vector<double> fit_standard_errors(const double* Xnew, std::size_t m, std::size_t p) const;
+
+  // The unweighted regression a weighted model amounts to: sqrt(w) z on sqrt(w) [1 X] (no added
+  // intercept) over the rows of positive weight, identity response. Its residuals are the
+  // weighted residuals sqrt(w) e. Residual checks of a weighted model are those of this one.
+  Model weighted_regression() const;
+
  private:
+  struct PreTransformed {};
+  Model(PreTransformed, const Eigen::VectorXd& z, const Eigen::MatrixXd& design);
+  // Coefficients, fitted values, residuals, RSS, sigma and standard errors of z_ on ls_.
+  void finish_unweighted();
+  // The rows [1 x] of new data (intercept column when the model has one); non-finite rows are
+  // zero and flagged kPredMissing in flags.
+  Eigen::MatrixXd design_rows(const double* Xnew, std::size_t m, std::size_t p,
+                              std::vector<unsigned>& flags) const;
+  // Predictions at the rows of a design (intercept column included when the model has one).
+  Prediction predict_rows(const Eigen::MatrixXd& rows, std::vector<unsigned> flags,
+                          const PredictOptions& opt) const;
+
   Transform response_;
+  std::vector<std::size_t> kept_rows_;  // rows of positive weight (empty when unweighted);
+                                        // declared before ls_, whose construction fills it
   LeastSquares ls_;
-  Eigen::VectorXd z_, coef_, se_, resid_, fitted_;
+  bool intercept_ = true;
+  Eigen::VectorXd weights_;  // empty when unweighted
+  Eigen::VectorXd z_, coef_, se_, resid_, fitted_, smear_;
   double rss_ = 0, sigma_ = 0, loglik_ = 0, loglik_df_ = 0, jacobian_ = 0;
 };
 

@@ -67,7 +67,6 @@ test_that("before/after table uses the untransformed twin", {
 
 test_that("bad objects are refused", {
   d <- pwb_sim_checks(30)
-  expect_error(residual_checks(lm(y ~ x1, d, weights = x1 + 1)), "weighted")
   expect_error(residual_checks(lm(y ~ x1, d), compare = TRUE), "needs a pwb_model")
   expect_error(residual_checks(list()), "pwb_model")
 })
@@ -81,4 +80,34 @@ test_that("Breusch-Pagan of a model without an intercept keeps one in the auxili
   expect_equal(ch$breusch_pagan$statistic, 80 * summary(aux)$r.squared, tolerance = 1e-10)
   expect_equal(ch$breusch_pagan$df, 2)
   expect_true(is.finite(ch$reset$statistic))
+})
+
+test_that("a weighted lm is checked through its weighted regression", {
+  d <- pwb_sim_checks(60)
+  d$w <- rep(c(0.5, 1, 2), 20)
+  ch <- residual_checks(lm(y ~ x1 + x2, d, weights = w))
+  # Reference: the unweighted regression of sqrt(w) y on sqrt(w) [1 x1 x2] by base R lm(), and
+  # Koenker's statistic n R^2 of its squared residuals on [1, sqrt(w), sqrt(w) x1, sqrt(w) x2]
+  # (summary.lm r.squared); tolerance 1e-9 for two different QR routes.
+  sw <- sqrt(d$w)
+  by_hand <- lm(I(sw * y) ~ 0 + sw + I(sw * x1) + I(sw * x2), d)
+  u <- residuals(by_hand)^2
+  bp <- 60 * summary(lm(u ~ sw + I(sw * d$x1) + I(sw * d$x2)))$r.squared
+  expect_equal(ch$breusch_pagan$statistic, bp, tolerance = 1e-9)
+  expect_equal(ch$breusch_pagan$df, 3)
+  # Shapiro-Wilk of the weighted residuals: base R shapiro.test().
+  expect_equal(ch$shapiro_wilk$statistic,
+               unname(stats::shapiro.test(residuals(by_hand))$statistic), tolerance = 1e-6)
+  m <- lm_transformed(y ~ x1 + x2, d, weights = w, response = "none")
+  expect_equal(residual_checks(m)$table$statistic, ch$table$statistic, tolerance = 1e-10)
+})
+
+test_that("a formula is fitted with data, weights and subset first", {
+  d <- pwb_sim_checks(60)
+  d$w <- rep(c(0.5, 1, 2), 20)
+  # Reference: the same checks of base R lm(weights =, subset =) fitted by hand.
+  ref <- residual_checks(lm(y ~ x1 + x2, d, weights = w, subset = x2 > -1))
+  got <- residual_checks(y ~ x1 + x2, data = d, weights = w, subset = x2 > -1)
+  expect_identical(got$table, ref$table)
+  expect_error(residual_checks(lm(y ~ x1, d), weights = w), "go with a formula")
 })

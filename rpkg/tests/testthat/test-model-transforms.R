@@ -23,10 +23,11 @@ test_that("response = \"estimate\" uses the convenient power given the predictor
   expect_equal(attr(logLik(m2), "df"), 5)
 })
 
-test_that("predictors = \"ml\" and \"ladder\" transform only the skewed predictors", {
+test_that("predictors = \"marginal\" and \"ladder\" transform only the skewed predictors", {
   d <- pwb_sim_skewed()
   s <- screen_skew(d[, c("size", "temp")])
-  m <- lm_transformed(y ~ size + temp, d, response = new_transform("log"), predictors = "ml")
+  m <- lm_transformed(y ~ size + temp, d, response = new_transform("log"),
+                      predictors = "marginal")
   # size is lognormal (skewed), temp is normal: only size is transformed, with the screen's
   # maximum-likelihood transform (Box-Cox, every value positive).
   expect_named(m$predictors, "size")
@@ -45,4 +46,25 @@ test_that("predictors = \"ml\" and \"ladder\" transform only the skewed predicto
   nd2$size <- apply_transform(s$ml$size, nd$size)
   expect_equal(predict(m, nd, interval = "prediction")$upr,
                unname(exp(predict(ref, nd2, interval = "prediction")[, "upr"])), tolerance = 1e-10)
+})
+
+test_that("predictors = \"ml\" are Box-Tidwell powers for linearity", {
+  d <- pwb_sim_skewed()
+  d2 <- d
+  d2$y <- log(d$y)
+  pos <- c("size", "temp")[vapply(d[c("size", "temp")], function(v) all(v > 0), logical(1))]
+  bt <- box_tidwell(y ~ size + temp, d2, vars = pos)
+  m <- lm_transformed(y ~ size + temp, d, response = new_transform("log"), predictors = "ml")
+  keep <- names(bt$transforms)[vapply(bt$transforms, function(t)
+    !(t$family == "power" && isTRUE(all.equal(t$lambda, 1))), logical(1))]
+  expect_identical(names(m$predictors), keep)
+  for (v in keep) expect_identical(unclass(m$predictors[[v]]), unclass(bt$transforms[[v]]))
+  expect_true("size" %in% names(m$predictors))  # the true relation is linear in log(size)
+})
+
+test_that("a response power at the edge of its range warns and says how to widen it", {
+  set.seed(11)
+  d <- data.frame(x = runif(60, 1, 3))
+  d$y <- (1 + 2.5 * d$x + rnorm(60, sd = 0.05))^4  # y^(1/4) is linear: power 0.25
+  expect_warning(lm_transformed(y ~ x, d, range = c(0.5, 2)), "range =")
 })
