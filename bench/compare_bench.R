@@ -105,8 +105,22 @@ res <- data.frame(n = ns, powerback = NA_real_, by_hand = NA_real_)
 for (i in seq_along(ns)) {
   d <- sim(ns[i])
   gc()
+  prof <- tempfile()
+  utils::Rprof(prof, interval = 0.02)
   t_pb <- system.time(cmp <- compare_transforms(fml, d, folds = 5, seed = 1,
                                                 progress = FALSE))[["elapsed"]]
+  utils::Rprof(NULL)
+  tot <- utils::summaryRprof(prof)$by.total
+  share <- function(f) {
+    f <- paste0("\"", f, "\"")
+    if (f %in% rownames(tot)) tot[f, "total.pct"] else 0
+  }
+  cat(sprintf(paste0("n = %g: profile shares of compare_transforms: compiled prediction ",
+                     "(rpwb_model_predict, held-out medians, intervals and smearing means) ",
+                     "%.0f%%, lm_transformed %.0f%%, full-data fits (pwb_cmp_assemble) %.0f%%\n"),
+              ns[i], share("rpwb_model_predict"), share("lm_transformed"),
+              share("pwb_cmp_assemble")))
+  unlink(prof)
   gc()
   t_bh <- system.time(by_hand(d, fml, cmp))[["elapsed"]]
   res$powerback[i] <- t_pb
