@@ -34,8 +34,9 @@
 #'
 #' Weights and subsets follow [stats::lm()]: `subset` chooses rows before `na.action`;
 #' `weights` are precision weights that travel with their rows into the folds, are passed to
-#' each training fit (`lm_transformed(weights =)`, `glm(weights =)`), and weight the held-out
-#' scores (weighted means of squared and absolute errors, weighted \eqn{R^2} and coverage). A
+#' each training fit (`lm_transformed(weights =)`; a GLM's prior weights, as `glm(weights =)`
+#' uses them), and weight the held-out scores (weighted means of squared and absolute errors,
+#' weighted \eqn{R^2} and coverage). Prediction intervals are those of a new row of weight 1. A
 #' zero weight makes a row count for nothing; a negative or non-finite weight is an error that
 #' names the rows.
 #'
