@@ -104,3 +104,29 @@ test_that("transform candidates are fitted with weights (lm_transformed(weights 
   # unit weights: the same fits up to rounding in the weighted QR (1e-10)
   expect_equal(one$summary$rmse_median, none$summary$rmse_median, tolerance = 1e-10)
 })
+
+test_that("a missing weight drops its row by na.action; a zero weight counts for nothing", {
+  d <- sim_w(45, 6)
+  d$w[3] <- NA
+  d$w[c(10, 20)] <- 0
+  cmp <- compare_transforms(y ~ x, d, candidates = list(gl = Gamma(link = "log")), folds = 3,
+                            seed = 8, weights = w, progress = FALSE)
+  expect_equal(cmp$rows, setdiff(1:45, 3))
+  expect_equal(cmp$weights, d$w[-3])
+  used <- d[-3, ]
+  for (k in 1:3) {
+    test <- cmp$fold_ids[, 1] == k
+    tr <- used[!test, ]
+    te <- used[test, ]
+    # base R glm() drops zero-weight rows from the fit (prior weight 0)
+    fit <- glm(y ~ x, family = Gamma(link = "log"), data = tr[tr$w > 0, ], weights = w)
+    p <- unname(predict(fit, te, type = "response"))
+    # the same IRLS fit up to rounding in the zero-weight rows' handling: 1e-8
+    expect_equal(cmp$predictions$fit_mean[cmp$predictions$fold == k], p, tolerance = 1e-8)
+    keep <- te$w > 0
+    row <- cmp$folds[cmp$folds$fold == k, ]
+    # zero-weight held-out rows leave the weighted mean unchanged (base R weighted.mean)
+    expect_equal(row$mae_median, weighted.mean(abs(te$y - p)[keep], te$w[keep]),
+                 tolerance = 1e-8)
+  }
+})
