@@ -59,8 +59,9 @@ pwb_cmp_learner <- function(c1, name) {
     return(function(train, formula, yname, family, level, w = NULL)
       pwb_cmp_fit_fixed(c1, name, formula, train, yname, level, w))
   }
-  stop(sprintf("candidate `%s` must be \"none\", \"ladder\", \"ml\", a named list of pwb_transform, a function returning one, or a family object such as Gamma(link = \"log\")",
-               name), call. = FALSE)
+  stop(sprintf(paste0("candidate `%s` must be \"none\", \"ladder\", \"ml\", a named list of ",
+                      "pwb_transform, a function returning one, or a family object such as ",
+                      "Gamma(link = \"log\")"), name), call. = FALSE)
 }
 
 pwb_cmp_check_fixed <- function(trs, name) {
@@ -102,7 +103,8 @@ pwb_cmp_one_fold <- function(learner, formula, train, test, yname, family, level
   if (is.character(model)) return(list(error = model))
   aliased <- pwb_cmp_aliased(model)
   if (any(aliased))
-    return(list(error = sprintf("the training part is rank-deficient (aliased: %s): fold not scored",
+    return(list(error = sprintf(paste0("the training part is rank-deficient (aliased: %s): ",
+                                       "fold not scored"),
                                 paste(names(aliased)[aliased], collapse = ", "))))
   pm <- tryCatch(pwb_cmp_predict(model, test, level), error = function(e) conditionMessage(e))
   if (is.character(pm)) return(list(error = pm, part = "test"))
