@@ -778,6 +778,29 @@ typedef struct pwb_holdout_scores {
 PWB_API pwb_status pwb_holdout_score(const double *y, const double *fit, const double *lwr,
                                      const double *upr, size_t n, pwb_holdout_scores *out);
 
+/* Options of pwb_holdout_score_opts. Initialise with pwb_holdout_options_init (no weights),
+ * then change fields; fields appended later are absent (default) for a smaller struct_size. */
+typedef struct pwb_holdout_options {
+  size_t struct_size;     /* sizeof(pwb_holdout_options) */
+  const double *weights;  /* NULL (unit weights), or n precision weights >= 0, caller-owned */
+} pwb_holdout_options;
+
+/* Sets every field of *opt to its default (no-op for NULL). Thread-safe. */
+PWB_API void pwb_holdout_options_init(pwb_holdout_options *opt);
+
+/* As pwb_holdout_score, with options (opt may be NULL: the defaults). With weights, every score
+ * is a weighted mean over the rows where it is defined (rmse = sqrt(sum w e^2 / sum w), mae,
+ * r2 about the weighted mean of y, coverage, mean_width, share_unbounded) and median_width is
+ * the weighted median; a zero weight contributes nothing (the row is still counted in n,
+ * n_point and n_interval) and a statistic whose rows weigh 0 in total is NaN. Unit weights give
+ * pwb_holdout_score's scores. Errors: as pwb_holdout_score; PWB_ERR_NONFINITE for a non-finite
+ * weight and PWB_ERR_DOMAIN for a negative one (count and first 0-based rows named);
+ * PWB_ERR_ARGUMENT for an opt->struct_size too small. Thread-safe: reads only its arguments. */
+PWB_API pwb_status pwb_holdout_score_opts(const double *y, const double *fit, const double *lwr,
+                                          const double *upr, size_t n,
+                                          const pwb_holdout_options *opt,
+                                          pwb_holdout_scores *out);
+
 /* Options of pwb_cv_folds_by. Initialise with pwb_cv_fold_options_init (5 folds, 1 repeat,
  * seed 0, neither strata nor groups), then change fields. */
 typedef struct pwb_cv_fold_options {

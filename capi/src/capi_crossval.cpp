@@ -39,14 +39,17 @@ pwb_status pwb_cv_folds_by(size_t n, const pwb_cv_fold_options* opt, int* fold) 
   });
 }
 
-pwb_status pwb_holdout_score(const double* y, const double* fit, const double* lwr,
-                             const double* upr, size_t n, pwb_holdout_scores* out) {
+namespace {
+
+pwb_status holdout_score_impl(const double* y, const double* fit, const double* lwr,
+                              const double* upr, size_t n, const double* w,
+                              pwb_holdout_scores* out) {
   return capi::guarded([&] {
     // callers built before n_point was added pass the smaller struct: fill what it holds
     capi::need(out, "out");
     capi::need_struct(out->struct_size, offsetof(pwb_holdout_scores, n_point),
                       "pwb_holdout_scores");
-    const HoldoutScores s = holdout_scores(y, fit, lwr, upr, n);
+    const HoldoutScores s = holdout_scores(y, fit, lwr, upr, n, w);
     out->rmse = s.rmse;
     out->mae = s.mae;
     out->r2 = s.r2;
@@ -61,6 +64,34 @@ pwb_status pwb_holdout_score(const double* y, const double* fit, const double* l
       out->share_unbounded = s.share_unbounded;
     }
   });
+}
+
+}  // namespace
+
+pwb_status pwb_holdout_score(const double* y, const double* fit, const double* lwr,
+                             const double* upr, size_t n, pwb_holdout_scores* out) {
+  return holdout_score_impl(y, fit, lwr, upr, n, nullptr, out);
+}
+
+void pwb_holdout_options_init(pwb_holdout_options* opt) {
+  if (!opt) return;
+  opt->struct_size = sizeof(pwb_holdout_options);
+  opt->weights = nullptr;
+}
+
+pwb_status pwb_holdout_score_opts(const double* y, const double* fit, const double* lwr,
+                                  const double* upr, size_t n, const pwb_holdout_options* opt,
+                                  pwb_holdout_scores* out) {
+  const double* w = nullptr;
+  if (opt) {
+    const pwb_status st = capi::guarded([&] {
+      capi::need_struct(opt->struct_size, offsetof(pwb_holdout_options, weights) + sizeof(w),
+                        "pwb_holdout_options");
+    });
+    if (st != PWB_OK) return st;
+    w = opt->weights;
+  }
+  return holdout_score_impl(y, fit, lwr, upr, n, w, out);
 }
 
 }  // extern "C"

@@ -9,8 +9,8 @@ rpwb_cv_folds_by <- function(n, folds, repeats, seed, strata, groups) {
     .Call(`_powerback_rpwb_cv_folds_by`, n, folds, repeats, seed, strata, groups)
 }
 
-rpwb_holdout_score <- function(y, fit, lwr, upr) {
-    .Call(`_powerback_rpwb_holdout_score`, y, fit, lwr, upr)
+rpwb_holdout_score <- function(y, fit, lwr, upr, w = NULL) {
+    .Call(`_powerback_rpwb_holdout_score`, y, fit, lwr, upr, w)
 }
 
 rpwb_model_checks <- function(handle) {

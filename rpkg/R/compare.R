@@ -16,6 +16,30 @@
 #' function of the training data frame that returns such a list. A list may mix all kinds, e.g.
 #' `list("none", "ml", logy = list(y = new_transform("log")))`.
 #'
+#' Model alternatives: a named element holding a base R `family` object (e.g.
+#' `gamma_log = Gamma(link = "log")`, `qpois_log = quasipoisson(link = "log")` for counts and
+#' non-negative loads with zeros, `gauss_log = gaussian(link = "log")`) is a generalized linear
+#' model of the untransformed response, fitted with [stats::glm.fit()] on each training part and
+#' scored in the same folds and the same original-unit table: its held-out predictions are the
+#' fitted means (as `predict(glm(...), newdata, type = "response")`). Its prediction interval is
+#' a plug-in one from the fitted distribution: Gamma quantiles with shape 1/dispersion (the
+#' Pearson dispersion `summary.glm()` reports), normal quantiles for `gaussian`, Poisson
+#' quantiles for `poisson`; quasi families (and families without base R quantiles) define no
+#' distribution, so their coverage and width are `NA` (not available) and `kinds` says so. A
+#' family the data do not fit (zeros for Gamma) is a failure of that candidate, kept in
+#' `failures`. Caution: a GLM models the mean of the response, while a transformed model's
+#' back-transformed fit is a median; the main scores (`rmse_median`, ...) of a GLM score its
+#' fitted mean, so read the comparison with that difference in mind (`rmse_mean` compares
+#' means with means).
+#'
+#' Weights and subsets follow [stats::lm()]: `subset` chooses rows before `na.action`;
+#' `weights` are precision weights that travel with their rows into the folds, are passed to
+#' each training fit (`lm_transformed(weights =)`; a GLM's prior weights, as `glm(weights =)`
+#' uses them), and weight the held-out scores (weighted means of squared and absolute errors,
+#' weighted \eqn{R^2} and coverage). Prediction intervals are those of a new row of weight 1. A
+#' zero weight makes a row count for nothing; a negative or non-finite weight is an error that
+#' names the rows.
+#'
 #' Held-out scores per fold, in original units, each from the held-out rows where it is
 #' defined: `rmse`, `mae` and `r2` (\eqn{1 - SSE/SST}, SST about the mean of the held-out
 #' responses) for the back-transformed median (`_median`) and the smearing mean (`_mean`) need a
@@ -76,6 +100,10 @@
 #'   `data`: grouped folds, all rows of a group in one fold.
 #' @param stratify logical: stratify the folds by the model's factors (ignored with `groups` or
 #'   your own fold ids).
+#' @param weights `NULL`, a numeric column of `data` (by name, or an expression evaluated in
+#'   `data` as in `lm()`) or a vector with one precision weight per row of `data`.
+#' @param subset an optional vector choosing the rows of `data` to use (logical, row numbers or
+#'   row names; an expression evaluated in `data` as in `lm()`).
 #' @return An object of class `pwb_comparison`: a list with `summary` (one row per candidate:
 #'   `rank` (`NA` for an unranked candidate), `ranked`, mean held-out scores over the scored
 #'   folds, `width_median` (the median over folds) and `unbounded` (the mean share of unbounded
@@ -88,7 +116,10 @@
 #'   interval `lwr`, `upr`), `fold_ids` (one row per used row of `data`, one column per repeat),
 #'   `fold_notes` (why a factor level misses a training part, if it does), `rows` (the rows of
 #'   `data` used, after `na.action`), `seed`, `level`, `folds_k`, `repeats`, `fold_kind`
-#'   (`"random"`, `"stratified"`, `"grouped"` or `"given"`) and `formula`.
+#'   (`"random"`, `"stratified"`, `"grouped"` or `"given"`), `formula`, `kinds` (one row per
+#'   candidate: `kind` `"transform"` or `"GLM"`, the GLM's `model` and how its `interval` is
+#'   made, or why there is none) and `weights` (the weights of the used rows, or `NULL`). For a
+#'   GLM candidate `fit_median` and `fit_mean` in `predictions` both hold its fitted mean.
 #' @examples
 #' river <- river_data()
 #' cmp <- compare_transforms(sediment_t_day ~ flow_m3s + rain72_mm + season, river,
@@ -98,11 +129,16 @@
 #'                           folds = 3, seed = 1, progress = FALSE)
 #' cmp
 #' plot(cmp)
+#' # transforms against a Gamma GLM with a log link
+#' cmp2 <- compare_transforms(mpg ~ wt + hp, mtcars,
+#'                            candidates = list("none", "ml", gamma_log = Gamma(link = "log")),
+#'                            folds = 4, seed = 3, progress = FALSE)
+#' cmp2
 #' @export
 compare_transforms <- function(formula, data, candidates = c("none", "ladder", "ml"), folds = 5,
                                repeats = 1, seed = NULL, level = 0.95, progress = interactive(),
                                family = c("box-cox", "yeo-johnson"), groups = NULL,
-                               stratify = TRUE) {
+                               stratify = TRUE, weights = NULL, subset = NULL) {
   family <- match.arg(family)
   pwb_check_level(level)
   pwb_check_response_formula(formula)
@@ -123,15 +159,19 @@ compare_transforms <- function(formula, data, candidates = c("none", "ladder", "
   pwb_check_seed(seed)
   learners <- pwb_cmp_learners(candidates)
   yname <- as.character(formula[[2L]])
+  pwb_cmp_check_offset(formula, data)
   vars <- all.vars(formula)
   miss <- setdiff(vars, names(data))
   if (length(miss))
     stop(sprintf("`data` has no variable %s", paste0("`", miss, "`", collapse = ", ")),
          call. = FALSE)
   group_ids <- pwb_cmp_groups(groups, data)
-  mf <- stats::model.frame(stats::reformulate(vars), data)
-  rows <- match(rownames(mf), rownames(data))
-  dat <- data[rows, vars, drop = FALSE]
+  w_all <- pwb_cmp_weights(substitute(weights), data, parent.frame())
+  keep <- pwb_cmp_subset(substitute(subset), data, parent.frame())
+  used <- pwb_cmp_used_rows(data, vars, w_all, keep)
+  rows <- used$rows
+  dat <- used$dat
+  w_used <- if (is.null(w_all)) NULL else w_all[rows]
   n <- nrow(dat)
   if (!given && n < folds)
     stop(sprintf("there are fewer usable rows (%d) than folds (%d): use fewer folds", n, folds),
@@ -156,9 +196,11 @@ compare_transforms <- function(formula, data, candidates = c("none", "ladder", "
       rownames(train) <- NULL
       held_out <- dat[test, , drop = FALSE]
       rownames(held_out) <- NULL
+      w_train <- if (is.null(w_used)) NULL else w_used[!test]
+      w_test <- if (is.null(w_used)) NULL else w_used[test]
       for (cand in names(learners)) {
         one <- pwb_cmp_one_fold(learners[[cand]], formula, train, held_out, yname, family,
-                                level)
+                                level, w_train, w_test)
         tag <- data.frame(candidate = cand, repeat_no = r, fold = k, stringsAsFactors = FALSE)
         if (is.null(one$error)) {
           fold_rows[[length(fold_rows) + 1L]] <- cbind(tag, one$scores)
@@ -183,7 +225,10 @@ compare_transforms <- function(formula, data, candidates = c("none", "ladder", "
   if (!is.null(bar)) close(bar)
   out <- pwb_cmp_assemble(learners, formula, dat, yname, family, level, fold_rows, lambda_rows,
                           fail_rows, fold_ids, rows, if (given) NA_real_ else seed, folds,
-                          repeats)
+                          repeats, w_used)
+  out$kinds <- pwb_cmp_kinds(learners)
+  out$summary$kind <- out$kinds$kind[match(out$summary$candidate, out$kinds$candidate)]
+  out$weights <- w_used
   out$fold_kind <- split$kind
   out$fold_notes <- split$notes
   out$predictions <- if (length(pred_rows)) do.call(rbind, pred_rows)

@@ -1,7 +1,9 @@
 # The candidates of compare_transforms() and the work done inside one training fold.
 
-# A named list of learners: each a function(train, formula, yname, family, level) returning a
-# fitted pwb_model. Everything a learner learns comes from `train` only.
+# A named list of learners: each a function(train, formula, yname, family, level, w) returning
+# a fitted pwb_model (a transform candidate) or a pwb_cmp_glm_fit (a GLM candidate, attribute
+# kind "glm"). w is NULL or the training rows' weights. Everything a learner learns comes from
+# `train` (and its weights) only.
 pwb_cmp_learners <- function(candidates) {
   if (is.character(candidates)) candidates <- as.list(candidates)
   if (!is.list(candidates) || length(candidates) == 0L)
@@ -22,36 +24,44 @@ pwb_cmp_learners <- function(candidates) {
   out
 }
 
+# lm_transformed() with the training weights when there are any (passed as values, so they
+# need no lookup in the data).
+pwb_cmp_lmt <- function(w, ...) {
+  if (is.null(w)) lm_transformed(...) else do.call(lm_transformed, list(..., weights = w))
+}
+
 pwb_cmp_learner <- function(c1, name) {
+  if (inherits(c1, "family")) return(pwb_cmp_glm_learner(c1, name))
   if (is.character(c1) && length(c1) == 1L) {
     if (c1 == "none")
-      return(function(train, formula, yname, family, level)
-        lm_transformed(formula, train, response = "none", level = level))
+      return(function(train, formula, yname, family, level, w = NULL)
+        pwb_cmp_lmt(w, formula, train, response = "none", level = level))
     if (c1 == "ml")
-      return(function(train, formula, yname, family, level)
-        lm_transformed(formula, train, response = "estimate", predictors = "ml",
-                       family = family, level = level))
+      return(function(train, formula, yname, family, level, w = NULL)
+        pwb_cmp_lmt(w, formula, train, response = "estimate", predictors = "ml",
+                    family = family, level = level))
     if (c1 == "ladder")
-      return(function(train, formula, yname, family, level) {
+      return(function(train, formula, yname, family, level, w = NULL) {
         s <- screen_skew(train, vars = yname, level = level)
         step <- s$table$ladder[1L]
         resp <- if (is.na(step) || step == "none" || is.null(s$ladder[[yname]])) "none"
                 else s$ladder[[yname]]
-        lm_transformed(formula, train, response = resp, predictors = "ladder", level = level)
+        pwb_cmp_lmt(w, formula, train, response = resp, predictors = "ladder", level = level)
       })
     stop(sprintf("unknown candidate \"%s\": the built-in ones are \"none\", \"ladder\" and \"ml\"",
                  c1), call. = FALSE)
   }
   if (is.function(c1))
-    return(function(train, formula, yname, family, level)
-      pwb_cmp_fit_fixed(c1(train), name, formula, train, yname, level))
+    return(function(train, formula, yname, family, level, w = NULL)
+      pwb_cmp_fit_fixed(c1(train), name, formula, train, yname, level, w))
   if (is.list(c1)) {
     pwb_cmp_check_fixed(c1, name)
-    return(function(train, formula, yname, family, level)
-      pwb_cmp_fit_fixed(c1, name, formula, train, yname, level))
+    return(function(train, formula, yname, family, level, w = NULL)
+      pwb_cmp_fit_fixed(c1, name, formula, train, yname, level, w))
   }
-  stop(sprintf("candidate `%s` must be \"none\", \"ladder\", \"ml\", a named list of pwb_transform or a function returning one",
-               name), call. = FALSE)
+  stop(sprintf(paste0("candidate `%s` must be \"none\", \"ladder\", \"ml\", a named list of ",
+                      "pwb_transform, a function returning one, or a family object such as ",
+                      "Gamma(link = \"log\")"), name), call. = FALSE)
 }
 
 pwb_cmp_check_fixed <- function(trs, name) {
@@ -62,35 +72,48 @@ pwb_cmp_check_fixed <- function(trs, name) {
                  name), call. = FALSE)
 }
 
-pwb_cmp_fit_fixed <- function(trs, name, formula, train, yname, level) {
+pwb_cmp_fit_fixed <- function(trs, name, formula, train, yname, level, w = NULL) {
   pwb_cmp_check_fixed(trs, name)
   resp <- if (is.null(trs[[yname]])) "none" else trs[[yname]]
   preds <- trs[setdiff(names(trs), yname)]
-  lm_transformed(formula, train, response = resp,
-                 predictors = if (length(preds)) preds else NULL, level = level)
+  pwb_cmp_lmt(w, formula, train, response = resp,
+              predictors = if (length(preds)) preds else NULL, level = level)
+}
+
+# The kind of each learner: "transform" or "GLM", with the GLM's family and interval.
+pwb_cmp_kinds <- function(learners) {
+  rows <- lapply(names(learners), function(nm) {
+    fam <- attr(learners[[nm]], "family")
+    if (is.null(fam))
+      return(data.frame(candidate = nm, kind = "transform", model = NA_character_,
+                        interval = NA_character_, stringsAsFactors = FALSE))
+    data.frame(candidate = nm, kind = "GLM", model = pwb_cmp_glm_label(fam),
+               interval = pwb_cmp_glm_interval_kind(fam), stringsAsFactors = FALSE)
+  })
+  do.call(rbind, rows)
 }
 
 # One candidate in one fold: list(scores = one-row data frame, lambdas = data frame) or
-# list(error = message, part = "test" when predicting the held-out rows failed).
-pwb_cmp_one_fold <- function(learner, formula, train, test, yname, family, level) {
-  model <- tryCatch(learner(train, formula, yname, family, level),
+# list(error = message, part = "test" when predicting the held-out rows failed). w_train and
+# w_test: NULL or the weights of the training and held-out rows.
+pwb_cmp_one_fold <- function(learner, formula, train, test, yname, family, level,
+                             w_train = NULL, w_test = NULL) {
+  model <- tryCatch(learner(train, formula, yname, family, level, w_train),
                     error = function(e) conditionMessage(e))
   if (is.character(model)) return(list(error = model))
-  aliased <- as.logical(model$aliased)
+  aliased <- pwb_cmp_aliased(model)
   if (any(aliased))
-    return(list(error = sprintf("the training part is rank-deficient (aliased: %s): fold not scored",
-                                paste(names(model$aliased)[aliased], collapse = ", "))))
-  pm <- tryCatch({
-    med <- stats::predict(model, test, interval = "prediction", level = level,
-                          center = "median", invalid = "na")
-    mean <- stats::predict(model, test, center = "mean", mean_method = "smearing", invalid = "na")
-    list(med = med, mean = mean)
-  }, error = function(e) conditionMessage(e))
+    return(list(error = sprintf(paste0("the training part is rank-deficient (aliased: %s): ",
+                                       "fold not scored"),
+                                paste(names(aliased)[aliased], collapse = ", "))))
+  pm <- tryCatch(pwb_cmp_predict(model, test, level), error = function(e) conditionMessage(e))
   if (is.character(pm)) return(list(error = pm, part = "test"))
   y <- as.double(test[[yname]])
-  s_med <- rpwb_holdout_score(y, as.double(pm$med$fit), as.double(pm$med$lwr),
-                              as.double(pm$med$upr))
-  s_mean <- rpwb_holdout_score(y, as.double(pm$mean$fit), NULL, NULL)
+  w <- if (is.null(w_test)) NULL else as.double(w_test)
+  has_iv <- !is.null(pm$lwr)
+  s_med <- rpwb_holdout_score(y, as.double(pm$fit_median),
+                              if (has_iv) as.double(pm$lwr), if (has_iv) as.double(pm$upr), w)
+  s_mean <- rpwb_holdout_score(y, as.double(pm$fit_mean), NULL, NULL, w)
   # a fold's statistic is scored only when it is defined on every held-out row: a mean over the
   # rows that happen to have a prediction would flatter the candidate
   all_rows <- function(s, what) if (s[[what]] == length(y)) 1 else NA_real_
@@ -106,13 +129,36 @@ pwb_cmp_one_fold <- function(learner, formula, train, test, yname, family, level
     coverage = iv * s_med[["coverage"]], width_median = iv * s_med[["width_median"]],
     unbounded = iv * s_med[["unbounded"]],
     n_nonfinite = as.integer(max(s_med[["n_nonfinite"]], s_mean[["n_nonfinite"]])))
-  preds <- data.frame(y = y, fit_median = pm$med$fit, fit_mean = pm$mean$fit, lwr = pm$med$lwr,
-                      upr = pm$med$upr, row.names = NULL)
+  na <- rep(NA_real_, length(y))
+  preds <- data.frame(y = y, fit_median = pm$fit_median, fit_mean = pm$fit_mean,
+                      lwr = if (has_iv) pm$lwr else na, upr = if (has_iv) pm$upr else na,
+                      row.names = NULL)
   list(scores = scores, lambdas = pwb_cmp_lambdas(model, yname), predictions = preds)
+}
+
+# Named logical: which coefficients a fit could not estimate.
+pwb_cmp_aliased <- function(model) {
+  if (inherits(model, "pwb_cmp_glm_fit")) return(is.na(model$coefficients))
+  stats::setNames(as.logical(model$aliased), names(model$aliased))
+}
+
+# Held-out predictions in original units: fit_median (the back-transformed median; a GLM's
+# fitted mean), fit_mean (the smearing mean; a GLM's fitted mean) and the prediction interval
+# (lwr and upr NULL where there is none).
+pwb_cmp_predict <- function(model, test, level) {
+  if (inherits(model, "pwb_cmp_glm_fit")) {
+    g <- pwb_cmp_glm_predict(model, test, level)
+    return(list(fit_median = g$fit, fit_mean = g$fit, lwr = g$lwr, upr = g$upr))
+  }
+  med <- stats::predict(model, test, interval = "prediction", level = level,
+                        center = "median", invalid = "na")
+  mean <- stats::predict(model, test, center = "mean", mean_method = "smearing", invalid = "na")
+  list(fit_median = med$fit, fit_mean = mean$fit, lwr = med$lwr, upr = med$upr)
 }
 
 # The transforms a fitted model learned: one row per transformed variable (the response first).
 pwb_cmp_lambdas <- function(model, yname) {
+  if (inherits(model, "pwb_cmp_glm_fit")) return(pwb_cmp_glm_lambdas(model))
   trs <- c(stats::setNames(list(model$response), yname), model$predictors)
   est <- if (is.null(model$response_lambda)) NA_real_ else model$response_lambda$lambda
   data.frame(variable = names(trs), role = c("response", rep("predictor", length(trs) - 1L)),

@@ -1,7 +1,8 @@
 # Assembling, printing and plotting a pwb_comparison.
 
 pwb_cmp_assemble <- function(learners, formula, dat, yname, family, level, fold_rows,
-                             lambda_rows, fail_rows, fold_ids, rows, seed, folds, repeats) {
+                             lambda_rows, fail_rows, fold_ids, rows, seed, folds, repeats,
+                             w = NULL) {
   mean_cols <- c("rmse_median", "mae_median", "r2_median", "rmse_mean", "mae_mean", "r2_mean",
                  "coverage", "unbounded")
   fold_tab <- if (length(fold_rows)) do.call(rbind, fold_rows) else NULL
@@ -25,11 +26,16 @@ pwb_cmp_assemble <- function(learners, formula, dat, yname, family, level, fold_
     }
     means <- vapply(mean_cols, stat, numeric(1), fun = mean)
     sdv <- function(s) if (scored < 2L) NA_real_ else stats::sd(f[[s]])
-    model <- tryCatch(learners[[cand]](dat, formula, yname, family, level),
+    model <- tryCatch(learners[[cand]](dat, formula, yname, family, level, w),
                       error = function(e) conditionMessage(e))
     if (is.character(model)) {
       full[[cand]] <<- list(error = model)
       adj <- aic <- NA_real_
+    } else if (inherits(model, "pwb_cmp_glm_fit")) {
+      # a GLM has no transformed scale; its AIC (NA for a quasi family) is on y's own scale
+      full[[cand]] <<- list(lambdas = pwb_cmp_lambdas(model, yname))
+      adj <- NA_real_
+      aic <- model$aic
     } else {
       full[[cand]] <<- list(lambdas = pwb_cmp_lambdas(model, yname))
       adj <- summary(model$lm)$adj.r.squared
@@ -102,6 +108,9 @@ print.pwb_comparison <- function(x, digits = 4, ...) {
     pwb_print_table(tab[!s$ranked, names(tab) != "rank", drop = FALSE], key = "candidate",
                     right = num)
   }
+  for (line in pwb_cmp_kind_lines(x$kinds)) pwb_cat_wrap(line)
+  if (!is.null(x$weights))
+    pwb_cat_wrap("Fits and held-out scores are weighted by `weights` (precision weights).")
   pwb_cat_wrap(sprintf(paste0("Held-out scores in original units (median back-transform; ",
                               "rmse_mean uses the smearing mean), %g%% prediction intervals ",
                               "(width_median: median width; unbounded: share of intervals ",

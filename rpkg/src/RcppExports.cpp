@@ -45,8 +45,8 @@ BEGIN_RCPP
 END_RCPP
 }
 // rpwb_holdout_score
-Rcpp::NumericVector rpwb_holdout_score(Rcpp::NumericVector y, Rcpp::NumericVector fit, Rcpp::Nullable<Rcpp::NumericVector> lwr, Rcpp::Nullable<Rcpp::NumericVector> upr);
-RcppExport SEXP _powerback_rpwb_holdout_score(SEXP ySEXP, SEXP fitSEXP, SEXP lwrSEXP, SEXP uprSEXP) {
+Rcpp::NumericVector rpwb_holdout_score(Rcpp::NumericVector y, Rcpp::NumericVector fit, Rcpp::Nullable<Rcpp::NumericVector> lwr, Rcpp::Nullable<Rcpp::NumericVector> upr, Rcpp::Nullable<Rcpp::NumericVector> w);
+RcppExport SEXP _powerback_rpwb_holdout_score(SEXP ySEXP, SEXP fitSEXP, SEXP lwrSEXP, SEXP uprSEXP, SEXP wSEXP) {
 BEGIN_RCPP
     Rcpp::RObject rcpp_result_gen;
     Rcpp::RNGScope rcpp_rngScope_gen;
@@ -54,7 +54,8 @@ BEGIN_RCPP
     Rcpp::traits::input_parameter< Rcpp::NumericVector >::type fit(fitSEXP);
     Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::NumericVector> >::type lwr(lwrSEXP);
     Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::NumericVector> >::type upr(uprSEXP);
-    rcpp_result_gen = Rcpp::wrap(rpwb_holdout_score(y, fit, lwr, upr));
+    Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::NumericVector> >::type w(wSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_holdout_score(y, fit, lwr, upr, w));
     return rcpp_result_gen;
 END_RCPP
 }
@@ -295,7 +296,7 @@ END_RCPP
 static const R_CallMethodDef CallEntries[] = {
     {"_powerback_rpwb_box_tidwell", (DL_FUNC) &_powerback_rpwb_box_tidwell, 7},
     {"_powerback_rpwb_cv_folds_by", (DL_FUNC) &_powerback_rpwb_cv_folds_by, 6},
-    {"_powerback_rpwb_holdout_score", (DL_FUNC) &_powerback_rpwb_holdout_score, 4},
+    {"_powerback_rpwb_holdout_score", (DL_FUNC) &_powerback_rpwb_holdout_score, 5},
     {"_powerback_rpwb_model_checks", (DL_FUNC) &_powerback_rpwb_model_checks, 1},
     {"_powerback_rpwb_lambda_influence", (DL_FUNC) &_powerback_rpwb_lambda_influence, 7},
     {"_powerback_rpwb_estimate_lambda", (DL_FUNC) &_powerback_rpwb_estimate_lambda, 6},

@@ -35,7 +35,8 @@ Rcpp::IntegerMatrix rpwb_cv_folds_by(int n, int folds, int repeats, double seed,
 // [[Rcpp::export]]
 Rcpp::NumericVector rpwb_holdout_score(Rcpp::NumericVector y, Rcpp::NumericVector fit,
                                        Rcpp::Nullable<Rcpp::NumericVector> lwr,
-                                       Rcpp::Nullable<Rcpp::NumericVector> upr) {
+                                       Rcpp::Nullable<Rcpp::NumericVector> upr,
+                                       Rcpp::Nullable<Rcpp::NumericVector> w = R_NilValue) {
   const std::size_t n = static_cast<std::size_t>(y.size());
   if (static_cast<std::size_t>(fit.size()) != n) Rcpp::stop("fit and y differ in length");
   Rcpp::NumericVector lo, hi;
@@ -48,10 +49,18 @@ Rcpp::NumericVector rpwb_holdout_score(Rcpp::NumericVector y, Rcpp::NumericVecto
   }
   // R's NA in a prediction is a non-finite prediction: pass it on as NaN
   std::vector<double> fv(fit.begin(), fit.end());
+  Rcpp::NumericVector wv;
+  pwb_holdout_options opt;
+  pwb_holdout_options_init(&opt);
+  if (w.isNotNull()) {
+    wv = Rcpp::NumericVector(w.get());
+    if (static_cast<std::size_t>(wv.size()) != n) Rcpp::stop("weights and y differ in length");
+    opt.weights = wv.begin();
+  }
   pwb_holdout_scores s;
   s.struct_size = sizeof s;
-  rpwb::check(pwb_holdout_score(y.begin(), fv.data(), interval ? lo.begin() : nullptr,
-                                interval ? hi.begin() : nullptr, n, &s));
+  rpwb::check(pwb_holdout_score_opts(y.begin(), fv.data(), interval ? lo.begin() : nullptr,
+                                     interval ? hi.begin() : nullptr, n, &opt, &s));
   return Rcpp::NumericVector::create(
       Rcpp::Named("rmse") = rpwb::nan_to_na(s.rmse), Rcpp::Named("mae") = rpwb::nan_to_na(s.mae),
       Rcpp::Named("r2") = rpwb::nan_to_na(s.r2),

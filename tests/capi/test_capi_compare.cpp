@@ -83,3 +83,29 @@ TEST_CASE("pwb_cv_folds_by: stratified, grouped and plain folds", "[capi_compare
   CHECK(pwb_cv_folds_by(n, &opt, by.data()) == PWB_ERR_ARGUMENT);
   CHECK(pwb_cv_folds_by(n, nullptr, by.data()) == PWB_ERR_ARGUMENT);
 }
+
+TEST_CASE("pwb_holdout_score_opts: weights, defaults and bad weights", "[capi_compare]") {
+  const double y[] = {1, 2, 3}, fit[] = {1, 2, 5}, w[] = {1, 1, 2};
+  pwb_holdout_options opt;
+  pwb_holdout_options_init(&opt);
+  CHECK(opt.weights == nullptr);
+  pwb_holdout_scores a, b;
+  a.struct_size = b.struct_size = sizeof a;
+  REQUIRE(pwb_holdout_score_opts(y, fit, nullptr, nullptr, 3, &opt, &a) == PWB_OK);
+  REQUIRE(pwb_holdout_score(y, fit, nullptr, nullptr, 3, &b) == PWB_OK);
+  CHECK(a.rmse == b.rmse);
+  REQUIRE(pwb_holdout_score_opts(y, fit, nullptr, nullptr, 3, nullptr, &a) == PWB_OK);
+  CHECK(a.r2 == b.r2);
+  opt.weights = w;
+  REQUIRE(pwb_holdout_score_opts(y, fit, nullptr, nullptr, 3, &opt, &a) == PWB_OK);
+  // errors 0, 0, -2 with weights 1, 1, 2: RMSE sqrt(8/4); weighted mean of y 9/4,
+  // SST_w = 25/16 + 1/16 + 2 * 9/16 = 44/16, R^2 = 1 - 8 / (44/16) (hand arithmetic)
+  CHECK(a.rmse == Approx(std::sqrt(2.0)).epsilon(1e-15));
+  CHECK(a.r2 == Approx(1 - 8.0 * 16 / 44).epsilon(1e-14));
+  const double neg[] = {1, -3, 1};
+  opt.weights = neg;
+  CHECK(pwb_holdout_score_opts(y, fit, nullptr, nullptr, 3, &opt, &a) == PWB_ERR_DOMAIN);
+  CHECK_THAT(pwb_last_error(), Contains("negative values at rows 1"));
+  opt.struct_size = 4;
+  CHECK(pwb_holdout_score_opts(y, fit, nullptr, nullptr, 3, &opt, &a) == PWB_ERR_ARGUMENT);
+}

@@ -155,3 +155,44 @@ TEST_CASE("grouped folds keep each group whole", "[crossval]") {
   CHECK_THROWS_WITH(make_folds_by(n, 3, 1, 4, neg.data(), nullptr), Contains(">= 0"));
   CHECK_THROWS_AS(make_folds_by(n, 3, 1, 4, groups.data(), groups.data()), Error);
 }
+
+TEST_CASE("weighted held-out scores are weighted means; unit weights change nothing",
+          "[crossval]") {
+  const std::vector<double> y = {1, 2, 4, 8}, fit = {1.5, 2, 3, 9}, lwr = {0.5, 1.5, 3.5, 9.5},
+                            upr = {2.5, 2.5, 4.5, 10.5}, w = {2, 1, 1, 0};
+  // by hand: rows with weights 2, 1, 1 (row 4 weighs 0). Weighted mean of y = (2 + 2 + 4) / 4 = 2;
+  // errors -0.5, 0, 1: SSE_w = 2 * 0.25 + 0 + 1 = 1.5, SAE_w = 1 + 0 + 1 = 2,
+  // SST_w = 2 * 1 + 0 + 4 = 6; covered rows 1-3 (row 4 not, but weighs 0); widths 2, 1, 1 with
+  // weights 2, 1, 1: cumulative 1 (width 1), 2 (width 1) meets half of 4 exactly -> midpoint of
+  // the second 1 and the 2 -> 1.5
+  const HoldoutScores s = holdout_scores(y.data(), fit.data(), lwr.data(), upr.data(), 4, w.data());
+  CHECK(s.rmse == Approx(std::sqrt(1.5 / 4)).epsilon(1e-15));
+  CHECK(s.mae == Approx(0.5).epsilon(1e-15));
+  CHECK(s.r2 == Approx(1 - 1.5 / 6).epsilon(1e-15));
+  CHECK(s.coverage == 1.0);
+  CHECK(s.mean_width == Approx((2 * 2 + 1 + 1) / 4.0).epsilon(1e-15));
+  CHECK(s.median_width == Approx(1.5).epsilon(1e-15));
+  CHECK(s.n_point == 4);  // the zero-weight row is counted, not scored
+  const std::vector<double> ones(4, 1.0);
+  const HoldoutScores a = holdout_scores(y.data(), fit.data(), lwr.data(), upr.data(), 4, ones.data());
+  const HoldoutScores b = holdout_scores(y.data(), fit.data(), lwr.data(), upr.data(), 4);
+  CHECK(a.rmse == b.rmse);
+  CHECK(a.mae == b.mae);
+  CHECK(a.r2 == b.r2);
+  CHECK(a.coverage == b.coverage);
+  CHECK(a.mean_width == b.mean_width);
+  CHECK(a.median_width == b.median_width);
+  // integer weights equal repeating the rows (row 1 twice, row 4 dropped)
+  const std::vector<double> yr = {1, 1, 2, 4}, fr = {1.5, 1.5, 2, 3};
+  const HoldoutScores r = holdout_scores(yr.data(), fr.data(), nullptr, nullptr, 4);
+  CHECK(s.rmse == Approx(r.rmse).epsilon(1e-15));
+  CHECK(s.r2 == Approx(r.r2).epsilon(1e-15));
+  // bad weights are named by row
+  const std::vector<double> neg = {1, -1, 1, -2}, nan = {1, 1, NAN, 1}, zero(4, 0.0);
+  CHECK_THROWS_WITH(holdout_scores(y.data(), fit.data(), nullptr, nullptr, 4, neg.data()),
+                    Contains("2 negative values at rows 1, 3"));
+  CHECK_THROWS_AS(holdout_scores(y.data(), fit.data(), nullptr, nullptr, 4, nan.data()),
+                  IndexedError);
+  const HoldoutScores z = holdout_scores(y.data(), fit.data(), nullptr, nullptr, 4, zero.data());
+  CHECK(std::isnan(z.rmse));  // no weight at all: nothing to score
+}

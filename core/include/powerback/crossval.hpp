@@ -23,6 +23,15 @@
 //   infinite end covers on its side), mean width = mean (upr - lwr) (infinite as soon as one
 //   interval is unbounded), median width, and the share of unbounded intervals.
 // Rows without a finite prediction are never dropped silently: they are counted (n_nonfinite).
+// Weighted scores (optional precision weights w >= 0, one per row, travelling with the rows):
+// every mean above becomes a weighted mean over the same rows (RMSE = sqrt(sum w e^2 / sum w),
+// MAE = sum w |e| / sum w, R^2 = 1 - sum w e^2 / sum w (y - ybar_w)^2 with the weighted mean
+// ybar_w, coverage, mean width and share unbounded weighted likewise, and the median width the
+// weighted median: the first sorted width whose cumulative weight passes half the total, or the
+// midpoint of two widths when the cumulative weight meets half exactly, so unit weights give
+// the ordinary median). A zero-weight row contributes nothing, as in a weighted least-squares
+// fit, but is still counted in n, n_point and n_interval; a statistic whose rows have zero
+// total weight is NaN. With unit weights every score equals the unweighted one.
 #pragma once
 
 #include <cstddef>
@@ -52,9 +61,10 @@ struct HoldoutScores {
   double share_unbounded = 0;           // share of the n_interval intervals with an infinite end
 };
 
-// lwr and upr may both be NULL (no interval). Throws Error(Argument) for n == 0, NULL y or fit,
-// only one of lwr/upr, and IndexedError(NonFinite) for a non-finite y.
+// lwr and upr may both be NULL (no interval); w may be NULL (unit weights). Throws
+// Error(Argument) for n == 0, NULL y or fit, only one of lwr/upr, IndexedError(NonFinite) for a
+// non-finite y or weight and IndexedError(Domain) for a negative weight (rows named).
 HoldoutScores holdout_scores(const double* y, const double* fit, const double* lwr,
-                             const double* upr, std::size_t n);
+                             const double* upr, std::size_t n, const double* w = nullptr);
 
 }  // namespace powerback

@@ -1,0 +1,17 @@
+#!/usr/bin/env bash
+# compare_transforms() against a by-hand base-R k-fold loop, measured in one run; prints the
+# ratio at each n and the growth exponents. Not part of the tests.
+#   bash bench/run_compare_bench.sh [BUILDDIR] [n ...]   (default build/rdev; n = 1e4 3e4)
+# Installs the package with tools/dev_rtest.sh's build into BUILDDIR/Rlib first when it is not
+# there. Larger n (1e5, 1e6) take long while the smearing mean visits every pair of held-out
+# row and training residual (see bench/README.md).
+set -euo pipefail
+root=$(cd "$(dirname "$0")/.." && pwd)
+build=${1:-$root/build/rdev}
+shift || true
+if [ ! -d "$build/Rlib/powerback" ]; then
+  mkdir -p "$build"
+  tarball=$("$root/tools/build_rpkg.sh" "$build/rpkg" --no-build-vignettes | tail -n 1)
+  R CMD INSTALL --no-test-load -l "$build/Rlib" "$tarball" >"$build/install.log" 2>&1
+fi
+R_LIBS="$build/Rlib" Rscript --vanilla "$root/bench/compare_bench.R" "$@"
