@@ -216,6 +216,7 @@ class FitSummary {
   struct State;
  private:
   friend class FitCheckPass;
+  explicit FitSummary(std::unique_ptr<State> s);
   std::unique_ptr<State> s_;
 };
 
@@ -243,6 +244,7 @@ class FitCheckPass {
 
   struct State;
  private:
+  explicit FitCheckPass(std::unique_ptr<State> s);
   std::unique_ptr<State> s_;
 };
 

@@ -141,3 +141,32 @@ double loglik_from(const LambdaSummary::State& s, const Finished& f, double lamb
 
 }  // namespace summary_detail
 }  // namespace powerback
+
+namespace powerback {
+
+// The stored sums of a FitSummary.
+struct FitSummary::State {
+  Transform response;
+  std::size_t p = 0, estimated = 0;
+  std::uint64_t n = 0;
+  CompensatedSum jacobian, log_w, weight;
+  Eigen::MatrixXd r;  // (p + 2) x (p + 2): R of sqrt(w) [1 X z]
+  State(const Transform& t, std::size_t predictors, std::size_t est);
+};
+
+namespace summary_detail {
+
+// The fit of a summary on its kept columns: rz is R of [X_kept z] ((k + 1) x (k + 1)).
+struct FitParts {
+  std::vector<std::size_t> kept, aliased;
+  Eigen::MatrixXd rz;
+  Eigen::VectorXd coef;  // kept columns
+  double rss = 0.0;
+  double fitted_centre = 0.0, fitted_scale = 0.0;  // weighted mean and spread of the fitted values
+};
+FitParts fit_parts(const FitSummary::State& s);
+void write_spec(ByteWriter& out, const TransformSpec& t);
+Transform read_spec(ByteReader& in);
+
+}  // namespace summary_detail
+}  // namespace powerback
