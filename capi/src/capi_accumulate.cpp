@@ -42,10 +42,9 @@ LambdaOptions options_of(const pwb_lambda_options* opt) {
   return o;
 }
 
-void check_chunk(const double* y, const double* X, std::size_t rows, std::size_t ld, std::size_t p,
-                 const double* w) {
+// weights may be NULL (every row weighs 1).
+void check_chunk(const double* y, const double* X, std::size_t rows, std::size_t ld, std::size_t p) {
   capi::need_array(y, rows, "y");
-  capi::need_array(w, rows, "weights");
   if (rows > 0 && p > 0) {
     capi::need(X, "X");
     if (ld < rows) throw Error(ErrorCode::Argument, "ld (" + std::to_string(ld) + ") is smaller than rows (" +
@@ -130,7 +129,7 @@ pwb_status pwb_lambda_summary_add(pwb_lambda_summary* s, const double* y, const 
                                   size_t ld, const double* weights) {
   return capi::guarded([&] {
     capi::need(s, "s");
-    check_chunk(y, X, rows, ld, s->impl.predictors(), weights);
+    check_chunk(y, X, rows, ld, s->impl.predictors());
     s->impl.add(y, X, rows, ld, weights);
   });
 }
@@ -198,7 +197,6 @@ pwb_status pwb_lambda_pass_add(pwb_lambda_pass* pass, const double* y, const dou
   return capi::guarded([&] {
     capi::need(pass, "pass");
     capi::need_array(y, rows, "y");
-    capi::need_array(weights, rows, "weights");
     if (rows > 0 && X) {
       if (ld < rows) throw Error(ErrorCode::Argument, "ld is smaller than rows");
     }
@@ -270,7 +268,7 @@ pwb_status pwb_fit_summary_add(pwb_fit_summary* s, const double* y, const double
                                const double* weights) {
   return capi::guarded([&] {
     capi::need(s, "s");
-    check_chunk(y, X, rows, ld, s->impl.predictors(), weights);
+    check_chunk(y, X, rows, ld, s->impl.predictors());
     s->impl.add(y, X, rows, ld, weights);
   });
 }
@@ -345,7 +343,6 @@ pwb_status pwb_fit_checks_add(pwb_fit_checks* c, const double* y, const double* 
   return capi::guarded([&] {
     capi::need(c, "c");
     capi::need_array(y, rows, "y");
-    capi::need_array(weights, rows, "weights");
     if (rows > 0 && X && ld < rows) throw Error(ErrorCode::Argument, "ld is smaller than rows");
     c->impl.add(y, X, rows, ld, weights);
   });
