@@ -2,7 +2,9 @@
 // worker (a thread with its own summary) takes every k-th chunk, the summaries are merged and
 // finished. Reports the time of a pass that only generates the data, of the summary pass with 1
 // and with 2 workers, and the peak resident memory.
-//   chunked_summary_bench [rows = 1e8] [chunk rows = 1e6] [predictors = 10]
+//   chunked_summary_bench [rows = 1e8] [chunk rows = 1e6] [predictors = 10] [fit]
+// With "fit" it times, instead, the fit summary and its check pass (one worker each, at the
+// square-root transform), against the same generate-only pass.
 #include <sys/resource.h>
 
 #include <chrono>
@@ -10,6 +12,7 @@
 #include <cstdio>
 #include <cstdlib>
 #include <random>
+#include <string>
 #include <thread>
 #include <vector>
 
@@ -84,6 +87,37 @@ double run(const Config& c, unsigned workers, SummaryLambdaResult* out) {
   return seconds_since(t0);
 }
 
+// The fit summary pass, then the check pass over the same chunks (one worker).
+void run_fit(const Config& c, double gen) {
+  TransformSpec sp;
+  sp.family = Family::Sqrt;
+  const Transform t(sp);
+  std::vector<double> y, X;
+  std::size_t n = 0;
+  auto t0 = std::chrono::steady_clock::now();
+  double cpu0 = cpu_seconds();
+  FitSummary fs(t, c.p);
+  for (std::size_t k = 0; k < c.chunks(); ++k) {
+    generate(c, k, y, X, &n);
+    fs.add(y.data(), X.data(), n, c.chunk, nullptr);
+  }
+  const SummaryFit f = fs.finish();
+  const double fit_wall = seconds_since(t0), fit_cpu = cpu_seconds() - cpu0;
+  t0 = std::chrono::steady_clock::now();
+  cpu0 = cpu_seconds();
+  FitCheckPass cp(fs);
+  for (std::size_t k = 0; k < c.chunks(); ++k) {
+    generate(c, k, y, X, &n);
+    cp.add(y.data(), X.data(), n, c.chunk, nullptr);
+  }
+  const SummaryChecks ck = cp.finish();
+  const double chk_wall = seconds_since(t0), chk_cpu = cpu_seconds() - cpu0;
+  std::printf("fit summary: %.2f s wall, CPU %.2f s (ratio to generating %.2f); sigma %.6f\n", fit_wall, fit_cpu,
+              fit_wall / gen, f.sigma);
+  std::printf("check pass: %.2f s wall, CPU %.2f s (ratio to generating %.2f); BP p %.3f, %zu bytes\n", chk_wall,
+              chk_cpu, chk_wall / gen, ck.bp_p, cp.serialize().size());
+}
+
 }  // namespace
 
 int main(int argc, char** argv) {
@@ -95,6 +129,10 @@ int main(int argc, char** argv) {
   SummaryLambdaResult r1, r2;
   const double gen = run(c, 0, nullptr);
   std::printf("generate only, 1 worker: %.2f s (%.1f ns/row)\n", gen, 1e9 * gen / c.rows);
+  if (argc > 4 && std::string(argv[4]) == "fit") {
+    run_fit(c, gen);
+    return 0;
+  }
   const double one = run(c, 1, &r1);
   std::printf("summary, 1 worker: %.2f s (%.1f ns/row), ratio to generating: %.2f\n", one, 1e9 * one / c.rows,
               one / gen);

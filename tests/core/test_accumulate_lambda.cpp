@@ -169,6 +169,10 @@ TEST_CASE("weighted rows: the profile is the weighted least-squares one", "[accu
     CHECK(got == Approx(want).epsilon(1e-10));
   }
   CHECK(a.n() == d.n - d.n / 5);
+  // A summary merged with itself counts every row twice (the merge copes with aliasing).
+  LambdaSummary twice = a;
+  twice.merge(twice);
+  CHECK(twice.n() == 2 * a.n());
 }
 
 TEST_CASE("fallback: a range beyond the bins and a near-exact fit take a grid pass", "[accumulate][lambda]") {
