@@ -20,8 +20,10 @@
 #'   drops a row).
 #' @param na.action how rows with missing values are handled in every chunk: `"na.omit"` (the
 #'   default; the rows are left out and counted) or `"na.fail"` (an error).
+#' @param x a `pwb_chunk_design` (for `print()`).
+#' @param ... unused.
 #' @return A `pwb_chunk_design`: a list with the terms, the factor levels, the coefficient
-#'   names, the response and weights columns.
+#'   names, the response and weights columns. `print()` returns `x` invisibly.
 #' @seealso [fit_chunked()] runs the whole job; [lambda_summary()], [fit_summary()].
 #' @examples
 #' river <- river_data()
@@ -74,6 +76,7 @@ chunk_design <- function(formula, data, levels = NULL, weights = NULL, na.action
   design
 }
 
+#' @rdname chunk_design
 #' @export
 print.pwb_chunk_design <- function(x, ...) {
   cat("<pwb_chunk_design>", deparse1(x$formula), "\n")

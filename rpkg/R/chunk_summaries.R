@@ -186,6 +186,7 @@ finish_checks <- function(x) {
   pwb_checks_from(rpwb_fit_checks_finish(x$bytes))
 }
 
+#' @rdname chunk_summaries
 #' @export
 print.pwb_summary <- function(x, ...) {
   cat(sprintf("<%s> %d rows (%d left out for missing values), %d bytes\n", class(x)[1L],
