@@ -154,3 +154,25 @@ test_that("a range beyond the bins takes grid passes and matches one pass", {
   expect_lt(abs(cf$lambda$lambda - one$lambda), 2e-6)
   expect_lt(max(abs(cf$lambda$conf_int - one$conf_int)), 2e-6)
 })
+
+test_that("Yeo-Johnson responses of both signs, and a fixed transform, match one pass", {
+  set.seed(15)
+  d <- data.frame(x = rnorm(2500), g = factor(sample(c("u", "v"), 2500, TRUE)))
+  d$y <- 1.5 * d$x + (d$g == "v") + rnorm(2500)
+  f <- y ~ x + g
+  # Chunks sorted by y: most hold values of one sign only.
+  parts <- split(d[order(d$y), ], rep(1:5, each = 500))
+  cf <- fit_chunked(f, parts, family = "yeo-johnson", levels = list(g = c("u", "v")))
+  one <- estimate_response_lambda(f, d, family = "yeo-johnson")
+  expect_lt(abs(cf$lambda$lambda - one$lambda), 1e-7)
+  expect_lt(max(abs(cf$lambda$conf_int - one$conf_int)), 1e-9)
+  m <- lm_transformed(f, d, family = "yeo-johnson")
+  expect_equal(coef(cf), coef(m), tolerance = 1e-9)
+  expect_equal(as.numeric(logLik(cf)), as.numeric(logLik(m)), tolerance = 1e-9)
+  # A fixed transform: no lambda pass; base R's lm on the transformed response.
+  tr <- new_transform("yeo-johnson", lambda = 0.8)
+  cfix <- fit_chunked(f, parts, response = tr)
+  expect_null(cfix$lambda)
+  z <- apply_transform(tr, d$y)
+  expect_equal(unname(coef(cfix)), unname(coef(stats::lm(z ~ x + g, data = d))), tolerance = 1e-9)
+})
