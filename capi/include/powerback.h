@@ -968,6 +968,154 @@ PWB_API pwb_status pwb_spec_model_coefficients(const pwb_spec *s, double *coef, 
 
 
 
+/* ------------------------------------------------------------------------------------------ */
+/* Summaries of chunked data: mergeable, serialisable, finished like one pass                 */
+/* ------------------------------------------------------------------------------------------ */
+
+/* For data read in chunks, held in several processes or on several machines. A summary takes
+ * rows chunk by chunk, merges with the summaries of other chunks (in any order or tree), turns
+ * into bytes and back (to send or store it) and finishes into the results of the one-pass
+ * functions. Its size depends on p and on the response's spread, never on the number of rows.
+ * Rows of a chunk: y[i] (i < rows); X column-major with leading dimension ld >= rows (column j of
+ * row i at X[j * ld + i]; NULL when p is 0); weights NULL (all 1) or rows precision weights as
+ * R's lm takes them (0 drops a row; negative or non-finite is an error). Row numbers in messages
+ * are 0-based within the chunk. A failed add leaves the summary unchanged.
+ * Bytes: a versioned format with a checksum; reading is strict and bounded, so corrupted or
+ * truncated bytes give PWB_ERR_PARSE, never a crash. Serialize writes nothing and returns PWB_OK
+ * when buf is NULL and cap is 0 (a size query: *needed gets the size); a cap below the size is
+ * PWB_ERR_ARGUMENT. Thread safety: distinct handles from distinct threads; one handle is not to
+ * be changed (add, merge) while another thread uses it.
+ * Accuracy (see powerback/accumulate.hpp): any partition merged in any order finishes with
+ * |lambda-hat - one pass| <= 1e-7 and interval ends within 1e-9 of pwb_estimate_response_lambda
+ * on the same rows, unless the finish asks for a grid pass (below). */
+
+typedef struct pwb_lambda_summary pwb_lambda_summary; /* opaque */
+
+/* A new, empty summary for the response power of family PWB_BOX_COX or PWB_YEO_JOHNSON given p
+ * predictors (an intercept is added). *out is released with pwb_lambda_summary_free.
+ * Errors: PWB_ERR_ARGUMENT for another family, a NULL out, p >= 100000. */
+PWB_API pwb_status pwb_lambda_summary_new(pwb_family family, size_t p, pwb_lambda_summary **out);
+/* Releases s. NULL is fine. */
+PWB_API void pwb_lambda_summary_free(pwb_lambda_summary *s);
+/* Adds a chunk (see above). Errors: PWB_ERR_NONFINITE (NaN/Inf in y or X, rows named),
+ * PWB_ERR_DOMAIN (y <= 0 with Box-Cox, rows named), PWB_ERR_ARGUMENT (NULL arrays with rows > 0,
+ * ld < rows, bad weights). */
+PWB_API pwb_status pwb_lambda_summary_add(pwb_lambda_summary *s, const double *y, const double *X,
+                                          size_t rows, size_t ld, const double *weights);
+/* into := into merged with from (from unchanged; the two may be the same handle). Errors:
+ * PWB_ERR_ARGUMENT for NULL handles or another family or p. */
+PWB_API pwb_status pwb_lambda_summary_merge(pwb_lambda_summary *into, const pwb_lambda_summary *from);
+/* The summary as bytes into buf (caller-owned, cap bytes); the size in *needed (not NULL). */
+PWB_API pwb_status pwb_lambda_summary_serialize(const pwb_lambda_summary *s, unsigned char *buf,
+                                                size_t cap, size_t *needed);
+/* A summary from bytes (a new handle in *out, NULL on failure). PWB_ERR_PARSE for bytes that are
+ * not an intact summary of this format version (message says what is wrong). */
+PWB_API pwb_status pwb_lambda_summary_deserialize(const unsigned char *buf, size_t len,
+                                                  pwb_lambda_summary **out);
+/* Rows taken (weight > 0) and bins held; either pointer may be NULL. */
+PWB_API pwb_status pwb_lambda_summary_count(const pwb_lambda_summary *s, size_t *n, size_t *bins);
+
+/* Whether a finish needs one more pass over the rows, and over which lambdas. */
+typedef struct pwb_summary_pass_info {
+  size_t struct_size;  /* sizeof(pwb_summary_pass_info) */
+  int needs_pass;      /* 1: out holds NaN (or a provisional estimate from a grid); run a
+                          pwb_lambda_pass over pass_points equally spaced lambdas from
+                          pass_lower to pass_upper and finish that */
+  double pass_lower, pass_upper;
+  size_t pass_points;
+  int from_grid;       /* 1: the estimate comes from a grid pass (cubic spline through its values) */
+} pwb_summary_pass_info;
+
+/* Sets struct_size and zeros (NaN for the doubles). NULL is ignored. */
+PWB_API void pwb_summary_pass_info_init(pwb_summary_pass_info *info);
+
+/* Finishes s into *out (as pwb_estimate_response_lambda) and n_grid (>= 2) points of the profile
+ * curve on the grid pwb_estimate_response_lambda_curve uses (grid_out, loglik_out caller-owned;
+ * both may be NULL when n_grid is 0). opt may be NULL. When the binned sums cannot serve every
+ * lambda of the range (|k| > 5, or a nearly exact fit), info->needs_pass is 1 and out's values
+ * are NaN. Errors: PWB_ERR_ARGUMENT (no rows, fewer than 3, a constant y, bad options),
+ * PWB_ERR_SINGULAR (n <= rank + 1). */
+PWB_API pwb_status pwb_lambda_summary_finish(const pwb_lambda_summary *s, const pwb_lambda_options *opt,
+                                             pwb_lambda_result *out, size_t n_grid, double *grid_out,
+                                             double *loglik_out, pwb_summary_pass_info *info);
+
+/* The second pass of the fallback: the profile at every lambda of a grid, in one pass. */
+typedef struct pwb_lambda_pass pwb_lambda_pass; /* opaque */
+
+/* A pass for summary s (finishable: it fixes the kept columns and the centring) over grid (n_grid
+ * >= 4 equally spaced increasing lambdas, at most 1000). Released with pwb_lambda_pass_free. */
+PWB_API pwb_status pwb_lambda_pass_new(const pwb_lambda_summary *s, const double *grid,
+                                       size_t n_grid, pwb_lambda_pass **out);
+PWB_API void pwb_lambda_pass_free(pwb_lambda_pass *pass);
+/* As pwb_lambda_summary_add / _merge / _serialize / _deserialize. Merging needs passes made from
+ * the same summary and grid. */
+PWB_API pwb_status pwb_lambda_pass_add(pwb_lambda_pass *pass, const double *y, const double *X,
+                                       size_t rows, size_t ld, const double *weights);
+PWB_API pwb_status pwb_lambda_pass_merge(pwb_lambda_pass *into, const pwb_lambda_pass *from);
+PWB_API pwb_status pwb_lambda_pass_serialize(const pwb_lambda_pass *pass, unsigned char *buf,
+                                             size_t cap, size_t *needed);
+PWB_API pwb_status pwb_lambda_pass_deserialize(const unsigned char *buf, size_t len,
+                                               pwb_lambda_pass **out);
+/* The grid's size. */
+PWB_API pwb_status pwb_lambda_pass_grid_size(const pwb_lambda_pass *pass, size_t *n_grid);
+/* The estimate from the pass and its summary s (the same rows: PWB_ERR_ARGUMENT when the row
+ * counts differ); grid_out / loglik_out (n_grid = the pass's grid size) receive the grid and the
+ * profile there. info->needs_pass is 1 when a narrower (or wider) grid should be passed over once
+ * more; out then holds the provisional estimate. */
+PWB_API pwb_status pwb_lambda_pass_finish(const pwb_lambda_pass *pass, const pwb_lambda_summary *s,
+                                          const pwb_lambda_options *opt, pwb_lambda_result *out,
+                                          size_t n_grid, double *grid_out, double *loglik_out,
+                                          pwb_summary_pass_info *info);
+
+/* A linear model at a fixed response transform, from chunks: z = T(y) on [1 X] by weighted least
+ * squares, as pwb_model_fit. */
+typedef struct pwb_fit_summary pwb_fit_summary; /* opaque */
+
+/* A new summary for response transform `response` (copied; NULL for none) and p predictors;
+ * estimated_parameters as in pwb_model_options. */
+PWB_API pwb_status pwb_fit_summary_new(const pwb_transform *response, size_t p,
+                                       size_t estimated_parameters, pwb_fit_summary **out);
+PWB_API void pwb_fit_summary_free(pwb_fit_summary *s);
+/* As pwb_lambda_summary_add; y values T cannot map are PWB_ERR_DOMAIN / PWB_ERR_NONFINITE. */
+PWB_API pwb_status pwb_fit_summary_add(pwb_fit_summary *s, const double *y, const double *X,
+                                       size_t rows, size_t ld, const double *weights);
+PWB_API pwb_status pwb_fit_summary_merge(pwb_fit_summary *into, const pwb_fit_summary *from);
+PWB_API pwb_status pwb_fit_summary_serialize(const pwb_fit_summary *s, unsigned char *buf,
+                                             size_t cap, size_t *needed);
+PWB_API pwb_status pwb_fit_summary_deserialize(const unsigned char *buf, size_t len,
+                                               pwb_fit_summary **out);
+/* The fit: *info as pwb_model_get_info (intercept 1); coef, se, aliased (columns = p + 1 values
+ * each) and covariance (columns x columns, column-major, sigma^2 (X'WX)^-1, NaN where aliased);
+ * any output may be NULL. Errors: PWB_ERR_ARGUMENT (no rows, columns other than p + 1),
+ * PWB_ERR_SINGULAR (no residual degrees of freedom). */
+PWB_API pwb_status pwb_fit_summary_finish(const pwb_fit_summary *s, pwb_model_info *info,
+                                          double *coef, double *se, int *aliased,
+                                          double *covariance, size_t columns);
+
+/* The second pass of a fit: residual checks and binned residual sums for smearing means. */
+typedef struct pwb_fit_checks pwb_fit_checks; /* opaque */
+
+/* A pass for the finished fit s (its coefficients are fixed here). */
+PWB_API pwb_status pwb_fit_checks_new(const pwb_fit_summary *s, pwb_fit_checks **out);
+PWB_API void pwb_fit_checks_free(pwb_fit_checks *c);
+PWB_API pwb_status pwb_fit_checks_add(pwb_fit_checks *c, const double *y, const double *X,
+                                      size_t rows, size_t ld, const double *weights);
+PWB_API pwb_status pwb_fit_checks_merge(pwb_fit_checks *into, const pwb_fit_checks *from);
+PWB_API pwb_status pwb_fit_checks_serialize(const pwb_fit_checks *c, unsigned char *buf,
+                                            size_t cap, size_t *needed);
+PWB_API pwb_status pwb_fit_checks_deserialize(const unsigned char *buf, size_t len,
+                                              pwb_fit_checks **out);
+/* Koenker's Breusch-Pagan, RESET and the residuals' skewness into *out, as
+ * pwb_model_residual_checks (Shapiro-Wilk needs every residual: sw_computed 0, NaN). Residuals
+ * are sqrt(w) (z - x'b). */
+PWB_API pwb_status pwb_fit_checks_finish(const pwb_fit_checks *c, pwb_residual_checks *out);
+/* Smearing means (Duan 1983) at m linear predictors eta (transformed scale), from the binned
+ * residual sums: mean_out[i] ~ mean over training residuals e of T^-1(eta[i] + e). */
+PWB_API pwb_status pwb_fit_checks_smearing(const pwb_fit_checks *c, const double *eta, size_t m,
+                                           double *mean_out);
+
+/* @@PWB_SECTION_SUMMARIES@@ (declarations of this section go above this line) */
+
 #ifdef __cplusplus
 }
 #endif

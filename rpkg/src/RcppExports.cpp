@@ -11,6 +11,140 @@ Rcpp::Rostream<true>&  Rcpp::Rcout = Rcpp::Rcpp_cout_get();
 Rcpp::Rostream<false>& Rcpp::Rcerr = Rcpp::Rcpp_cerr_get();
 #endif
 
+// rpwb_lambda_summary_bytes
+Rcpp::RawVector rpwb_lambda_summary_bytes(Rcpp::NumericVector y, Rcpp::NumericMatrix X, std::string family, Rcpp::Nullable<Rcpp::NumericVector> weights);
+RcppExport SEXP _powerback_rpwb_lambda_summary_bytes(SEXP ySEXP, SEXP XSEXP, SEXP familySEXP, SEXP weightsSEXP) {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< Rcpp::NumericVector >::type y(ySEXP);
+    Rcpp::traits::input_parameter< Rcpp::NumericMatrix >::type X(XSEXP);
+    Rcpp::traits::input_parameter< std::string >::type family(familySEXP);
+    Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::NumericVector> >::type weights(weightsSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_lambda_summary_bytes(y, X, family, weights));
+    return rcpp_result_gen;
+END_RCPP
+}
+// rpwb_summary_merge
+Rcpp::RawVector rpwb_summary_merge(std::string kind, Rcpp::List parts);
+RcppExport SEXP _powerback_rpwb_summary_merge(SEXP kindSEXP, SEXP partsSEXP) {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< std::string >::type kind(kindSEXP);
+    Rcpp::traits::input_parameter< Rcpp::List >::type parts(partsSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_summary_merge(kind, parts));
+    return rcpp_result_gen;
+END_RCPP
+}
+// rpwb_lambda_summary_finish
+Rcpp::List rpwb_lambda_summary_finish(Rcpp::RawVector bytes, double lower, double upper, double level, int n_grid);
+RcppExport SEXP _powerback_rpwb_lambda_summary_finish(SEXP bytesSEXP, SEXP lowerSEXP, SEXP upperSEXP, SEXP levelSEXP, SEXP n_gridSEXP) {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< Rcpp::RawVector >::type bytes(bytesSEXP);
+    Rcpp::traits::input_parameter< double >::type lower(lowerSEXP);
+    Rcpp::traits::input_parameter< double >::type upper(upperSEXP);
+    Rcpp::traits::input_parameter< double >::type level(levelSEXP);
+    Rcpp::traits::input_parameter< int >::type n_grid(n_gridSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_lambda_summary_finish(bytes, lower, upper, level, n_grid));
+    return rcpp_result_gen;
+END_RCPP
+}
+// rpwb_lambda_pass_bytes
+Rcpp::RawVector rpwb_lambda_pass_bytes(Rcpp::RawVector summary, Rcpp::NumericVector grid, Rcpp::NumericVector y, Rcpp::NumericMatrix X, Rcpp::Nullable<Rcpp::NumericVector> weights);
+RcppExport SEXP _powerback_rpwb_lambda_pass_bytes(SEXP summarySEXP, SEXP gridSEXP, SEXP ySEXP, SEXP XSEXP, SEXP weightsSEXP) {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< Rcpp::RawVector >::type summary(summarySEXP);
+    Rcpp::traits::input_parameter< Rcpp::NumericVector >::type grid(gridSEXP);
+    Rcpp::traits::input_parameter< Rcpp::NumericVector >::type y(ySEXP);
+    Rcpp::traits::input_parameter< Rcpp::NumericMatrix >::type X(XSEXP);
+    Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::NumericVector> >::type weights(weightsSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_lambda_pass_bytes(summary, grid, y, X, weights));
+    return rcpp_result_gen;
+END_RCPP
+}
+// rpwb_lambda_pass_finish
+Rcpp::List rpwb_lambda_pass_finish(Rcpp::RawVector pass, Rcpp::RawVector summary, double lower, double upper, double level);
+RcppExport SEXP _powerback_rpwb_lambda_pass_finish(SEXP passSEXP, SEXP summarySEXP, SEXP lowerSEXP, SEXP upperSEXP, SEXP levelSEXP) {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< Rcpp::RawVector >::type pass(passSEXP);
+    Rcpp::traits::input_parameter< Rcpp::RawVector >::type summary(summarySEXP);
+    Rcpp::traits::input_parameter< double >::type lower(lowerSEXP);
+    Rcpp::traits::input_parameter< double >::type upper(upperSEXP);
+    Rcpp::traits::input_parameter< double >::type level(levelSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_lambda_pass_finish(pass, summary, lower, upper, level));
+    return rcpp_result_gen;
+END_RCPP
+}
+// rpwb_fit_summary_bytes
+Rcpp::RawVector rpwb_fit_summary_bytes(Rcpp::NumericVector y, Rcpp::NumericMatrix X, Rcpp::Nullable<Rcpp::List> response, int estimated, Rcpp::Nullable<Rcpp::NumericVector> weights);
+RcppExport SEXP _powerback_rpwb_fit_summary_bytes(SEXP ySEXP, SEXP XSEXP, SEXP responseSEXP, SEXP estimatedSEXP, SEXP weightsSEXP) {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< Rcpp::NumericVector >::type y(ySEXP);
+    Rcpp::traits::input_parameter< Rcpp::NumericMatrix >::type X(XSEXP);
+    Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::List> >::type response(responseSEXP);
+    Rcpp::traits::input_parameter< int >::type estimated(estimatedSEXP);
+    Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::NumericVector> >::type weights(weightsSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_fit_summary_bytes(y, X, response, estimated, weights));
+    return rcpp_result_gen;
+END_RCPP
+}
+// rpwb_fit_summary_finish
+Rcpp::List rpwb_fit_summary_finish(Rcpp::RawVector bytes);
+RcppExport SEXP _powerback_rpwb_fit_summary_finish(SEXP bytesSEXP) {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< Rcpp::RawVector >::type bytes(bytesSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_fit_summary_finish(bytes));
+    return rcpp_result_gen;
+END_RCPP
+}
+// rpwb_fit_checks_bytes
+Rcpp::RawVector rpwb_fit_checks_bytes(Rcpp::RawVector fit, Rcpp::NumericVector y, Rcpp::NumericMatrix X, Rcpp::Nullable<Rcpp::NumericVector> weights);
+RcppExport SEXP _powerback_rpwb_fit_checks_bytes(SEXP fitSEXP, SEXP ySEXP, SEXP XSEXP, SEXP weightsSEXP) {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< Rcpp::RawVector >::type fit(fitSEXP);
+    Rcpp::traits::input_parameter< Rcpp::NumericVector >::type y(ySEXP);
+    Rcpp::traits::input_parameter< Rcpp::NumericMatrix >::type X(XSEXP);
+    Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::NumericVector> >::type weights(weightsSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_fit_checks_bytes(fit, y, X, weights));
+    return rcpp_result_gen;
+END_RCPP
+}
+// rpwb_fit_checks_finish
+Rcpp::List rpwb_fit_checks_finish(Rcpp::RawVector bytes);
+RcppExport SEXP _powerback_rpwb_fit_checks_finish(SEXP bytesSEXP) {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< Rcpp::RawVector >::type bytes(bytesSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_fit_checks_finish(bytes));
+    return rcpp_result_gen;
+END_RCPP
+}
+// rpwb_fit_checks_smearing
+Rcpp::NumericVector rpwb_fit_checks_smearing(Rcpp::RawVector bytes, Rcpp::NumericVector eta);
+RcppExport SEXP _powerback_rpwb_fit_checks_smearing(SEXP bytesSEXP, SEXP etaSEXP) {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< Rcpp::RawVector >::type bytes(bytesSEXP);
+    Rcpp::traits::input_parameter< Rcpp::NumericVector >::type eta(etaSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_fit_checks_smearing(bytes, eta));
+    return rcpp_result_gen;
+END_RCPP
+}
 // rpwb_box_tidwell
 Rcpp::List rpwb_box_tidwell(Rcpp::NumericVector y, Rcpp::NumericMatrix Z, Rcpp::NumericMatrix X, int max_iter, double tol, double level, Rcpp::Nullable<Rcpp::NumericVector> weights);
 RcppExport SEXP _powerback_rpwb_box_tidwell(SEXP ySEXP, SEXP ZSEXP, SEXP XSEXP, SEXP max_iterSEXP, SEXP tolSEXP, SEXP levelSEXP, SEXP weightsSEXP) {
@@ -294,6 +428,16 @@ END_RCPP
 }
 
 static const R_CallMethodDef CallEntries[] = {
+    {"_powerback_rpwb_lambda_summary_bytes", (DL_FUNC) &_powerback_rpwb_lambda_summary_bytes, 4},
+    {"_powerback_rpwb_summary_merge", (DL_FUNC) &_powerback_rpwb_summary_merge, 2},
+    {"_powerback_rpwb_lambda_summary_finish", (DL_FUNC) &_powerback_rpwb_lambda_summary_finish, 5},
+    {"_powerback_rpwb_lambda_pass_bytes", (DL_FUNC) &_powerback_rpwb_lambda_pass_bytes, 5},
+    {"_powerback_rpwb_lambda_pass_finish", (DL_FUNC) &_powerback_rpwb_lambda_pass_finish, 5},
+    {"_powerback_rpwb_fit_summary_bytes", (DL_FUNC) &_powerback_rpwb_fit_summary_bytes, 5},
+    {"_powerback_rpwb_fit_summary_finish", (DL_FUNC) &_powerback_rpwb_fit_summary_finish, 1},
+    {"_powerback_rpwb_fit_checks_bytes", (DL_FUNC) &_powerback_rpwb_fit_checks_bytes, 4},
+    {"_powerback_rpwb_fit_checks_finish", (DL_FUNC) &_powerback_rpwb_fit_checks_finish, 1},
+    {"_powerback_rpwb_fit_checks_smearing", (DL_FUNC) &_powerback_rpwb_fit_checks_smearing, 2},
     {"_powerback_rpwb_box_tidwell", (DL_FUNC) &_powerback_rpwb_box_tidwell, 7},
     {"_powerback_rpwb_cv_folds_by", (DL_FUNC) &_powerback_rpwb_cv_folds_by, 6},
     {"_powerback_rpwb_holdout_score", (DL_FUNC) &_powerback_rpwb_holdout_score, 5},
