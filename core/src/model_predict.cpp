@@ -1,10 +1,12 @@
 // Predictions of powerback::Model on the transformed scale and in original units.
 #include <boost/math/distributions/students_t.hpp>
 #include <cmath>
+#include <memory>
 #include <string>
 
 #include "powerback/errors.hpp"
 #include "powerback/model.hpp"
+#include "powerback/smearing.hpp"
 
 namespace powerback {
 
@@ -51,6 +53,11 @@ Prediction Model::predict(const double* Xnew, std::size_t m, std::size_t p,
     for (Eigen::Index i = 0; i < mi; ++i) half(i) = q * sigma_ * std::sqrt(vf(i) + extra);
   }
 
+  // The smearing mean is built once from the residuals, then costs about O(1) per row.
+  std::unique_ptr<Smearing> smear;
+  if (!opt.transformed_scale && opt.center == Center::Mean && opt.mean_method == MeanMethod::Smearing)
+    smear.reset(new Smearing(response_, resid_.data(), static_cast<std::size_t>(resid_.size())));
+
   for (std::size_t i = 0; i < m; ++i) {
     if (out.flags[i] & kPredMissing) continue;
     const Eigen::Index ii = static_cast<Eigen::Index>(i);
@@ -64,7 +71,7 @@ Prediction Model::predict(const double* Xnew, std::size_t m, std::size_t p,
     BackValue f;
     if (opt.center == Center::Median) f = median_back(response_, mu(ii));
     else if (opt.mean_method == MeanMethod::Smearing)
-      f = smearing_mean(response_, mu(ii), resid_.data(), static_cast<std::size_t>(resid_.size()));
+      f = smear->mean(mu(ii));
     else f = normal_mean(response_, mu(ii), sigma_);
     out.fit[i] = f.value;
     bool bounded = f.bounded;
