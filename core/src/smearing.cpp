@@ -15,7 +15,7 @@ namespace {
 
 constexpr int K = 26;                 // series terms kept
 constexpr std::size_t kLeaf = 16;     // residuals at most in a leaf
-constexpr double kRho = 0.5;          // node half-width / distance to a sign change, at most
+constexpr double kRho = 0.9;          // node half-width / distance to a sign change, at most
 constexpr double kExpReach = 2.0;     // half-width limit for exponential-type inverses
 constexpr double kLogisticReach = 0.25 * 3.141592653589793;  // a quarter of the pole distance
 constexpr double kEps = 1.1102230246251565e-16;               // 2^-53

@@ -17,15 +17,18 @@
 //     Nodes too close to a limit are split; leaves (at most 16 residuals) there are summed
 //     directly; nodes wholly beyond the range limit add their count times the limit value.
 //
-// Accuracy. A node is accepted only when each series term is bounded by rho^k times the node's
-// smallest term magnitude, rho = 1/4 (powers: |lambda r / W| <= rho and |r / W| <= rho, W the
-// base of the power at w; exponential-type inverses: r <= 1 and r <= rho |w| near a sign change;
-// logistic: r <= pi / 4, a quarter of the distance to its nearest complex pole), so the
-// truncation after K = 26 terms is below 4^-26 = 2e-16 of the node sum and the result agrees
-// with the pairwise mean to a few units of rounding relative to mean_j |T^{-1}(mu + e_j)|
-// (checked at 1e-12 in the tests). Which terms lie beyond the range limit, and so the `bounded`
-// flag, is decided with the same floating-point test as the pairwise mean: the range is an
-// interval in z and z = mu + e_j is monotone in e_j, so a node's two end residuals decide it.
+// Accuracy. A node is accepted only where its series is both short and well conditioned:
+// powers (W + s d)^p need |s r / W| <= X(p), the largest |x| for which the binomial series of
+// (1 + x)^p cut after K terms leaves a tail below 2^-53 of the smallest value (1 -+ |x|)^p and
+// sums absolute terms at most 64 times it; exponential-type inverses (exp, sinh) need r <= 2
+// (tail 2^27/27! = 1e-20, conditioning e^4); the logistic needs r <= pi/4, a quarter of the
+// distance to its nearest complex pole; near a sign change of the terms (Yeo-Johnson's and
+// the sign-preserving power's branch point, sinh at 0) a node must stay within 0.9 |w| of its
+// centre. The result agrees with the pairwise mean to well within 1e-12 relative to
+// mean_j |T^{-1}(mu + e_j)| (checked in the tests against the pairwise sum, itself exact only to
+// ~n ulp). Which terms lie beyond the range limit, and so the `bounded` flag, is decided with
+// the same floating-point test as the pairwise mean: the range is an interval in z and
+// z = mu + e_j is monotone in e_j, so a node's two end residuals decide it.
 // Overflow: when the extreme terms of a row overflow, accepted nodes must have finite ends,
 // else they are summed directly, so non-finite terms give the same Inf and flag.
 //
