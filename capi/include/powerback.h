@@ -483,8 +483,9 @@ typedef enum pwb_center {
 } pwb_center;
 typedef enum pwb_mean_method {
   PWB_MEAN_SMEARING = 0, /* Duan (1983): mean over training residuals e_j of T^{-1}(x'b + e_j) */
-  PWB_MEAN_NORMAL        /* E[T^{-1}(Z)], Z ~ N(x'b, sigma^2): exp(mu + sigma^2/2) for log
-                            (and its log10 analogue), Gauss-Hermite quadrature otherwise */
+  PWB_MEAN_NORMAL        /* E[T^{-1}(Z) | Z in range], Z ~ N(x'b, sigma^2) truncated to the
+                            range of T^{-1}: exp(mu + sigma^2/2) for log (and its log10
+                            analogue), adaptive quadrature otherwise; see tail_mass below */
 } pwb_mean_method;
 
 typedef struct pwb_predict_options {
@@ -494,9 +495,23 @@ typedef struct pwb_predict_options {
   pwb_center center;           /* default PWB_CENTER_MEDIAN */
   pwb_mean_method mean_method; /* default PWB_MEAN_SMEARING */
   int transformed_scale;       /* 1: report on the transformed scale, no back-transform (0) */
+  double *tail_mass;           /* optional output, `rows` doubles (default NULL: not wanted) */
 } pwb_predict_options;
 
-/* Sets struct_size and the defaults above. NULL is ignored. */
+/* Sets struct_size and the defaults above. NULL is ignored.
+ *
+ * The normal-theory mean (PWB_CENTER_MEAN with PWB_MEAN_NORMAL) is defined for every family
+ * and lambda as the mean of T^{-1}(Z) with Z ~ N(x'b, sigma^2) truncated to the range of T^{-1}
+ * (the whole line for log, log10, identity, asinh, logit, Yeo-Johnson with 0 <= lambda <= 2,
+ * power with lambda > 0; a half-line otherwise, e.g. 1 + lambda z > 0 for Box-Cox). The
+ * normal mass beyond the limit is cut off and the rest renormalised; when tail_mass is not
+ * NULL, tail_mass[i] receives that mass for row i (0 without a limit), NaN for rows with a
+ * missing predictor and for every row when the normal-theory mean is not requested. The mean
+ * is +Inf (or -Inf) with PWB_PRED_BOUNDED where T^{-1} grows at the limit like
+ * distance^p with p <= -1 (Box-Cox and Yeo-Johnson with -1 <= lambda < 0, Yeo-Johnson with
+ * 2 < lambda <= 3, reciprocal, power with -1 <= lambda < 0): the truncated density is positive
+ * at the limit and the integral diverges however small the mass beyond. tail_mass was
+ * appended to the struct: a caller whose struct_size ends before it gets no tail masses. */
 PWB_API void pwb_predict_options_init(pwb_predict_options *opt);
 
 /* Flags of a predicted row (bits of flags[i]). */

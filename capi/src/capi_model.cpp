@@ -1,4 +1,6 @@
 // The model handle of the C ABI: fit, accessors, predictions in original units.
+#include <algorithm>
+#include <cstddef>
 #include <cstring>
 #include <memory>
 
@@ -123,6 +125,7 @@ void pwb_predict_options_init(pwb_predict_options* opt) {
   opt->center = PWB_CENTER_MEDIAN;
   opt->mean_method = PWB_MEAN_SMEARING;
   opt->transformed_scale = 0;
+  opt->tail_mass = nullptr;
 }
 
 pwb_status pwb_model_predict(const pwb_model* m, const double* Xnew, size_t rows, size_t p,
@@ -135,8 +138,10 @@ pwb_status pwb_model_predict(const pwb_model* m, const double* Xnew, size_t rows
     pwb_predict_options o;
     pwb_predict_options_init(&o);
     if (opt) {
-      capi::need_struct(opt->struct_size, sizeof(pwb_predict_options), "pwb_predict_options");
-      o = *opt;
+      // Fields appended later (tail_mass) are absent from a caller's smaller struct.
+      capi::need_struct(opt->struct_size, offsetof(pwb_predict_options, tail_mass), "pwb_predict_options");
+      std::memcpy(&o, opt, std::min(opt->struct_size, sizeof(pwb_predict_options)));
+      o.struct_size = sizeof(pwb_predict_options);
     }
     PredictOptions po;
     po.level = o.level;
@@ -163,6 +168,7 @@ pwb_status pwb_model_predict(const pwb_model* m, const double* Xnew, size_t rows
       if (lwr) lwr[i] = pr.lower[i];
       if (upr) upr[i] = pr.upper[i];
       if (flags) flags[i] = pr.flags[i];
+      if (o.tail_mass) o.tail_mass[i] = pr.cut_mass[i];
     }
   });
 }

@@ -23,6 +23,7 @@ Prediction Model::predict(const double* Xnew, std::size_t m, std::size_t p,
   out.lower.assign(m, math::kNaN);
   out.upper.assign(m, math::kNaN);
   out.flags.assign(m, 0u);
+  out.cut_mass.assign(m, math::kNaN);
   if (m == 0) return out;
 
   // Rows of the design for the new data; non-finite rows are set aside and flagged.
@@ -72,7 +73,7 @@ Prediction Model::predict(const double* Xnew, std::size_t m, std::size_t p,
     if (opt.center == Center::Median) f = median_back(response_, mu(ii));
     else if (opt.mean_method == MeanMethod::Smearing)
       f = smear->mean(mu(ii));
-    else f = normal_mean(response_, mu(ii), sigma_);
+    else f = normal_mean(response_, mu(ii), sigma_, &out.cut_mass[i]);
     out.fit[i] = f.value;
     bool bounded = f.bounded;
     if (opt.interval != IntervalKind::None) {

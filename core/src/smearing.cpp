@@ -5,6 +5,7 @@
 #include <algorithm>
 #include <array>
 #include <cmath>
+#include <limits>
 #include <string>
 
 #include "powerback/errors.hpp"
@@ -21,6 +22,7 @@ constexpr double kLogisticReach = 0.25 * 3.141592653589793;  // a quarter of the
 constexpr double kEps = 1.1102230246251565e-16;               // 2^-53
 constexpr double kConditioning = 64.0;  // sum |terms| / smallest value accepted in a node
 constexpr int kMaxDepth = 250;
+constexpr double kInf = std::numeric_limits<double>::infinity();
 
 struct Tables {
   double choose[K + 1][K + 1];  // C(k, i)
@@ -222,26 +224,41 @@ bool Smearing::series(const Node& nd, double mu, bool check_ends, double* vsum) 
   const Tables& tb = tables();
   double c0 = 0.0;
   double c[K + 1];  // c[k], k >= 1: k-th Taylor coefficient of g at w
+  int kmax = K;     // terms used: the series stops once its terms are decreasing and negligible
+  // |c_k| r^k bounds the k-th term per residual; below 2^-60 |c0| (the node sum is at least
+  // |c0| / 64 per residual in an accepted node) and past the terms' peak, the rest cannot count.
+  auto done = [&](double ck, double rk, double* prev) {
+    const double bound = std::fabs(ck) * rk;
+    const bool stop = bound < 8.673617379884035e-19 * std::fabs(c0) && bound <= *prev;
+    *prev = bound;
+    return stop;
+  };
 
   // A power branch g(w + d) = A + B (W + s d)^p with base W > 0: c_k = B W^p binom(p, k) (s/W)^k.
   auto power_branch = [&](double W, double sl, double B, double Wp, int br) {
     if (!(W > 0.0) || r * std::fabs(sl) > reach_[br] * W) return false;
     const std::vector<double>& bn = binom_[br];
     const double x = sl / W;
-    double xp = B * Wp;
+    double xp = B * Wp, rk = 1.0, prev = kInf;
     for (int k = 1; k <= K; ++k) {
       xp *= x;
+      rk *= r;
       c[k] = bn[static_cast<std::size_t>(k)] * xp;
+      kmax = k;
+      if (done(c[k], rk, &prev)) break;
     }
     return true;
   };
   // An exponential branch g(w + d) = A + B exp(sl (w + d)): c_k = B exp(sl w) sl^k / k!.
   auto exp_branch = [&](double sl, double B) {
     if (r * std::fabs(sl) > kExpReach) return false;
-    double xp = B * std::exp(sl * w);
+    double xp = B * std::exp(sl * w), rk = 1.0, prev = kInf;
     for (int k = 1; k <= K; ++k) {
       xp *= sl;
+      rk *= r;
       c[k] = xp * tb.inv_fact[k];
+      kmax = k;
+      if (done(c[k], rk, &prev)) break;
     }
     return true;
   };
@@ -330,7 +347,7 @@ bool Smearing::series(const Node& nd, double mu, bool check_ends, double* vsum) 
     return false;
   const double* m = &mom_[static_cast<std::size_t>(&nd - nodes_.data()) * K];
   double tail = 0.0;
-  for (int k = K; k >= 1; --k) tail += c[k] * m[k - 1];
+  for (int k = kmax; k >= 1; --k) tail += c[k] * m[k - 1];
   const double sum = cnt * c0 + tail;
   if (!std::isfinite(sum)) return false;
   *vsum = sum;
