@@ -57,13 +57,15 @@ Rcpp::List rpwb_model_predict(Rcpp::NumericVector y, Rcpp::NumericMatrix X, bool
   o.transformed_scale = transformed ? 1 : 0;
   const std::size_t rows = static_cast<std::size_t>(Xnew.nrow());
   // R's NA_real_ is a NaN, which the library treats as a missing row.
-  std::vector<double> fit(rows), lwr(rows), upr(rows);
+  std::vector<double> fit(rows), lwr(rows), upr(rows), cut(rows);
   std::vector<unsigned> flags(rows);
+  o.tail_mass = cut.data();
   rpwb::check(pwb_model_predict(m.get(), Xnew.ncol() > 0 ? Xnew.begin() : nullptr, rows,
                                 static_cast<size_t>(Xnew.ncol()), &o, fit.data(), lwr.data(),
                                 upr.data(), flags.data()));
   Rcpp::IntegerVector fl(rows);
   for (std::size_t i = 0; i < rows; ++i) fl[i] = static_cast<int>(flags[i]);
   return Rcpp::List::create(Rcpp::Named("fit") = vec(fit), Rcpp::Named("lwr") = vec(lwr),
-                            Rcpp::Named("upr") = vec(upr), Rcpp::Named("flags") = fl);
+                            Rcpp::Named("upr") = vec(upr), Rcpp::Named("flags") = fl,
+                            Rcpp::Named("cut_mass") = vec(cut));
 }
