@@ -534,6 +534,58 @@ PWB_API pwb_status pwb_model_predict(const pwb_model *m, const double *Xnew, siz
 
 /* @@PWB_SECTION_MODEL@@ (declarations of this section go above this line) */
 
+/* ------------------------------------------------------------------------------------------ */
+/* Effects in original units                                                                  */
+/* ------------------------------------------------------------------------------------------ */
+
+/* A model's coefficients read as effects on the original-scale median g(x'b), g = T^{-1}:
+ * a percent change for a log-type response (log, log10, Box-Cox 0, without shift or
+ * reflection), where moving the design by c multiplies the median by exp(a c'b) (a = 1, or
+ * ln 10 for log10); an elasticity (a_y / a_x) b_j when the predictor column is log-type too; and
+ * for any response the change g(x1'b) - g(x0'b) between two design rows with a delta-method
+ * standard error (gradient g'(x1'b) x1 - g'(x0'b) x0, covariance sigma^2 (X'X)^{-1}).
+ * Intervals use Student t quantiles with the residual df: percent-change endpoints are the t
+ * interval of c'b mapped through 100 (exp(a .) - 1); the others are estimate -+ t se. Aliased
+ * coefficients count as 0. All functions below only read m: thread-safe for one m. */
+typedef struct pwb_effect {
+  size_t struct_size; /* sizeof(pwb_effect), set by the caller (or _init) */
+  double estimate;    /* the effect: percent, elasticity or change in the median */
+  double se;          /* its standard error (delta method for the percent and the change) */
+  double lower;       /* confidence interval at the requested level */
+  double upper;
+  double median0;     /* pwb_model_effect_median_change only: g(x0'b) and g(x1'b); else NaN */
+  double median1;
+} pwb_effect;
+
+/* Sets struct_size and every value to NaN. NULL is ignored. */
+PWB_API void pwb_effect_init(pwb_effect *out);
+
+/* Percent change of the median for the design contrast `contrast` (length `columns`, intercept
+ * first when the model has one; e.g. a unit vector for "per unit of column j", or x1 - x0).
+ * Errors: PWB_ERR_ARGUMENT for NULL arguments, columns other than the model's, a level outside
+ * (0, 1), a struct_size too small, or a response that is not log-type (the message says to use
+ * pwb_model_effect_median_change). */
+PWB_API pwb_status pwb_model_effect_percent(const pwb_model *m, const double *contrast,
+                                            size_t columns, double level, pwb_effect *out);
+
+/* Elasticity d log median / d log x of the variable behind design column `column` (0-based,
+ * intercept included), whose transform is `predictor` (copied, not kept). Errors:
+ * PWB_ERR_ARGUMENT for NULL arguments, a column out of range, a level outside (0, 1), or a
+ * response or predictor that is not log-type. */
+PWB_API pwb_status pwb_model_effect_elasticity(const pwb_model *m, size_t column,
+                                               const pwb_transform *predictor, double level,
+                                               pwb_effect *out);
+
+/* Change in the median from design row x0 to x1 (each `columns` long, intercept included),
+ * with its delta-method standard error and interval. A row whose fit lies beyond the range of
+ * T^{-1} gives NaN estimate and se. Errors: PWB_ERR_ARGUMENT for NULL arguments, columns other
+ * than the model's, a level outside (0, 1), a struct_size too small. */
+PWB_API pwb_status pwb_model_effect_median_change(const pwb_model *m, const double *x0,
+                                                  const double *x1, size_t columns, double level,
+                                                  pwb_effect *out);
+
+/* @@PWB_SECTION_EFFECTS@@ (declarations of this section go above this line) */
+
 
 
 /* ------------------------------------------------------------------------------------------ */
