@@ -21,6 +21,10 @@ rpwb_model_checks <- function(y, X, intercept, response) {
     .Call(`_powerback_rpwb_model_checks`, y, X, intercept, response)
 }
 
+rpwb_model_effects <- function(y, X, intercept, response, estimated, level, contrasts, elast_cols, elast_transforms, rows0, rows1) {
+    .Call(`_powerback_rpwb_model_effects`, y, X, intercept, response, estimated, level, contrasts, elast_cols, elast_transforms, rows0, rows1)
+}
+
 rpwb_estimate_lambda <- function(x, family, lower, upper, level, n_grid) {
     .Call(`_powerback_rpwb_estimate_lambda`, x, family, lower, upper, level, n_grid)
 }

@@ -13,6 +13,10 @@
 #' The transform model: `v = (reflect ? pivot - x : x) + shift`, then `z = family(v; lambda)`.
 #' See [new_transform()].
 #'
+#' Effects in original units: [effect_table()] reads a fitted model's coefficients as effects on
+#' the median of the response (percent changes and elasticities for a log response, changes
+#' between stated values otherwise), with confidence intervals.
+#'
 #' @useDynLib powerback, .registration = TRUE
 #' @importFrom Rcpp evalCpp
 #' @importFrom stats coef confint predict residuals fitted logLik model.frame model.matrix
