@@ -74,7 +74,6 @@ Smearing::Smearing(const Transform& t, const double* residuals, std::size_t n) :
     if (!std::isfinite(e_[j]))
       throw Error(ErrorCode::NonFinite,
                   "training residual " + std::to_string(j) + " is not finite; smearing needs finite residuals");
-  std::sort(e_.begin(), e_.end());
   const TransformSpec& s = t_.spec();
   switch (s.family) {
     case Family::Identity:
@@ -91,11 +90,12 @@ Smearing::Smearing(const Transform& t, const double* residuals, std::size_t n) :
     default:
       break;
   }
-  if (kind_ == Kind::Exponential) {
-    const double top = e_.back();
-    for (double v : e_) exp_sum_ += math::inverse(s.family, v - top, s.lambda);
+  if (kind_ == Kind::Exponential) {  // no sort needed: the largest residual and one sum
+    top_ = *std::max_element(e_.begin(), e_.end());
+    for (double v : e_) exp_sum_ += math::inverse(s.family, v - top_, s.lambda);
     return;
   }
+  std::sort(e_.begin(), e_.end());
   kind_ = Kind::Tree;
   switch (s.family) {
     case Family::BoxCox:
@@ -367,7 +367,7 @@ BackValue Smearing::mean(double mu, SmearingWork* work) const {
   }
   if (kind_ == Kind::Exponential) {
     // exp(mu + e_max) * mean(exp(e_j - e_max)): no term exceeds the first factor.
-    const double vmax = math::inverse(s.family, mu + e_.back(), s.lambda);
+    const double vmax = math::inverse(s.family, mu + top_, s.lambda);
     if (!std::isfinite(vmax)) {
       b.value = x_sum(math::kInf, 1.0);
       b.bounded = true;

@@ -54,7 +54,7 @@ struct SmearingWork {
 
 class Smearing {
  public:
-  // Copies and sorts the residuals. Throws Error(Argument) for n == 0 or a NULL pointer with
+  // Copies the residuals (and sorts them, except for the closed forms). Throws Error(Argument) for n == 0 or a NULL pointer with
   // n > 0, Error(NonFinite) for a non-finite residual.
   Smearing(const Transform& t, const double* residuals, std::size_t n);
 
@@ -87,6 +87,7 @@ class Smearing {
   std::vector<double> e_;        // sorted residuals
   double e_sum_ = 0;             // identity: sum of residuals
   double exp_sum_ = 0;           // exponential: sum of base^(e_j - e_max)
+  double top_ = 0;               // exponential: e_max
   std::vector<Node> nodes_;
   std::vector<double> mom_;      // nodes_.size() x kTerms power sums about each node's centre
   std::vector<double> binom_[2]; // binom(p, k) of the two power branches (Yeo-Johnson: z>=0, z<0)
