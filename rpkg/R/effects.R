@@ -35,7 +35,7 @@
 #'   effect per unit (from its held value to one more), which is only defined for untransformed
 #'   predictors.
 #' @param level confidence level of the intervals.
-#' @param x,object a `pwb_effects` table.
+#' @param x a `pwb_effects` table.
 #' @param format `"plain"` (default) or `"markdown"` (a table ready for a report).
 #' @param digits significant digits shown.
 #' @param ... unused.
