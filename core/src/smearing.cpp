@@ -301,16 +301,28 @@ bool Smearing::series(const Node& nd, double mu, bool check_ends, double* vsum) 
       // Each side of the branch point z = 0 separately; near it, terms change sign, so the
       // node must also stay within rho |w| of its centre.
       if (r > kRho * std::fabs(w)) return false;
-      c0 = math::yeo_johnson_inverse(w, lambda);
+      // From |w| = 1/2 on, the power W^p is at least 1.3 times its distance from 1, so
+      // c0 = +-(W^p - 1) loses at most a few ulp and saves the separate expm1 evaluation.
+      const bool far = std::fabs(w) >= 0.5;
       if (w > 0.0) {
-        if (lambda == 0.0) ok = exp_branch(1.0, 1.0);
-        else
-          ok = power_branch(1.0 + lambda * w, lambda, 1.0, std::exp(std::log1p(lambda * w) / lambda), 0);
+        if (lambda == 0.0) {
+          c0 = std::expm1(w);
+          ok = exp_branch(1.0, 1.0);
+        } else {
+          const double Wp = std::exp(std::log1p(lambda * w) / lambda);
+          c0 = far ? Wp - 1.0 : math::yeo_johnson_inverse(w, lambda);
+          ok = power_branch(1.0 + lambda * w, lambda, 1.0, Wp, 0);
+        }
       } else {
         const double m = 2.0 - lambda;
-        if (m == 0.0) ok = exp_branch(-1.0, -1.0);
-        else
-          ok = power_branch(1.0 - m * w, -m, -1.0, std::exp(std::log1p(-m * w) / m), 1);
+        if (m == 0.0) {
+          c0 = -std::expm1(-w);
+          ok = exp_branch(-1.0, -1.0);
+        } else {
+          const double Wp = std::exp(std::log1p(-m * w) / m);
+          c0 = far ? 1.0 - Wp : math::yeo_johnson_inverse(w, lambda);
+          ok = power_branch(1.0 - m * w, -m, -1.0, Wp, 1);
+        }
       }
       break;
     }
