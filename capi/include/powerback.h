@@ -498,8 +498,9 @@ typedef enum pwb_center {
 } pwb_center;
 typedef enum pwb_mean_method {
   PWB_MEAN_SMEARING = 0, /* Duan (1983): mean over training residuals e_j of T^{-1}(x'b + e_j) */
-  PWB_MEAN_NORMAL        /* E[T^{-1}(Z)], Z ~ N(x'b, sigma^2): exp(mu + sigma^2/2) for log
-                            (and its log10 analogue), Gauss-Hermite quadrature otherwise */
+  PWB_MEAN_NORMAL        /* E[T^{-1}(Z) | Z in range], Z ~ N(x'b, sigma^2) truncated to the
+                            range of T^{-1}: exp(mu + sigma^2/2) for log (and its log10
+                            analogue), adaptive quadrature otherwise; see tail_mass below */
 } pwb_mean_method;
 
 typedef struct pwb_predict_options {
@@ -509,9 +510,23 @@ typedef struct pwb_predict_options {
   pwb_center center;           /* default PWB_CENTER_MEDIAN */
   pwb_mean_method mean_method; /* default PWB_MEAN_SMEARING */
   int transformed_scale;       /* 1: report on the transformed scale, no back-transform (0) */
+  double *tail_mass;           /* optional output, `rows` doubles (default NULL: not wanted) */
 } pwb_predict_options;
 
-/* Sets struct_size and the defaults above. NULL is ignored. */
+/* Sets struct_size and the defaults above. NULL is ignored.
+ *
+ * The normal-theory mean (PWB_CENTER_MEAN with PWB_MEAN_NORMAL) is defined for every family
+ * and lambda as the mean of T^{-1}(Z) with Z ~ N(x'b, sigma^2) truncated to the range of T^{-1}
+ * (the whole line for log, log10, identity, asinh, logit, Yeo-Johnson with 0 <= lambda <= 2,
+ * power with lambda > 0; a half-line otherwise, e.g. 1 + lambda z > 0 for Box-Cox). The
+ * normal mass beyond the limit is cut off and the rest renormalised; when tail_mass is not
+ * NULL, tail_mass[i] receives that mass for row i (0 without a limit), NaN for rows with a
+ * missing predictor and for every row when the normal-theory mean is not requested. The mean
+ * is +Inf (or -Inf) with PWB_PRED_BOUNDED where T^{-1} grows at the limit like
+ * distance^p with p <= -1 (Box-Cox and Yeo-Johnson with -1 <= lambda < 0, Yeo-Johnson with
+ * 2 < lambda <= 3, reciprocal, power with -1 <= lambda < 0): the truncated density is positive
+ * at the limit and the integral diverges however small the mass beyond. tail_mass was
+ * appended to the struct: a caller whose struct_size ends before it gets no tail masses. */
 PWB_API void pwb_predict_options_init(pwb_predict_options *opt);
 
 /* Flags of a predicted row (bits of flags[i]). */
@@ -568,6 +583,58 @@ PWB_API pwb_status pwb_model_residual_checks_with_note(const pwb_model *m,
                                                        char *buf, size_t cap, size_t *needed);
 
 /* @@PWB_SECTION_MODEL@@ (declarations of this section go above this line) */
+
+/* ------------------------------------------------------------------------------------------ */
+/* Effects in original units                                                                  */
+/* ------------------------------------------------------------------------------------------ */
+
+/* A model's coefficients read as effects on the original-scale median g(x'b), g = T^{-1}:
+ * a percent change for a log-type response (log, log10, Box-Cox 0, without shift or
+ * reflection), where moving the design by c multiplies the median by exp(a c'b) (a = 1, or
+ * ln 10 for log10); an elasticity (a_y / a_x) b_j when the predictor column is log-type too; and
+ * for any response the change g(x1'b) - g(x0'b) between two design rows with a delta-method
+ * standard error (gradient g'(x1'b) x1 - g'(x0'b) x0, covariance sigma^2 (X'X)^{-1}).
+ * Intervals use Student t quantiles with the residual df: percent-change endpoints are the t
+ * interval of c'b mapped through 100 (exp(a .) - 1); the others are estimate -+ t se. Aliased
+ * coefficients count as 0. All functions below only read m: thread-safe for one m. */
+typedef struct pwb_effect {
+  size_t struct_size; /* sizeof(pwb_effect), set by the caller (or _init) */
+  double estimate;    /* the effect: percent, elasticity or change in the median */
+  double se;          /* its standard error (delta method for the percent and the change) */
+  double lower;       /* confidence interval at the requested level */
+  double upper;
+  double median0;     /* pwb_model_effect_median_change only: g(x0'b) and g(x1'b); else NaN */
+  double median1;
+} pwb_effect;
+
+/* Sets struct_size and every value to NaN. NULL is ignored. */
+PWB_API void pwb_effect_init(pwb_effect *out);
+
+/* Percent change of the median for the design contrast `contrast` (length `columns`, intercept
+ * first when the model has one; e.g. a unit vector for "per unit of column j", or x1 - x0).
+ * Errors: PWB_ERR_ARGUMENT for NULL arguments, columns other than the model's, a level outside
+ * (0, 1), a struct_size too small, or a response that is not log-type (the message says to use
+ * pwb_model_effect_median_change). */
+PWB_API pwb_status pwb_model_effect_percent(const pwb_model *m, const double *contrast,
+                                            size_t columns, double level, pwb_effect *out);
+
+/* Elasticity d log median / d log x of the variable behind design column `column` (0-based,
+ * intercept included), whose transform is `predictor` (copied, not kept). Errors:
+ * PWB_ERR_ARGUMENT for NULL arguments, a column out of range, a level outside (0, 1), or a
+ * response or predictor that is not log-type. */
+PWB_API pwb_status pwb_model_effect_elasticity(const pwb_model *m, size_t column,
+                                               const pwb_transform *predictor, double level,
+                                               pwb_effect *out);
+
+/* Change in the median from design row x0 to x1 (each `columns` long, intercept included),
+ * with its delta-method standard error and interval. A row whose fit lies beyond the range of
+ * T^{-1} gives NaN estimate and se. Errors: PWB_ERR_ARGUMENT for NULL arguments, columns other
+ * than the model's, a level outside (0, 1), a struct_size too small. */
+PWB_API pwb_status pwb_model_effect_median_change(const pwb_model *m, const double *x0,
+                                                  const double *x1, size_t columns, double level,
+                                                  pwb_effect *out);
+
+/* @@PWB_SECTION_EFFECTS@@ (declarations of this section go above this line) */
 
 
 

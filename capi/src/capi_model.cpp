@@ -26,13 +26,21 @@ int enum_value(const E& e) {
   return v;
 }
 
-PredictOptions predict_options_of(const pwb_predict_options* opt) {
+// The caller's options; fields appended later (tail_mass) are absent from a smaller struct.
+pwb_predict_options caller_options(const pwb_predict_options* opt) {
   pwb_predict_options o;
   pwb_predict_options_init(&o);
   if (opt) {
-    capi::need_struct(opt->struct_size, sizeof(pwb_predict_options), "pwb_predict_options");
-    o = *opt;
+    capi::need_struct(opt->struct_size, offsetof(pwb_predict_options, tail_mass),
+                      "pwb_predict_options");
+    std::memcpy(&o, opt, std::min(opt->struct_size, sizeof(pwb_predict_options)));
+    o.struct_size = sizeof(pwb_predict_options);
   }
+  return o;
+}
+
+PredictOptions predict_options_of(const pwb_predict_options* opt) {
+  const pwb_predict_options o = caller_options(opt);
   PredictOptions po;
   po.level = o.level;
   switch (enum_value(o.interval)) {
@@ -56,8 +64,9 @@ PredictOptions predict_options_of(const pwb_predict_options* opt) {
 }
 
 void copy_prediction(const Prediction& pr, std::size_t rows, double* fit, double* lwr, double* upr,
-                     unsigned* flags) {
+                     unsigned* flags, double* tail_mass) {
   for (std::size_t i = 0; i < rows; ++i) {
+    if (tail_mass) tail_mass[i] = pr.cut_mass[i];
     fit[i] = pr.fit[i];
     if (lwr) lwr[i] = pr.lower[i];
     if (upr) upr[i] = pr.upper[i];
@@ -175,6 +184,7 @@ void pwb_predict_options_init(pwb_predict_options* opt) {
   opt->center = PWB_CENTER_MEDIAN;
   opt->mean_method = PWB_MEAN_SMEARING;
   opt->transformed_scale = 0;
+  opt->tail_mass = nullptr;
 }
 
 pwb_status pwb_model_predict(const pwb_model* m, const double* Xnew, size_t rows, size_t p,
@@ -185,7 +195,8 @@ pwb_status pwb_model_predict(const pwb_model* m, const double* Xnew, size_t rows
     capi::need_array(fit, rows, "fit");
     capi::need_array(Xnew, capi::checked_matrix_size(rows, p, "Xnew"), "Xnew");
     const PredictOptions po = predict_options_of(opt);
-    copy_prediction(m->impl.predict(Xnew, rows, p, po), rows, fit, lwr, upr, flags);
+    copy_prediction(m->impl.predict(Xnew, rows, p, po), rows, fit, lwr, upr, flags,
+                    caller_options(opt).tail_mass);
   });
 }
 
@@ -198,7 +209,8 @@ pwb_status pwb_model_predict_fitted(const pwb_model* m, const pwb_predict_option
     require(rows == m->impl.n(), "rows is " + std::to_string(rows) + " but the model has " +
                                      std::to_string(m->impl.n()) + " rows");
     const PredictOptions po = predict_options_of(opt);
-    copy_prediction(m->impl.predict_fitted(po), rows, fit, lwr, upr, flags);
+    copy_prediction(m->impl.predict_fitted(po), rows, fit, lwr, upr, flags,
+                    caller_options(opt).tail_mass);
   });
 }
 

@@ -1,13 +1,13 @@
 // Back-transforms: medians, smearing and normal-theory means, intervals, range limits.
 #include "powerback/backtransform.hpp"
 
-#include <Eigen/Eigenvalues>
 #include <algorithm>
 #include <boost/math/distributions/normal.hpp>
 #include <boost/math/quadrature/gauss_kronrod.hpp>
-#include <boost/math/special_functions/hermite.hpp>
+#include <boost/math/quadrature/tanh_sinh.hpp>
 #include <cmath>
 #include <string>
+#include <vector>
 
 #include "powerback/errors.hpp"
 
@@ -16,9 +16,6 @@ namespace powerback {
 namespace {
 
 constexpr double kPi = 3.141592653589793238462643383279502884;
-constexpr std::size_t kHermiteNodes = 64;
-// Normal mass beyond the range limit below which it is neglected (it cannot move a double).
-constexpr double kNegligibleMass = 1e-15;
 
 // y for a value v of the family's argument: undo the shift, then the reflection.
 double x_of_v(const TransformSpec& s, double v) {
@@ -98,37 +95,6 @@ bool lognormal_scale(const TransformSpec& s, double* a) {
 
 }  // namespace
 
-GaussHermiteRule gauss_hermite(std::size_t m) {
-  require(m > 0, "a Gauss-Hermite rule needs at least one node");
-  // Golub-Welsch: the Jacobi matrix of the Hermite polynomials (weight exp(-x^2)) has zero
-  // diagonal and off-diagonal sqrt(k / 2), k = 1..m-1; its eigenvalues are the nodes.
-  const Eigen::Index n = static_cast<Eigen::Index>(m);
-  Eigen::MatrixXd J = Eigen::MatrixXd::Zero(n, n);
-  for (Eigen::Index k = 1; k < n; ++k) J(k, k - 1) = J(k - 1, k) = std::sqrt(0.5 * static_cast<double>(k));
-  const Eigen::SelfAdjointEigenSolver<Eigen::MatrixXd> es(J, Eigen::EigenvaluesOnly);
-  GaussHermiteRule rule;
-  rule.nodes.resize(m);
-  rule.weights.resize(m);
-  // Weights from the closed form w_i = 2^(m-1) m! sqrt(pi) / (m^2 H_{m-1}(x_i)^2) (Abramowitz &
-  // Stegun 25.4.46), in logs: accurate in relative terms even for the outermost nodes, where
-  // eigenvector components would only be accurate in absolute terms.
-  const double md = static_cast<double>(m);
-  const double logc = (md - 1.0) * std::log(2.0) + std::lgamma(md + 1.0) + 0.5 * std::log(kPi) -
-                      2.0 * std::log(md);
-  for (std::size_t i = 0; i < m; ++i) {
-    const double x = es.eigenvalues()(static_cast<Eigen::Index>(i));
-    rule.nodes[i] = x;
-    const double h = boost::math::hermite(static_cast<unsigned>(m - 1), x);
-    rule.weights[i] = m == 1 ? std::sqrt(kPi) : std::exp(logc - 2.0 * std::log(std::fabs(h)));
-  }
-  return rule;
-}
-
-const GaussHermiteRule& default_gauss_hermite() {
-  static const GaussHermiteRule rule = gauss_hermite(kHermiteNodes);
-  return rule;
-}
-
 BackValue invert_bounded(const Transform& t, double z) {
   BackValue b;
   if (std::isnan(z)) return b;
@@ -164,12 +130,86 @@ BackValue smearing_mean(const Transform& t, double mu, const double* residuals, 
   return b;
 }
 
-BackValue normal_mean(const Transform& t, double mu, double sigma) {
+namespace {
+
+// Exponent p of the inverse near its limit when v tends to +-Inf there (v ~ distance^p), or 0.
+double pole_exponent(const TransformSpec& s) {
+  switch (s.family) {
+    case Family::BoxCox: return s.lambda < 0.0 ? 1.0 / s.lambda : 0.0;
+    case Family::YeoJohnson:
+      if (s.lambda < 0.0) return 1.0 / s.lambda;
+      if (s.lambda > 2.0) return 1.0 / (2.0 - s.lambda);
+      return 0.0;
+    case Family::Reciprocal: return -1.0;
+    case Family::Power: return s.lambda < 0.0 ? 1.0 / s.lambda : 0.0;
+    default: return 0.0;
+  }
+}
+
+// v at distance delta >= 0 inside the range from its limit, without the cancellation of
+// forming z = limit +- delta first (the base of the power is |lambda| delta exactly).
+double v_inside(const TransformSpec& s, const RangeLimit& r, double delta) {
+  const double l = s.lambda;
+  switch (s.family) {
+    case Family::BoxCox: return std::exp(std::log(std::fabs(l) * delta) / l);
+    case Family::Sqrt: return delta * delta;
+    case Family::Reciprocal: return 1.0 / delta;
+    case Family::Power: return std::pow(delta, 1.0 / l);
+    case Family::YeoJohnson:
+      if (l < 0.0 && delta <= r.z) return std::expm1(std::log(-l * delta) / l);
+      if (l > 2.0 && delta <= -r.z) return -std::expm1(std::log((l - 2.0) * delta) / (2.0 - l));
+      break;
+    default: break;
+  }
+  const double z = r.beyond_is_above ? r.z - delta : r.z + delta;
+  return math::inverse(s.family, z, s.lambda);
+}
+
+// Q(k) / phi(k) for k > 30 by its asymptotic series 1/k (1 - 1/k^2 + 3/k^4 - ...), whose first
+// omitted term is below 5e-18 there (Abramowitz & Stegun 26.2.12).
+double mills_ratio_large(double k) {
+  const double k2 = k * k;
+  double term = 1.0, sum = 1.0;
+  for (int j = 1; j <= 7; ++j) {
+    term *= -(2.0 * j - 1.0) / k2;
+    sum += term;
+  }
+  return sum / k;
+}
+
+using GK = boost::math::quadrature::gauss_kronrod<double, 61>;
+constexpr double kRelTol = 1e-13;
+constexpr double kWindow = 40.0;  // standard units beyond which the normal weight is < e^-800
+
+// Integral of f over [a, b] split at the interior points of `cuts` (sorted, clipped).
+template <class F>
+double integrate_pieces(F f, double a, double b, std::vector<double> cuts) {
+  cuts.push_back(a);
+  cuts.push_back(b);
+  std::sort(cuts.begin(), cuts.end());
+  double sum = 0.0;
+  for (std::size_t i = 0; i + 1 < cuts.size(); ++i) {
+    const double lo = std::max(a, cuts[i]), hi = std::min(b, cuts[i + 1]);
+    if (hi > lo) sum += GK::integrate(f, lo, hi, 20, kRelTol);
+  }
+  return sum;
+}
+
+}  // namespace
+
+BackValue normal_mean(const Transform& t, double mu, double sigma, double* cut_mass) {
   BackValue b;
+  if (cut_mass) *cut_mass = math::kNaN;
   if (std::isnan(mu) || std::isnan(sigma)) return b;
   require(sigma >= 0.0, "sigma must be >= 0");
-  if (sigma == 0.0 || !std::isfinite(mu)) return invert_bounded(t, mu);
   const TransformSpec& s = t.spec();
+  const RangeLimit r = range_limit(s);
+  if (sigma == 0.0 || !std::isfinite(mu)) {
+    b = invert_bounded(t, mu);
+    if (cut_mass) *cut_mass = (r.limited && std::isfinite(mu) && !math::in_range(s.family, mu, s.lambda)) ? 1.0 : 0.0;
+    return b;
+  }
+  if (cut_mass) *cut_mass = 0.0;
   double a = 1.0;
   if (lognormal_scale(s, &a)) {
     // Lognormal mean: E[exp(a Z)] = exp(a mu + a^2 sigma^2 / 2).
@@ -178,47 +218,68 @@ BackValue normal_mean(const Transform& t, double mu, double sigma) {
     b.bounded = !std::isfinite(ev);
     return b;
   }
-  const RangeLimit r = range_limit(s);
-  double mass = 0.0;
-  if (r.limited) {
-    const boost::math::normal nd(mu, sigma);
-    mass = r.beyond_is_above ? boost::math::cdf(boost::math::complement(nd, r.z))
-                             : boost::math::cdf(nd, r.z);
-  }
-  if (mass <= kNegligibleMass) {
-    // Gauss-Hermite: E[g(mu + sigma Z)] = pi^(-1/2) sum w_i g(mu + sqrt(2) sigma x_i). Nodes
-    // beyond the limit carry mass below kNegligibleMass and are left out.
-    const GaussHermiteRule& gh = default_gauss_hermite();
-    double sum = 0.0, wsum = 0.0;
-    for (std::size_t i = 0; i < gh.nodes.size(); ++i) {
-      const double z = mu + std::sqrt(2.0) * sigma * gh.nodes[i];
-      if (!math::in_range(s.family, z, s.lambda)) continue;
-      const BackValue v = invert_bounded(t, z);
-      sum += gh.weights[i] * v.value;
-      wsum += gh.weights[i];
-      b.bounded = b.bounded || v.bounded;
-    }
-    b.value = sum / wsum;
+  if (s.family == Family::Identity) {
+    b.value = x_of_v(s, mu);
     return b;
   }
-  b.bounded = true;
-  const double limit_x = x_of_v(s, r.v);
-  if (std::isinf(limit_x)) {  // positive mass at an infinite limit: the mean is infinite
-    b.value = limit_x;
+  // How far the integrand's bulk can sit from the normal's centre (standard units): sigma for
+  // inverses growing like exp(z), sqrt(p) for a power p of z.
+  const double p = s.family == Family::Sqrt ? 2.0 : (family_has_lambda(s.family) && s.lambda != 0.0 ? 1.0 / s.lambda : 0.0);
+  const double reach = sigma + std::sqrt(std::fabs(p));
+  if (!r.limited) {
+    auto f = [&](double u) {
+      const double v = math::inverse(s.family, mu + sigma * u, s.lambda);
+      const double w = std::exp(-0.5 * u * u) / std::sqrt(2.0 * kPi);
+      return w == 0.0 ? 0.0 : v * w;
+    };
+    const double lim = kWindow + reach;
+    const double ev = integrate_pieces(f, -lim, lim, {-reach, 0.0, reach});
+    b.value = x_of_v(s, ev);
+    b.bounded = !std::isfinite(ev);
     return b;
   }
-  // Inside the range, integrate g(mu + sigma u) phi(u) over the half-line of u that maps into
-  // the range; the mass beyond contributes mass * limit.
+  // Distance into the range in standard units: t >= 0, z = limit -+ sigma t. With
+  // kappa = (signed) standard distance of the limit from mu towards the inside, the mass cut off
+  // is Phi(kappa) and the truncated weight on t is phi(kappa + t) / Q(kappa).
   const double u0 = (r.z - mu) / sigma;
-  auto f = [&](double u) {
-    const double z = mu + sigma * u;
-    if (!math::in_range(s.family, z, s.lambda)) return 0.0;
-    return t.invert(z) * std::exp(-0.5 * u * u) / std::sqrt(2.0 * kPi);
+  const double kappa = r.beyond_is_above ? -u0 : u0;
+  const boost::math::normal n01;
+  const double cut = boost::math::cdf(n01, kappa);
+  if (cut_mass) *cut_mass = cut;
+  const double pe = pole_exponent(s);
+  if (pe != 0.0 && pe <= -1.0) {
+    // v grows like distance^p with p <= -1 at the limit, where the normal density is positive:
+    // the integral diverges, and the mean is infinite under any positive normal weight.
+    b.value = x_of_v(s, r.v);
+    b.bounded = true;
+    return b;
+  }
+  double hazard = 0.0;  // phi(kappa) / Q(kappa), for kappa > 0
+  if (kappa > 30.0) hazard = 1.0 / mills_ratio_large(kappa);
+  else if (kappa > 0.0) hazard = boost::math::pdf(n01, kappa) / boost::math::cdf(boost::math::complement(n01, kappa));
+  const double inside = kappa <= 0.0 ? boost::math::cdf(boost::math::complement(n01, kappa)) : 0.0;
+  auto weight = [&](double tt) {
+    if (kappa <= 0.0) return boost::math::pdf(n01, kappa + tt) / inside;
+    return hazard * std::exp(-kappa * tt - 0.5 * tt * tt);
   };
-  using GK = boost::math::quadrature::gauss_kronrod<double, 31>;
-  const double inside = r.beyond_is_above ? GK::integrate(f, -math::kInf, u0, 15, 1e-12)
-                                          : GK::integrate(f, u0, math::kInf, 15, 1e-12);
-  b.value = inside + mass * limit_x;
+  auto f = [&](double tt) {
+    const double w = weight(tt);
+    return w == 0.0 ? 0.0 : v_inside(s, r, sigma * tt) * w;
+  };
+  const double peak = std::max(0.0, -kappa);
+  const double lo = std::max(0.0, peak - kWindow - reach), hi = peak + kWindow + reach;
+  double ev = 0.0;
+  double start = lo;
+  if (lo == 0.0) {
+    // Next to the limit the integrand may have an integrable singularity (p in (-1, 0)) or a
+    // kink: tanh-sinh handles endpoint behaviour of that kind.
+    start = std::min(1.0, hi);
+    boost::math::quadrature::tanh_sinh<double> ts;
+    ev += ts.integrate(f, 0.0, start, kRelTol);
+  }
+  ev += integrate_pieces(f, start, hi, {peak - reach, peak, peak + reach});
+  b.value = x_of_v(s, ev);
+  b.bounded = !std::isfinite(ev);
   return b;
 }
 

@@ -1,11 +1,13 @@
 // Predictions of powerback::Model on the transformed scale and in original units.
 #include <boost/math/distributions/students_t.hpp>
 #include <cmath>
+#include <memory>
 #include <string>
 #include <utility>
 
 #include "powerback/errors.hpp"
 #include "powerback/model.hpp"
+#include "powerback/smearing.hpp"
 
 namespace powerback {
 
@@ -82,6 +84,7 @@ Prediction Model::predict_rows(const Eigen::MatrixXd& rows, std::vector<unsigned
   out.fit.assign(m, math::kNaN);
   out.lower.assign(m, math::kNaN);
   out.upper.assign(m, math::kNaN);
+  out.cut_mass.assign(m, math::kNaN);
   if (m == 0) return out;
   const Eigen::Index mi = static_cast<Eigen::Index>(m);
   const Eigen::VectorXd& sr = smearing_residuals();
@@ -102,6 +105,11 @@ Prediction Model::predict_rows(const Eigen::MatrixXd& rows, std::vector<unsigned
     for (Eigen::Index i = 0; i < mi; ++i) half(i) = q * sigma_ * std::sqrt(vf(i) + extra);
   }
 
+  // The smearing mean is built once from the residuals, then costs about O(1) per row.
+  std::unique_ptr<Smearing> smear;
+  if (!opt.transformed_scale && opt.center == Center::Mean && opt.mean_method == MeanMethod::Smearing)
+    smear.reset(new Smearing(response_, sr.data(), static_cast<std::size_t>(sr.size())));
+
   for (std::size_t i = 0; i < m; ++i) {
     if (out.flags[i] & kPredMissing) continue;
     const Eigen::Index ii = static_cast<Eigen::Index>(i);
@@ -115,8 +123,8 @@ Prediction Model::predict_rows(const Eigen::MatrixXd& rows, std::vector<unsigned
     BackValue f;
     if (opt.center == Center::Median) f = median_back(response_, mu(ii));
     else if (opt.mean_method == MeanMethod::Smearing)
-      f = smearing_mean(response_, mu(ii), sr.data(), static_cast<std::size_t>(sr.size()));
-    else f = normal_mean(response_, mu(ii), sigma_);
+      f = smear->mean(mu(ii));
+    else f = normal_mean(response_, mu(ii), sigma_, &out.cut_mass[i]);
     out.fit[i] = f.value;
     bool bounded = f.bounded;
     if (opt.interval != IntervalKind::None) {

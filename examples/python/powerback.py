@@ -51,7 +51,7 @@ class _ModelOptions(ctypes.Structure):
 class _PredictOptions(ctypes.Structure):
     _fields_ = [("struct_size", _size_t), ("level", ctypes.c_double), ("interval", ctypes.c_int),
                 ("center", ctypes.c_int), ("mean_method", ctypes.c_int),
-                ("transformed_scale", ctypes.c_int)]
+                ("transformed_scale", ctypes.c_int), ("tail_mass", ctypes.c_void_p)]
 
 
 class _LambdaOptions(ctypes.Structure):

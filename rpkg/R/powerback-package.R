@@ -20,6 +20,10 @@
 #' original units), and [write_transforms()] (the transforms as portable text). The vignette,
 #' `vignette("powerback")`, walks a whole analysis.
 #'
+#' Effects in original units: [effect_table()] reads a fitted model's coefficients as effects on
+#' the median of the response (percent changes and elasticities for a log response, changes
+#' between stated values otherwise), with confidence intervals.
+#'
 #' @useDynLib powerback, .registration = TRUE
 #' @importFrom Rcpp evalCpp
 #' @importFrom stats coef confint predict residuals fitted logLik model.frame model.matrix

@@ -8,7 +8,16 @@
 #' mean: `mean_method = "smearing"` averages the inverse over the fit plus each training
 #' residual (Duan's 1983 smearing estimate, which assumes nothing about the error distribution);
 #' `"normal"` assumes normal errors and integrates the inverse over them (exactly
-#' `exp(mu + sigma^2 / 2)` for a log response; Gauss-Hermite quadrature for other families).
+#' `exp(mu + sigma^2 / 2)` for a log response; adaptive quadrature for other families).
+#'
+#' The normal-theory mean is defined for every family and power as the mean of the inverse
+#' under the normal distribution truncated to the inverse's range (for Box-Cox with a power
+#' other than 0, `1 + lambda * z > 0`): the normal mass beyond the limit is cut off, the rest
+#' renormalised, and the mass cut off is returned per row in the column `cut_mass`. Where the
+#' inverse grows without bound at its limit fast enough that the integral diverges (Box-Cox
+#' and Yeo-Johnson with `-1 <= lambda < 0`, the reciprocal, Yeo-Johnson with
+#' `2 < lambda <= 3`) the mean is `Inf` for every row, however little mass lies beyond: use the
+#' smearing mean or the median there.
 #'
 #' Intervals are computed on the transformed scale with Student t quantiles and their endpoints
 #' mapped back (swapped when the transform reflects). Whatever `center` is, a confidence
@@ -42,9 +51,10 @@
 #'   `"transformed"` is `type = "transformed"`.
 #' @param ... unused.
 #' @return A data frame with one row per row of `newdata`: `fit`, `lwr`, `upr` (`NA` when
-#'   `interval = "none"`), `bounded` and `invalid` (logical). Rows with missing predictor values
-#'   are `NA`, in place. With `se.fit = TRUE`, a list of `fit` (that data frame), `se.fit`,
-#'   `df` and `residual.scale`.
+#'   `interval = "none"`), `bounded` and `invalid` (logical), and with `center = "mean",
+#'   mean_method = "normal"` also `cut_mass` (the normal mass beyond the inverse's range limit).
+#'   Rows with missing predictor values are `NA`, in place. With `se.fit = TRUE`, a list of `fit`
+#'   (that data frame), `se.fit`, `df` and `residual.scale`.
 #' @examples
 #' river <- river_data()
 #' m <- lm_transformed(sediment_t_day ~ flow_m3s + rain72_mm + season, river,
@@ -107,6 +117,8 @@ predict.pwb_model <- function(object, newdata, se.fit = FALSE,
                     invalid = rep(FALSE, length(res$fit)))
   out$invalid[bad] <- TRUE
   se <- res$se
+  if (center == "mean" && mean_method == "normal" && type == "response")
+    out$cut_mass <- res$cut_mass
   if (is.null(row_names)) {
     if (inherits(object$na.action, "exclude")) {
       out <- pwb_pad_excluded(out, object$na.action)

@@ -84,14 +84,16 @@ Rcpp::List rpwb_model_predict(SEXP handle, Rcpp::NumericMatrix Xnew, double leve
   const std::size_t p = static_cast<std::size_t>(Xnew.ncol());
   const double* x = p > 0 && rows > 0 ? Xnew.begin() : nullptr;
   // R's NA_real_ is a NaN, which the library treats as a missing row.
-  std::vector<double> fit(rows), lwr(rows), upr(rows);
+  std::vector<double> fit(rows), lwr(rows), upr(rows), cut(rows);
   std::vector<unsigned> flags(rows);
+  o.tail_mass = cut.data();
   rpwb::check(pwb_model_predict(m, x, rows, p, &o, fit.data(), lwr.data(), upr.data(),
                                 flags.data()));
   Rcpp::IntegerVector fl(rows);
   for (std::size_t i = 0; i < rows; ++i) fl[i] = static_cast<int>(flags[i]);
   Rcpp::List out = Rcpp::List::create(Rcpp::Named("fit") = vec(fit), Rcpp::Named("lwr") = vec(lwr),
-                                      Rcpp::Named("upr") = vec(upr), Rcpp::Named("flags") = fl);
+                                      Rcpp::Named("upr") = vec(upr), Rcpp::Named("flags") = fl,
+                                      Rcpp::Named("cut_mass") = vec(cut));
   if (se_fit) {
     std::vector<double> se(rows);
     rpwb::check(pwb_model_predict_se(m, x, rows, p, se.data()));
@@ -113,12 +115,14 @@ Rcpp::List rpwb_model_predict_fitted(SEXP handle, double level, int interval, in
   o.mean_method = static_cast<pwb_mean_method>(mean_method);
   o.transformed_scale = transformed ? 1 : 0;
   const std::size_t rows = info_of(m).n;
-  std::vector<double> fit(rows), lwr(rows), upr(rows);
+  std::vector<double> fit(rows), lwr(rows), upr(rows), cut(rows);
   std::vector<unsigned> flags(rows);
+  o.tail_mass = cut.data();
   rpwb::check(pwb_model_predict_fitted(m, &o, fit.data(), lwr.data(), upr.data(), flags.data(),
                                        rows));
   Rcpp::IntegerVector fl(rows);
   for (std::size_t i = 0; i < rows; ++i) fl[i] = static_cast<int>(flags[i]);
   return Rcpp::List::create(Rcpp::Named("fit") = vec(fit), Rcpp::Named("lwr") = vec(lwr),
-                            Rcpp::Named("upr") = vec(upr), Rcpp::Named("flags") = fl);
+                            Rcpp::Named("upr") = vec(upr), Rcpp::Named("flags") = fl,
+                            Rcpp::Named("cut_mass") = vec(cut));
 }

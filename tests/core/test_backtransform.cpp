@@ -1,4 +1,4 @@
-// Back-transforms: Gauss-Hermite rule, normal-theory and smearing means, range limits.
+// Back-transforms: normal-theory and smearing means, range limits.
 #include <catch2/catch.hpp>
 
 #include <cmath>
@@ -25,26 +25,6 @@ double phi(double u) { return std::exp(-0.5 * u * u) / std::sqrt(2 * kPi); }
 double Phi(double u) { return 0.5 * std::erfc(-u / std::sqrt(2.0)); }
 }  // namespace
 
-TEST_CASE("Gauss-Hermite rule integrates the moments of exp(-x^2)", "[backtransform]") {
-  // integral of x^(2k) exp(-x^2) over the line = Gamma(k + 1/2) (any table of integrals).
-  // Tolerance 1e-12: the rule is exact for these polynomials, so only rounding remains.
-  const GaussHermiteRule& r = default_gauss_hermite();
-  REQUIRE(r.nodes.size() == 64);
-  for (int k = 0; k <= 4; ++k) {
-    double s = 0;
-    for (std::size_t i = 0; i < r.nodes.size(); ++i) s += r.weights[i] * std::pow(r.nodes[i], 2 * k);
-    CHECK(s == Approx(std::tgamma(k + 0.5)).epsilon(1e-12));
-  }
-  // Three nodes: 0 and +-sqrt(3/2), weights 2 sqrt(pi)/3 and sqrt(pi)/6 (Abramowitz & Stegun
-  // table 25.10). Tolerance 1e-13: closed forms, rounding only.
-  const GaussHermiteRule r3 = gauss_hermite(3);
-  CHECK(r3.nodes[2] == Approx(std::sqrt(1.5)).epsilon(1e-13));
-  CHECK(r3.nodes[1] == Approx(0.0).margin(1e-14));
-  CHECK(r3.weights[1] == Approx(2 * std::sqrt(kPi) / 3).epsilon(1e-13));
-  CHECK(r3.weights[0] == Approx(std::sqrt(kPi) / 6).epsilon(1e-13));
-  CHECK_THROWS_AS(gauss_hermite(0), Error);
-}
-
 TEST_CASE("normal-theory means match closed forms", "[backtransform]") {
   // Lognormal mean exp(mu + sigma^2 / 2) (Johnson, Kotz & Balakrishnan, Continuous Univariate
   // Distributions vol. 1, ch. 14); for log10, E[10^Z] = exp(mu ln10 + (sigma ln10)^2 / 2).
@@ -58,7 +38,7 @@ TEST_CASE("normal-theory means match closed forms", "[backtransform]") {
   CHECK(normal_mean(make(Family::Log, math::kNaN, 2.0), 1.0, 0.3).value ==
         Approx(std::exp(1.045) - 2).epsilon(1e-13));
   // sinh: E[sinh(Z)] = sinh(mu) exp(sigma^2 / 2), from the normal moment generating function.
-  // Gauss-Hermite here; tolerance 1e-10 is the accuracy asked of the quadrature.
+  // Adaptive quadrature here; tolerance 1e-10, a margin over the 1e-13 asked of it.
   CHECK(normal_mean(make(Family::Asinh), 0.8, 1.1).value ==
         Approx(std::sinh(0.8) * std::exp(0.605)).epsilon(1e-10));
   // Box-Cox lambda = 1/2: y = (1 + z/2)^2, so E[y] = (1 + mu/2)^2 + sigma^2 / 4 when the mass
@@ -68,21 +48,38 @@ TEST_CASE("normal-theory means match closed forms", "[backtransform]") {
   CHECK_FALSE(b.bounded);
 }
 
-TEST_CASE("normal-theory mean gives the mass beyond the range its limit", "[backtransform]") {
-  // Box-Cox 1/2, mu = -1.5, sigma = 1: 31% of the normal lies below z = -2 where y = 0. With
+TEST_CASE("normal-theory mean truncates the normal to the range", "[backtransform]") {
+  // Box-Cox 1/2, mu = -1.5, sigma = 1: 31% of the normal lies below z = -2 and is cut off. With
   // W = 1 + Z/2 = a + b U (a = 1 + mu/2, b = sigma/2, U standard normal) and u0 = (-2 - mu)/sigma,
   // E[W^2; U > u0] = a^2 (1 - Phi(u0)) + 2ab phi(u0) + b^2 (1 - Phi(u0) + u0 phi(u0))
-  // (truncated normal moments, by integration by parts). Tolerance 1e-9: adaptive quadrature
-  // asked for 1e-12 relative, with a margin for the kink-free but truncated integrand.
+  // (truncated normal moments, by integration by parts), divided by the kept mass 1 - Phi(u0).
+  // Tolerance 1e-11: quadrature asked for 1e-13 relative, with a margin.
   const double mu = -1.5, s = 1.0, a = 1 + mu / 2, bb = s / 2, u0 = (-2 - mu) / s;
   const double want = a * a * (1 - Phi(u0)) + 2 * a * bb * phi(u0) + bb * bb * (1 - Phi(u0) + u0 * phi(u0));
-  const BackValue b = normal_mean(make(Family::BoxCox, 0.5), mu, s);
-  CHECK(b.bounded);
-  CHECK(b.value == Approx(want).epsilon(1e-9));
-  // Reciprocal (-1/v): any mass at z >= 0 sends y to +Inf, so the mean is infinite and flagged.
-  const BackValue r = normal_mean(make(Family::Reciprocal), -0.5, 0.3);
+  double cut = -1;
+  const BackValue b = normal_mean(make(Family::BoxCox, 0.5), mu, s, &cut);
+  CHECK_FALSE(b.bounded);
+  CHECK(b.value == Approx(want / (1 - Phi(u0))).epsilon(1e-11));
+  CHECK(cut == Approx(Phi(u0)).epsilon(1e-14));  // the same normal probability
+  // Reciprocal (-1/v): v ~ 1/distance at z = 0, so the integral diverges whatever the mass
+  // beyond: the mean is infinite and flagged, with the cut mass reported.
+  const BackValue r = normal_mean(make(Family::Reciprocal), -0.5, 0.1, &cut);
   CHECK(r.bounded);
   CHECK(std::isinf(r.value));
+  CHECK(cut == Approx(Phi(-5.0)).epsilon(1e-12));
+  // Box-Cox -0.5 (v ~ distance^-2): infinite even with 1e-300 of the mass beyond.
+  CHECK(std::isinf(normal_mean(make(Family::BoxCox, -0.5), -20.0, 0.5).value));
+  // Box-Cox -2 (v ~ distance^-1/2, integrable): finite, and continuous as the limit nears.
+  const BackValue far = normal_mean(make(Family::BoxCox, -2.0), 0.0, 0.05, &cut);
+  CHECK_FALSE(far.bounded);
+  CHECK(cut == Approx(Phi(-10.0)).epsilon(1e-10));  // the limit z = 0.5 is 10 sigma away
+  // Far from the limit the truncation is invisible: the moment expansion
+  // g(mu) + g''(mu) sigma^2 / 2 + g''''(mu) sigma^4 / 8 with g = (1 - 2z)^(-1/2), g''(0) = 3,
+  // g''''(0) = 105 leaves g^(6)(0) sigma^6 / 48 = 10395 * 1.6e-8 / 48 = 3.4e-6 (margin 1e-5).
+  CHECK(far.value == Approx(1.0 + 1.5 * 0.0025 + 105.0 * 0.0025 * 0.0025 / 8).margin(1e-5));
+  // Sigma 0: the median; beyond the limit it is the limit, and all mass is cut.
+  CHECK(normal_mean(make(Family::Sqrt), -1.0, 0.0, &cut).value == 0.0);
+  CHECK(cut == 1.0);
 }
 
 TEST_CASE("smearing equals Duan's formula", "[backtransform]") {

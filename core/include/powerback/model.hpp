@@ -53,6 +53,8 @@ constexpr unsigned kPredMissing = 2u;  // the row had a non-finite predictor: ou
 struct Prediction {
   std::vector<double> fit, lower, upper;  // lower/upper NaN when interval is None
   std::vector<unsigned> flags;
+  // Normal-theory mean only (else NaN): the normal mass beyond the inverse's range, cut off.
+  std::vector<double> cut_mass;
 };
 
 class Model {

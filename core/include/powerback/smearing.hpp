@@ -1,0 +1,99 @@
+// powerback/smearing.hpp — Duan's smearing mean for many rows at a cost linear in the rows.
+//
+// The smearing estimate of E[y] at a transformed-scale fit mu is
+//   m(mu) = (1/n) sum_j T^{-1}(mu + e_j),
+// e_1..e_n the training residuals (Duan 1983, JASA 78, 605-610). Evaluated pair by pair it costs
+// n per row. Smearing is built once from the residuals and then answers each row without
+// visiting every residual:
+//   - identity: mu + mean(e);
+//   - log, log10 and Box-Cox with lambda 0 (the closed form): v = exp(mu + e_max) *
+//     mean(exp(e_j - e_max)) (10^ for log10), e_max the largest residual so that no term
+//     overflows unless the pairwise sum would;
+//   - every other family: the residuals are sorted and grouped into a binary tree of value
+//     ranges. A node whose range [c - r, c + r] lies inside one smooth branch of the inverse g
+//     (on the family's argument v) and far enough from its range limit and branch point adds
+//       sum_j g(w + d_j) = sum_{k=0..K} g^(k)(w)/k! * M_k,  w = mu + c, d_j = e_j - c,
+//     with the node's residual power sums M_k = sum_j d_j^k stored at construction (K = 26).
+//     Nodes too close to a limit are split; leaves (at most 16 residuals) there are summed
+//     directly; nodes wholly beyond the range limit add their count times the limit value.
+//
+// Accuracy. A node is accepted only where its series is both short and well conditioned:
+// powers (W + s d)^p need |s r / W| <= X(p), the largest |x| for which the binomial series of
+// (1 + x)^p cut after K terms leaves a tail below 2^-53 of the smallest value (1 -+ |x|)^p and
+// sums absolute terms at most 64 times it; exponential-type inverses (exp, sinh) need r <= 2
+// (tail 2^27/27! = 1e-20, conditioning e^4); the logistic needs r <= pi/4, a quarter of the
+// distance to its nearest complex pole; near a sign change of the terms (Yeo-Johnson's and
+// the sign-preserving power's branch point, sinh at 0) a node must stay within 0.9 |w| of its
+// centre. The result agrees with the pairwise mean to well within 1e-12 relative to
+// mean_j |T^{-1}(mu + e_j)| (checked in the tests against the pairwise sum, itself exact only to
+// ~n ulp). Which terms lie beyond the range limit, and so the `bounded` flag, is decided with
+// the same floating-point test as the pairwise mean: the range is an interval in z and
+// z = mu + e_j is monotone in e_j, so a node's two end residuals decide it.
+// Overflow: when the extreme terms of a row overflow, accepted nodes must have finite ends,
+// else they are summed directly, so non-finite terms give the same Inf and flag.
+//
+// Cost: O(n log n) to build, O(n K) memory; per row the number of accepted nodes (a handful when
+// the residual spread is small against the distance to the limit, more for rows near it) times
+// K, plus at most a few leaves near a limit or branch point.
+#pragma once
+
+#include <cstddef>
+#include <vector>
+
+#include "powerback/backtransform.hpp"
+#include "powerback/transform.hpp"
+
+namespace powerback {
+
+// How a query was evaluated (for tests and benchmarks).
+struct SmearingWork {
+  std::size_t series_nodes = 0;   // nodes summed by their power series
+  std::size_t direct_terms = 0;   // residuals summed one by one
+  std::size_t limit_nodes = 0;    // nodes wholly beyond the range limit
+};
+
+class Smearing {
+ public:
+  // Copies the residuals (and sorts them, except for the closed forms). Throws Error(Argument) for n == 0 or a NULL pointer with
+  // n > 0, Error(NonFinite) for a non-finite residual.
+  Smearing(const Transform& t, const double* residuals, std::size_t n);
+
+  std::size_t n() const { return e_.size(); }
+
+  // m(mu) in original units, with `bounded` when any term used the range limit or overflowed.
+  // NaN mu gives NaN. Thread-safe (const).
+  BackValue mean(double mu, SmearingWork* work = nullptr) const;
+
+ private:
+  enum class Kind { Identity, Exponential, Tree };
+  struct Node {
+    std::size_t i0 = 0, i1 = 0;  // sorted residuals [i0, i1)
+    int left = -1, right = -1;   // children; -1 for a leaf
+    double c = 0, r = 0;         // centre and half-width of the value range
+  };
+  int build(std::size_t i0, std::size_t i1, int depth);
+  void moments_of_leaf(std::size_t node);
+  void moments_from_children(std::size_t node);
+  // sum over the node of g(mu + e_j) on the v scale by its series; false when the node is not
+  // accepted at this mu (then the caller splits it).
+  bool series(const Node& nd, double mu, bool check_ends, double* vsum) const;
+  // sum of x (original units) over residuals [i0, i1) one by one.
+  double direct(std::size_t i0, std::size_t i1, double mu, bool* bounded) const;
+  // sum of x over `count` terms whose v-sum is vsum.
+  double x_sum(double vsum, double count) const;
+
+  Transform t_;
+  Kind kind_ = Kind::Tree;
+  std::vector<double> e_;        // sorted residuals
+  double e_sum_ = 0;             // identity: sum of residuals
+  double exp_sum_ = 0;           // exponential: sum of base^(e_j - e_max)
+  double top_ = 0;               // exponential: e_max
+  std::vector<Node> nodes_;
+  std::vector<double> mom_;      // nodes_.size() x kTerms power sums about each node's centre
+  std::vector<double> binom_[2]; // binom(p, k) of the two power branches (Yeo-Johnson: z>=0, z<0)
+  double reach_[2] = {0, 0};     // largest accepted |s r / W| of each power branch
+  std::vector<double> logistic_; // coefficients of the logistic's k-th derivative / k!, by k
+  int depth_ = 0;
+};
+
+}  // namespace powerback

@@ -1,0 +1,466 @@
+// The smearing mean in linear time: closed forms for the identity and log families, a tree of
+// residual power sums with local series for the others (see smearing.hpp for the accuracy).
+#include "powerback/smearing.hpp"
+
+#include <algorithm>
+#include <array>
+#include <cmath>
+#include <limits>
+#include <string>
+
+#include "powerback/errors.hpp"
+
+namespace powerback {
+
+namespace {
+
+constexpr int K = 26;                 // series terms kept
+constexpr std::size_t kLeaf = 16;     // residuals at most in a leaf
+constexpr double kRho = 0.9;          // node half-width / distance to a sign change, at most
+constexpr double kExpReach = 2.0;     // half-width limit for exponential-type inverses
+constexpr double kLogisticReach = 0.25 * 3.141592653589793;  // a quarter of the pole distance
+constexpr double kEps = 1.1102230246251565e-16;               // 2^-53
+constexpr double kConditioning = 64.0;  // sum |terms| / smallest value accepted in a node
+constexpr int kMaxDepth = 250;
+constexpr double kInf = std::numeric_limits<double>::infinity();
+
+struct Tables {
+  double choose[K + 1][K + 1];  // C(k, i)
+  double inv_fact[K + 1];       // 1 / k!
+  Tables() {
+    for (int k = 0; k <= K; ++k) {
+      choose[k][0] = choose[k][k] = 1.0;
+      for (int i = 1; i < k; ++i) choose[k][i] = choose[k - 1][i - 1] + choose[k - 1][i];
+    }
+    inv_fact[0] = 1.0;
+    for (int k = 1; k <= K; ++k) inv_fact[k] = inv_fact[k - 1] / k;
+  }
+};
+const Tables& tables() {
+  static const Tables t;
+  return t;
+}
+
+std::vector<double> binomials(double p) {
+  std::vector<double> b(K + 1);
+  b[0] = 1.0;
+  for (int k = 1; k <= K; ++k) b[k] = b[k - 1] * (p - (k - 1)) / k;
+  return b;
+}
+
+// The largest |x| (from a geometric grid) at which the binomial series of (1 + x)^p, cut after
+// K terms, leaves a tail below 2^-53 of the smallest value (1 -+ |x|)^p and sums absolute
+// terms no larger than kConditioning times it (so rounding stays within ~64 ulp).
+double binomial_reach(double p) {
+  for (double X = 0.95; X > 1e-9; X *= 0.9) {
+    const double floor_value = p > 0.0 ? std::pow(1.0 - X, p) : std::pow(1.0 + X, p);
+    double t = 1.0, head = 1.0, tail = 0.0;
+    for (int k = 1; k <= K + 400; ++k) {
+      t *= std::fabs(p - (k - 1)) / k * X;
+      if (k <= K) head += t;
+      else tail += t;
+    }
+    if (tail <= kEps * floor_value && head <= kConditioning * floor_value) return X;
+  }
+  return 0.0;
+}
+
+}  // namespace
+
+Smearing::Smearing(const Transform& t, const double* residuals, std::size_t n) : t_(t) {
+  require(n > 0 && residuals != nullptr, "smearing needs at least one training residual");
+  e_.assign(residuals, residuals + n);
+  for (std::size_t j = 0; j < n; ++j)
+    if (!std::isfinite(e_[j]))
+      throw Error(ErrorCode::NonFinite,
+                  "training residual " + std::to_string(j) + " is not finite; smearing needs finite residuals");
+  const TransformSpec& s = t_.spec();
+  switch (s.family) {
+    case Family::Identity:
+      kind_ = Kind::Identity;
+      for (double v : e_) e_sum_ += v;
+      return;
+    case Family::Log:
+    case Family::Log10:
+      kind_ = Kind::Exponential;
+      break;
+    case Family::BoxCox:
+      if (s.lambda == 0.0) kind_ = Kind::Exponential;
+      break;
+    default:
+      break;
+  }
+  if (kind_ == Kind::Exponential) {  // no sort needed: the largest residual and one sum
+    top_ = *std::max_element(e_.begin(), e_.end());
+    for (double v : e_) exp_sum_ += math::inverse(s.family, v - top_, s.lambda);
+    return;
+  }
+  std::sort(e_.begin(), e_.end());
+  kind_ = Kind::Tree;
+  switch (s.family) {
+    case Family::BoxCox:
+    case Family::Power: binom_[0] = binomials(1.0 / s.lambda); reach_[0] = binomial_reach(1.0 / s.lambda); break;
+    case Family::Reciprocal: binom_[0] = binomials(-1.0); reach_[0] = binomial_reach(-1.0); break;
+    case Family::Sqrt: binom_[0] = binomials(2.0); reach_[0] = binomial_reach(2.0); break;
+    case Family::YeoJohnson:
+      if (s.lambda != 0.0) {
+        binom_[0] = binomials(1.0 / s.lambda);
+        reach_[0] = binomial_reach(1.0 / s.lambda);
+      }
+      if (s.lambda != 2.0) {
+        binom_[1] = binomials(1.0 / (2.0 - s.lambda));
+        reach_[1] = binomial_reach(1.0 / (2.0 - s.lambda));
+      }
+      break;
+    case Family::Logit: {
+      // P_0(y) = y, P_{k+1}(y) = P_k'(y) y (1 - y) gives the k-th derivative of the logistic
+      // as a polynomial in y = logistic(z); stored divided by k!, degree k + 1, by k.
+      logistic_.assign(static_cast<std::size_t>((K + 1) * (K + 2)), 0.0);
+      logistic_[1] = 1.0;
+      for (int k = 0; k < K; ++k) {
+        const double* q = &logistic_[static_cast<std::size_t>(k * (K + 2))];
+        double* nx = &logistic_[static_cast<std::size_t>((k + 1) * (K + 2))];
+        for (int i = 1; i <= k + 1; ++i) {  // d/dy of q_i y^i = i q_i y^(i-1); times (y - y^2)
+          const double di = i * q[i] / (k + 1);
+          nx[i] += di;
+          nx[i + 1] -= di;
+        }
+      }
+      break;
+    }
+    default:
+      break;
+  }
+  nodes_.reserve(2 * n / kLeaf + 2);
+  build(0, n, 0);
+}
+
+int Smearing::build(std::size_t i0, std::size_t i1, int depth) {
+  if (depth > kMaxDepth) throw Error(ErrorCode::Internal, "smearing tree deeper than expected");
+  depth_ = std::max(depth_, depth);
+  const int idx = static_cast<int>(nodes_.size());
+  Node nd;
+  nd.i0 = i0;
+  nd.i1 = i1;
+  nd.c = 0.5 * e_[i0] + 0.5 * e_[i1 - 1];
+  nd.r = std::max(e_[i1 - 1] - nd.c, nd.c - e_[i0]);
+  nodes_.push_back(nd);
+  mom_.resize(nodes_.size() * K, 0.0);
+  const std::size_t cnt = i1 - i0;
+  if (cnt <= kLeaf || nd.r == 0.0) {
+    moments_of_leaf(static_cast<std::size_t>(idx));
+    return idx;
+  }
+  // Split at the centre value when both sides keep at least an eighth (depth O(log n)),
+  // otherwise at the middle index.
+  std::size_t m = static_cast<std::size_t>(std::lower_bound(e_.begin() + static_cast<std::ptrdiff_t>(i0),
+                                                            e_.begin() + static_cast<std::ptrdiff_t>(i1), nd.c) -
+                                           e_.begin());
+  if (m - i0 < cnt / 8 || i1 - m < cnt / 8) m = i0 + cnt / 2;
+  const int l = build(i0, m, depth + 1);
+  const int r = build(m, i1, depth + 1);
+  nodes_[static_cast<std::size_t>(idx)].left = l;
+  nodes_[static_cast<std::size_t>(idx)].right = r;
+  moments_from_children(static_cast<std::size_t>(idx));
+  return idx;
+}
+
+void Smearing::moments_of_leaf(std::size_t node) {
+  const Node& nd = nodes_[node];
+  double* m = &mom_[node * K];
+  for (std::size_t j = nd.i0; j < nd.i1; ++j) {
+    const double d = e_[j] - nd.c;
+    double p = d;
+    for (int k = 0; k < K; ++k) {
+      m[k] += p;
+      p *= d;
+    }
+  }
+}
+
+// Power sums about the parent's centre from the children's: (d + delta)^k expanded.
+void Smearing::moments_from_children(std::size_t node) {
+  const Tables& tb = tables();
+  const Node nd = nodes_[node];
+  double* m = &mom_[node * K];
+  for (int side = 0; side < 2; ++side) {
+    const std::size_t ch = static_cast<std::size_t>(side ? nd.right : nd.left);
+    const Node& cn = nodes_[ch];
+    const double* mc = &mom_[ch * K];
+    const double delta = cn.c - nd.c;
+    double dp[K + 1];
+    dp[0] = 1.0;
+    for (int k = 1; k <= K; ++k) dp[k] = dp[k - 1] * delta;
+    const double cnt = static_cast<double>(cn.i1 - cn.i0);
+    for (int k = 1; k <= K; ++k) {
+      double s = tb.choose[k][0] * dp[k] * cnt;  // i = 0 term: M_0 = count
+      for (int i = 1; i <= k; ++i) s += tb.choose[k][i] * dp[k - i] * mc[i - 1];
+      m[k - 1] += s;
+    }
+  }
+}
+
+double Smearing::x_sum(double vsum, double count) const {
+  const TransformSpec& s = t_.spec();
+  if (s.reflect) return count * (s.pivot + s.shift) - vsum;
+  return s.shift == 0.0 ? vsum : vsum - count * s.shift;
+}
+
+double Smearing::direct(std::size_t i0, std::size_t i1, double mu, bool* bounded) const {
+  double sum = 0.0;
+  for (std::size_t j = i0; j < i1; ++j) {
+    const BackValue v = invert_bounded(t_, mu + e_[j]);
+    sum += v.value;
+    *bounded = *bounded || v.bounded;
+  }
+  return sum;
+}
+
+bool Smearing::series(const Node& nd, double mu, bool check_ends, double* vsum) const {
+  const TransformSpec& s = t_.spec();
+  const double lambda = s.lambda;
+  const double w = mu + nd.c, r = nd.r;
+  const double cnt = static_cast<double>(nd.i1 - nd.i0);
+  const Tables& tb = tables();
+  double c0 = 0.0;
+  double c[K + 1];  // c[k], k >= 1: k-th Taylor coefficient of g at w
+  int kmax = K;     // terms used: the series stops once its terms are decreasing and negligible
+  // |c_k| r^k bounds the k-th term per residual; below 2^-60 |c0| (the node sum is at least
+  // |c0| / 64 per residual in an accepted node) and past the terms' peak, the rest cannot count.
+  auto done = [&](double ck, double rk, double* prev) {
+    const double bound = std::fabs(ck) * rk;
+    const bool stop = bound < 8.673617379884035e-19 * std::fabs(c0) && bound <= *prev;
+    *prev = bound;
+    return stop;
+  };
+
+  // A power branch g(w + d) = A + B (W + s d)^p with base W > 0: c_k = B W^p binom(p, k) (s/W)^k.
+  auto power_branch = [&](double W, double sl, double B, double Wp, int br) {
+    if (!(W > 0.0) || r * std::fabs(sl) > reach_[br] * W) return false;
+    const std::vector<double>& bn = binom_[br];
+    const double x = sl / W;
+    double xp = B * Wp, rk = 1.0, prev = kInf;
+    for (int k = 1; k <= K; ++k) {
+      xp *= x;
+      rk *= r;
+      c[k] = bn[static_cast<std::size_t>(k)] * xp;
+      kmax = k;
+      if (done(c[k], rk, &prev)) break;
+    }
+    return true;
+  };
+  // An exponential branch g(w + d) = A + B exp(sl (w + d)): c_k = B exp(sl w) sl^k / k!.
+  auto exp_branch = [&](double sl, double B) {
+    if (r * std::fabs(sl) > kExpReach) return false;
+    double xp = B * std::exp(sl * w), rk = 1.0, prev = kInf;
+    for (int k = 1; k <= K; ++k) {
+      xp *= sl;
+      rk *= r;
+      c[k] = xp * tb.inv_fact[k];
+      kmax = k;
+      if (done(c[k], rk, &prev)) break;
+    }
+    return true;
+  };
+
+  bool ok = false;
+  switch (s.family) {
+    case Family::BoxCox: {
+      const double W = 1.0 + lambda * w;
+      c0 = std::exp(std::log1p(lambda * w) / lambda);
+      ok = power_branch(W, lambda, 1.0, c0, 0);
+      break;
+    }
+    case Family::Power: {
+      const double p = 1.0 / lambda;
+      if (lambda > 0.0) {
+        if (w == 0.0) return false;
+        const double W = std::fabs(w), B = w > 0.0 ? 1.0 : -1.0;
+        const double Wp = std::pow(W, p);
+        c0 = B * Wp;
+        ok = power_branch(W, B, B, Wp, 0);
+      } else {
+        const double W = -w;
+        c0 = std::pow(W, p);
+        ok = power_branch(W, -1.0, 1.0, c0, 0);
+      }
+      break;
+    }
+    case Family::Reciprocal: {
+      const double W = -w;
+      c0 = 1.0 / W;
+      ok = power_branch(W, -1.0, 1.0, c0, 0);
+      break;
+    }
+    case Family::Sqrt: {
+      c0 = w * w;
+      ok = power_branch(w, 1.0, 1.0, c0, 0);
+      break;
+    }
+    case Family::YeoJohnson: {
+      // Each side of the branch point z = 0 separately; near it, terms change sign, so the
+      // node must also stay within rho |w| of its centre.
+      if (r > kRho * std::fabs(w)) return false;
+      // From |w| = 1/2 on, the power W^p is at least 1.3 times its distance from 1, so
+      // c0 = +-(W^p - 1) loses at most a few ulp and saves the separate expm1 evaluation.
+      const bool far = std::fabs(w) >= 0.5;
+      if (w > 0.0) {
+        if (lambda == 0.0) {
+          c0 = std::expm1(w);
+          ok = exp_branch(1.0, 1.0);
+        } else {
+          const double Wp = std::exp(std::log1p(lambda * w) / lambda);
+          c0 = far ? Wp - 1.0 : math::yeo_johnson_inverse(w, lambda);
+          ok = power_branch(1.0 + lambda * w, lambda, 1.0, Wp, 0);
+        }
+      } else {
+        const double m = 2.0 - lambda;
+        if (m == 0.0) {
+          c0 = -std::expm1(-w);
+          ok = exp_branch(-1.0, -1.0);
+        } else {
+          const double Wp = std::exp(std::log1p(-m * w) / m);
+          c0 = far ? 1.0 - Wp : math::yeo_johnson_inverse(w, lambda);
+          ok = power_branch(1.0 - m * w, -m, -1.0, Wp, 1);
+        }
+      }
+      break;
+    }
+    case Family::Asinh: {
+      if (r > kRho * std::fabs(w) || r > kExpReach) return false;
+      const double sh = std::sinh(w), ch = std::cosh(w);
+      c0 = sh;
+      for (int k = 1; k <= K; ++k) c[k] = (k % 2 ? ch : sh) * tb.inv_fact[k];
+      ok = true;
+      break;
+    }
+    case Family::Logit: {
+      if (r > kLogisticReach) return false;
+      // For w >= 0 expand 1 - logistic(-w - d), whose coefficients are small, and use
+      // (-d)^k = (-1)^k d^k.
+      const bool upper = w >= 0.0;
+      const double y = math::logit_inverse(upper ? -w : w);
+      c0 = math::logit_inverse(w);
+      for (int k = 1; k <= K; ++k) {
+        const double* q = &logistic_[static_cast<std::size_t>(k * (K + 2))];
+        double v = 0.0;
+        for (int i = k + 1; i >= 1; --i) v = v * y + q[i];
+        v *= y;
+        c[k] = upper ? ((k % 2) ? v : -v) : v;
+      }
+      ok = true;
+      break;
+    }
+    default:
+      return false;
+  }
+  if (!ok || !std::isfinite(c0)) return false;
+  if (check_ends && (invert_bounded(t_, mu + e_[nd.i0]).bounded || invert_bounded(t_, mu + e_[nd.i1 - 1]).bounded))
+    return false;
+  const double* m = &mom_[static_cast<std::size_t>(&nd - nodes_.data()) * K];
+  double tail = 0.0;
+  for (int k = kmax; k >= 1; --k) tail += c[k] * m[k - 1];
+  const double sum = cnt * c0 + tail;
+  if (!std::isfinite(sum)) return false;
+  *vsum = sum;
+  return true;
+}
+
+BackValue Smearing::mean(double mu, SmearingWork* work) const {
+  BackValue b;
+  if (std::isnan(mu)) return b;
+  const double n = static_cast<double>(e_.size());
+  if (!std::isfinite(mu)) return invert_bounded(t_, mu);  // every term is the same limit
+  const TransformSpec& s = t_.spec();
+  if (kind_ == Kind::Identity) {
+    b.value = x_sum(n * mu + e_sum_, n) / n;
+    b.bounded = !std::isfinite(b.value);
+    return b;
+  }
+  if (kind_ == Kind::Exponential) {
+    // exp(mu + e_max) * mean(exp(e_j - e_max)): no term exceeds the first factor.
+    const double vmax = math::inverse(s.family, mu + top_, s.lambda);
+    if (!std::isfinite(vmax)) {
+      b.value = x_sum(math::kInf, 1.0);
+      b.bounded = true;
+      return b;
+    }
+    b.value = x_sum(vmax * exp_sum_, n) / n;
+    return b;
+  }
+
+  // Do the row's extreme in-range terms overflow? (The inverse is monotone, so they bound the
+  // others.) Only then must accepted nodes check their ends.
+  const std::size_t N = e_.size();
+  auto ok = [&](std::size_t j) { return math::in_range(s.family, mu + e_[j], s.lambda); };
+  std::size_t a = 0, z = 0;  // in-range residuals [a, z)
+  if (ok(0)) {
+    std::size_t lo = 0, hi = N;  // first index not in range (prefix form)
+    if (ok(N - 1)) lo = N;
+    while (lo < hi) {
+      const std::size_t mid = lo + (hi - lo) / 2;
+      if (ok(mid)) lo = mid + 1;
+      else hi = mid;
+    }
+    a = 0;
+    z = lo;
+  } else if (ok(N - 1)) {
+    std::size_t lo = 0, hi = N - 1;  // first index in range (suffix form)
+    while (lo < hi) {
+      const std::size_t mid = lo + (hi - lo) / 2;
+      if (ok(mid)) hi = mid;
+      else lo = mid + 1;
+    }
+    a = lo;
+    z = N;
+  }
+  const bool check_ends =
+      z > a && (invert_bounded(t_, mu + e_[a]).bounded || invert_bounded(t_, mu + e_[z - 1]).bounded);
+
+  double xs = 0.0;
+  bool bounded = false;
+  std::array<int, 2 * kMaxDepth + 4> stack{};
+  int top = 0;
+  stack[static_cast<std::size_t>(top++)] = 0;
+  while (top > 0) {
+    const Node& nd = nodes_[static_cast<std::size_t>(stack[static_cast<std::size_t>(--top)])];
+    const double cnt = static_cast<double>(nd.i1 - nd.i0);
+    const double zlo = mu + e_[nd.i0], zhi = mu + e_[nd.i1 - 1];
+    const bool in_lo = math::in_range(s.family, zlo, s.lambda), in_hi = math::in_range(s.family, zhi, s.lambda);
+    if (!in_lo && !in_hi) {
+      const BackValue u = invert_bounded(t_, zlo), v = invert_bounded(t_, zhi);
+      if (u.value == v.value) {  // wholly beyond the limit: every term is the limit value
+        xs += cnt * u.value;
+        bounded = true;
+        if (work) ++work->limit_nodes;
+        continue;
+      }
+    } else if (in_lo && in_hi) {
+      if (nd.r == 0.0) {
+        const BackValue u = invert_bounded(t_, zlo);
+        xs += cnt * u.value;
+        bounded = bounded || u.bounded;
+        if (work) ++work->series_nodes;
+        continue;
+      }
+      double vs = 0.0;
+      if (series(nd, mu, check_ends, &vs)) {
+        xs += x_sum(vs, cnt);
+        if (work) ++work->series_nodes;
+        continue;
+      }
+    }
+    if (nd.left < 0) {
+      xs += direct(nd.i0, nd.i1, mu, &bounded);
+      if (work) work->direct_terms += nd.i1 - nd.i0;
+      continue;
+    }
+    stack[static_cast<std::size_t>(top++)] = nd.left;
+    stack[static_cast<std::size_t>(top++)] = nd.right;
+  }
+  b.value = xs / n;
+  b.bounded = bounded;
+  return b;
+}
+
+}  // namespace powerback
