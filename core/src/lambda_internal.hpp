@@ -140,7 +140,6 @@ class LambdaProfile {
   void log_rss_direct(const double* lambdas, std::size_t m, double* out,
                       double* log_tss = nullptr) const;
   void design_block(Eigen::Index r0, Eigen::Index nr, Eigen::MatrixXd& out) const;
-  double shift(double lambda) const { return 2.0 * (centre_on_second_ ? 2.0 - lambda : lambda) * centre_; }
   void make_binned(std::size_t columns);
 
   Family family_;
@@ -159,6 +158,7 @@ class LambdaProfile {
   double centre_ = 0.0;         // mean of t before centring (Box-Cox, one-signed Yeo-Johnson)
   bool centre_on_second_ = false;  // the centred group is Yeo-Johnson's negatives (k = 2 - lambda)
   double sum_pos_ = 0.0, sum_neg_ = 0.0;  // sums of t over v >= 0 and v < 0 (Yeo-Johnson)
+  double jac_sum_ = 0.0;        // the Jacobian is (lambda - 1) jac_sum_ - n centre_ + the shift's part
   double pos_min_ = 0.0, pos_max_ = 0.0, neg_min_ = 0.0, neg_max_ = 0.0;  // ranges of t per sign
   std::unique_ptr<BinnedProfile> binned_;  // fast path for large n (see BinnedProfile)
 };

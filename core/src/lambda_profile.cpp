@@ -271,6 +271,7 @@ void LambdaProfile::prepare(const double* v) {
       pos_min_ = std::min(pos_min_, t);
       pos_max_ = std::max(pos_max_, t);
     }
+    jac_sum_ = t_.sum();
     return;
   }
   neg_.resize(nn);
@@ -296,9 +297,11 @@ void LambdaProfile::prepare(const double* v) {
   }
   // One sign only: centre the logs as for Box-Cox. The constant -1/k then drops out of the RSS
   // (there is an intercept), so spreads far below 1/k (huge values, negative k) are not lost.
+  jac_sum_ = sum_pos_ - sum_neg_;
   if (!any_neg_ || !any_pos_) {
     centre_ = t_.mean();
     t_ -= centre_;
+    jac_sum_ = any_neg_ ? -t_.sum() : t_.sum();
     centre_on_second_ = any_neg_;
     if (any_neg_) {
       neg_min_ -= centre_;
@@ -459,13 +462,15 @@ void LambdaProfile::loglik_batch(const double* lambdas, std::size_t m, double* o
     log_rss_direct(pending.data(), pending.size(), lr.data());
     for (std::size_t q = 0; q < pending.size(); ++q) out[where[q]] = lr[q];
   }
+  // With the logs centred at c, RSS(lambda) = exp(2 k c) RSS_c(lambda) (k = lambda, or 2 - lambda
+  // for Yeo-Johnson's negatives) and the Jacobian is (k - 1) n c plus the centred part; the terms
+  // in lambda c cancel exactly, leaving -n c. Adding them as that one constant keeps the profile's
+  // shape free of the rounding of n lambda c, so the estimate does not depend on y's units.
   const double n = static_cast<double>(t_.size());
   for (std::size_t j = 0; j < m; ++j) {
     const double lambda = lambdas[j];
-    const double jac = family_ == Family::BoxCox ? (lambda - 1.0) * n * centre_
-                                                 : (lambda - 1.0) * (sum_pos_ - sum_neg_);
-    const double lr = out[j] + shift(lambda);
-    out[j] = 0.5 * sum_log_w_ - 0.5 * n * (kLog2PiPlus1 + lr - std::log(n)) + jac;
+    const double jac = (lambda - 1.0) * jac_sum_;
+    out[j] = 0.5 * sum_log_w_ - 0.5 * n * (kLog2PiPlus1 + out[j] - std::log(n)) + jac - n * centre_;
   }
 }
 
