@@ -145,6 +145,7 @@ class LambdaProfile {
   Family family_;
   const LeastSquares* design_ = nullptr;  // response case with a caller's factorised design
   const double* X_ = nullptr;   // streamed response: the caller's predictors (NULL when p = 0)
+  std::size_t p_ = 0;           // streamed response: their columns
   std::size_t n_all_ = 0;       // the caller's rows (zero-weight ones included)
   bool response_ = false;
   std::vector<std::size_t> kept_, aliased_;  // response case: the design's columns used / dropped

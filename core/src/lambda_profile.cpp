@@ -190,7 +190,7 @@ LambdaProfile::LambdaProfile(const double* y, const LeastSquares& design, Family
 
 LambdaProfile::LambdaProfile(const double* y, const double* X, std::size_t n, std::size_t p,
                              Family family, const std::string& what, const double* weights)
-    : family_(family), X_(X), response_(true) {
+    : family_(family), X_(X), p_(p), response_(true) {
   select_rows(y, n, weights, what);
   make_binned(p + 1);
   factor_streamed(X, n, p, what);
@@ -386,7 +386,36 @@ void LambdaProfile::log_rss_direct(const double* lambdas, std::size_t m, double*
       }
       if (weighted) Z.col(j).array() *= root_w_.segment(r0, nr);
     }
-    design_block(r0, nr, Xb);
+  };
+  // The design's rows are read in place when no copy is needed (equal weights, every row used,
+  // no aliased column): the intercept's part is a column sum; otherwise gathered per block.
+  using Stride = Eigen::OuterStride<>;
+  using ConstMap = Eigen::Map<const Eigen::MatrixXd, 0, Stride>;
+  const bool plain = !weighted && rows_.empty();
+  const std::size_t all_columns = design_ ? design_->columns() : p_ + 1;
+  const bool in_place = plain && (!response_ || kept_.size() == all_columns);
+  const auto x_map = [&](Eigen::Index r0, Eigen::Index nr) {
+    if (design_) return ConstMap(design_->design().data() + r0 + design_->design().rows(), nr,
+                                 static_cast<Eigen::Index>(all_columns - 1), Stride(design_->design().rows()));
+    return ConstMap(X_ + r0, nr, static_cast<Eigen::Index>(p_), Stride(static_cast<Eigen::Index>(n_all_)));
+  };
+  const auto gather_xz = [&](Eigen::Index r0, Eigen::Index nr, Eigen::MatrixXd& C) {
+    if (!in_place) {
+      design_block(r0, nr, Xb);
+      C.noalias() += Xb.transpose() * Z;
+      return;
+    }
+    C.row(0) += Z.colwise().sum();
+    if (C.rows() > 1) C.bottomRows(C.rows() - 1).noalias() += x_map(r0, nr).transpose() * Z;
+  };
+  const auto subtract_fit = [&](Eigen::Index r0, Eigen::Index nr, const Eigen::MatrixXd& B) {
+    if (!in_place) {
+      design_block(r0, nr, Xb);
+      Z.noalias() -= Xb * B;
+      return;
+    }
+    Z.rowwise() -= B.row(0);
+    if (B.rows() > 1) Z.noalias() -= x_map(r0, nr) * B.bottomRows(B.rows() - 1);
   };
   const Eigen::Index k = r_.rows();
   Eigen::MatrixXd C = Eigen::MatrixXd::Zero(k, nl);
@@ -394,7 +423,7 @@ void LambdaProfile::log_rss_direct(const double* lambdas, std::size_t m, double*
   for (Eigen::Index r0 = 0; r0 < n; r0 += kDirectBlockRows) {
     const Eigen::Index nr = std::min(kDirectBlockRows, n - r0);
     fill(r0, nr);
-    C.noalias() += Xb.transpose() * Z;
+    gather_xz(r0, nr, C);
     if (weighted) wsum.noalias() += root_w_.segment(r0, nr).matrix().transpose() * Z;
     else wsum += Z.colwise().sum();
   }
@@ -414,7 +443,7 @@ void LambdaProfile::log_rss_direct(const double* lambdas, std::size_t m, double*
           tss(j) += (Z.col(j).array() - mean(j)).square().sum();
       }
     }
-    Z.noalias() -= Xb * B;
+    subtract_fit(r0, nr, B);
     rss += Z.colwise().squaredNorm().transpose().array();
   }
   for (Eigen::Index j = 0; j < nl; ++j) {
