@@ -234,7 +234,7 @@ bool BinnedProfile::log_rss(double lambda, double* out) const {
     const double explained = u.tail(u.size() - 1).squaredNorm();
     rss = tss - explained;
     // Too much of the sum of squares explained to subtract safely: evaluate directly instead.
-    if (!(rss > 1e-6 * tss)) return false;
+    if (!(rss > kBinnedFitGuard * tss)) return false;
   }
   if (!(rss > 0.0) || !std::isfinite(rss)) return false;
   *out = std::log(rss) + (scaled ? 2.0 * m : 0.0);

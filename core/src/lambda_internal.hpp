@@ -124,6 +124,11 @@ class LambdaProfile {
   // of the transformed values, both divided by exp(2 s) for the s returned in *log_scale.
   void sums_of_squares(double lambda, double* rss, double* tss, double* log_scale) const;
   bool binned() const { return static_cast<bool>(binned_); }
+  // The binned series serves lambda (which implies 1 - R^2 > kBinnedFitGuard there).
+  bool binned_serves(double lambda) const {
+    double v;
+    return binned_ && binned_->log_rss(lambda, &v);
+  }
   std::size_t n() const { return static_cast<std::size_t>(t_.size()); }
   Family family() const { return family_; }
   bool response() const { return response_; }
@@ -168,6 +173,12 @@ class LambdaProfile {
 // (which covers lambda in [-3, 3] for both families, Yeo-Johnson's 2 - lambda included).
 constexpr std::size_t kBinnedMinimumN = 4096;
 constexpr double kBinnedKValid = 5.0;
+
+// The binned series refuses a response fit with 1 - R^2 at or below this (subtracting the
+// explained sum of squares would lose too many digits); the exact-fit check relies on every
+// lambda the bins serve having 1 - R^2 above kExactFitRatio.
+constexpr double kBinnedFitGuard = 1e-6;
+static_assert(kBinnedFitGuard >= kExactFitRatio, "the bins must not serve an exact fit");
 
 // Largest exponent evaluated without rescaling: exp(300)^2 * 1e12 values stays finite.
 constexpr double kDirectLimit = 300.0;
