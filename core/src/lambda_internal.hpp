@@ -120,9 +120,9 @@ class LambdaProfile {
   double loglik(double lambda, bool direct = false) const;
   // The same at m lambdas: those the binned series cannot serve are evaluated in one batch.
   void loglik_batch(const double* lambdas, std::size_t m, double* out, bool direct = false) const;
-  // Direct evaluation at lambda: residual and total (about the weighted mean) sums of squares
-  // of the transformed values, both divided by exp(2 s) for the s returned in *log_scale.
-  void sums_of_squares(double lambda, double* rss, double* tss, double* log_scale) const;
+  // Direct evaluation at lambda: 1 - R^2 of the transformed values, the residual sum of squares
+  // over the total one about the (weighted) mean.
+  double unexplained_share(double lambda) const;
   bool binned() const { return static_cast<bool>(binned_); }
   // The binned series serves lambda (which implies 1 - R^2 > kBinnedFitGuard there).
   bool binned_serves(double lambda) const {

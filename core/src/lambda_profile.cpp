@@ -458,13 +458,10 @@ void LambdaProfile::log_rss_direct(const double* lambdas, std::size_t m, double*
   }
 }
 
-void LambdaProfile::sums_of_squares(double lambda, double* rss, double* tss, double* log_scale) const {
+double LambdaProfile::unexplained_share(double lambda) const {
   double lr, lt;
   log_rss_direct(&lambda, 1, &lr, &lt);
-  // Report both relative to the larger so that the ratio survives any scale.
-  *log_scale = 0.5 * lt;
-  *rss = std::exp(lr - lt);
-  *tss = 1.0;
+  return std::exp(lr - lt);  // both carry the same scale factor, which cancels
 }
 
 double LambdaProfile::loglik(double lambda, bool direct) const {

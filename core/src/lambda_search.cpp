@@ -103,9 +103,7 @@ Side solve_side(G& g, double lhat, double g_hat, double h, double edge, double d
 // estimate nor its (zero-width) interval mean anything.
 void check_not_exact(const detail::LambdaProfile& prof, double lhat) {
   if (prof.binned_serves(lhat)) return;  // the bins refuse fits with 1 - R^2 <= 1e-6
-  double rss, tss, log_scale;
-  prof.sums_of_squares(lhat, &rss, &tss, &log_scale);
-  const double ratio = rss / tss;
+  const double ratio = prof.unexplained_share(lhat);
   if (ratio < kExactFitRatio)
     throw Error(ErrorCode::Singular,
                 "the predictors fit the transformed response almost exactly near lambda = " +
