@@ -37,3 +37,16 @@ awk -v f="$t_fit" -v q="$t_qless" -v l="$t_lam" -v h="$t_hand" -v u="$t_uni" -v 
   else printf "by-hand base R (scaled x%d to n=1e6) / powerback = %.1f  (target >= 100)\n", k, h * k / l
   printf "scipy boxcox(alpha=0.05) / powerback univariate  = %.1f  (target >= 30)\n", s / u
 }'
+
+# 3. (PWB_R_BENCH=1) the R front end against lm() on the same data, in one process, n = 1e6,
+#    p = 10 + a 5-level factor (lambda_r_bench.R); then peak resident memory at n = 1e7 of
+#    building the data, lm(formula) and estimate_response_lambda(formula), each in a fresh
+#    process under /usr/bin/time -v (lambda_r_memory.R). Needs powerback installed where R finds
+#    it (e.g. R_LIBS=build/rdev/Rlib after tools/dev_rtest.sh).
+if [ "${PWB_R_BENCH:-0}" = 1 ]; then
+  Rscript "$here/lambda_r_bench.R" 1000000 3
+  for what in data lm lambda; do
+    /usr/bin/time -v Rscript "$here/lambda_r_memory.R" "$what" 10000000 2>&1 |
+      sed -n -e 's/^\t*Maximum resident set size (kbytes): /'"$what"'_peak_kb=/p' -e '/_seconds=/p'
+  done
+fi

@@ -13,6 +13,8 @@ mkdir -p "$pkg/src/pwb/core/include" "$pkg/src/pwb/capi/include" "$pkg/src/pwb/c
          "$pkg/tests/testthat/fixtures" "$pkg/inst/extdata"
 
 cp -R "$root/core/include/powerback" "$pkg/src/pwb/core/include/"
+# The core's private headers (core/src/*.hpp) go on the same include path.
+cp "$root"/core/src/*.hpp "$pkg/src/pwb/core/include/" 2>/dev/null || true
 cp "$root/capi/include/powerback.h" "$pkg/src/pwb/capi/include/"
 cp "$root"/capi/src/*.hpp "$pkg/src/pwb/capi/src/" 2>/dev/null || true
 # R compiles only the top level of src/, so the sources are flattened with a prefix.

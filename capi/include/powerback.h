@@ -175,15 +175,25 @@ PWB_API pwb_status pwb_transform_describe(const pwb_transform *t, int which, cha
 /* ------------------------------------------------------------------------------------------ */
 
 /* Options of the lambda estimators. Initialise with pwb_lambda_options_init, then change fields.
- * lower < upper (both finite) is the search range of lambda; level in (0, 1) is the level of the
- * likelihood-ratio confidence interval. */
+ * lower < upper (both finite, |lower|, |upper| <= 100) is the search range of lambda (beyond
+ * +-100 a power follows only the most extreme values: such a range is PWB_ERR_ARGUMENT); level in
+ * (0, 1) is the level of the likelihood-ratio confidence interval.
+ * weights (appended in 0.1; a struct_size that ends before it means NULL): NULL for equal
+ * weights, or n precision weights (variance sigma^2 / w_i, as R's lm), read during the call only
+ * and never kept. A weight of 0 drops its row (not counted in n, not in the Jacobian, its values
+ * not checked); negative weights are PWB_ERR_ARGUMENT and NaN/Inf ones PWB_ERR_NONFINITE (rows in
+ * pwb_lambda_error_rows). With weights the profile below uses the weighted residual sum of
+ * squares RSS_w = sum w_i e_i^2 and gains 1/2 sum log w_i, so that at a fixed lambda it equals
+ * the weighted normal log-likelihood of the transformed fit (R's logLik of a weighted lm) plus
+ * the unweighted Jacobian. The binned fast path serves weighted data too (weighted bin sums). */
 typedef struct pwb_lambda_options {
   size_t struct_size; /* sizeof(pwb_lambda_options) */
   double lower, upper; /* search range, default -3, 3 */
   double level;        /* CI level, default 0.95 */
+  const double *weights; /* NULL (default) or n precision weights >= 0 */
 } pwb_lambda_options;
 
-/* Sets struct_size and the defaults (-3, 3, 0.95). NULL is ignored. Thread-safe. */
+/* Sets struct_size and the defaults (-3, 3, 0.95, no weights). NULL is ignored. Thread-safe. */
 PWB_API void pwb_lambda_options_init(pwb_lambda_options *opt);
 
 /* The result of a lambda estimate. lambda maximises the profile log-likelihood
@@ -192,10 +202,11 @@ PWB_API void pwb_lambda_options_init(pwb_lambda_options *opt);
  * loglik is l(lambda), on the original scale of the data. [conf_low, conf_high] holds the lambdas
  * whose profile lies within chi2_1(level) / 2 of the maximum. A side whose profile never drops
  * that far inside the range is open: its endpoint is the range edge and low_open / high_open is
- * 1 (a flat profile is a flag, not an error). at_bound is 1 when lambda sits at a range edge;
+ * 1 (a flat profile is a flag, not an error). at_bound is 1 when lambda lies within a few of
+ * the maximiser's steps (relative 3e-8 each) of a range edge, however wide the range;
  * converged is 0 when the maximiser or a root search ran out of iterations. convenient is the
- * value of {-2, -1, -0.5, 0, 0.5, 1, 2} nearest lambda inside the interval (ties: the smaller),
- * or lambda rounded to 2 decimals when none lies inside. rank (intercept included) and
+ * value of {-2, -1, -1/2, -1/3, 0, 1/3, 1/2, 1, 2} nearest lambda inside the interval (ties: the
+ * smaller), or lambda rounded to 2 decimals when none lies inside. rank (intercept included) and
  * n_aliased (design columns dropped as aliased) are 0 for the univariate estimator. */
 typedef struct pwb_lambda_result {
   size_t struct_size; /* sizeof(pwb_lambda_result) */
@@ -215,7 +226,10 @@ PWB_API void pwb_lambda_result_init(pwb_lambda_result *res);
  * Errors: PWB_ERR_NONFINITE (NaN/Inf in x; count and first indices in the message),
  * PWB_ERR_DOMAIN (x <= 0 with Box-Cox; count and first indices, suggests Yeo-Johnson or a shift),
  * PWB_ERR_ARGUMENT (NULL pointers, another family, fewer than 3 values, a constant x,
- * lower >= upper, level outside (0, 1), a small struct_size). Thread-safe (no shared state). */
+ * lower >= upper, a bound beyond +-100, level outside (0, 1), negative weights, a small
+ * struct_size). The rows behind a NONFINITE, DOMAIN or negative-weight error are also available
+ * as numbers from pwb_lambda_error_rows. opt->weights is honoured. Thread-safe (no shared
+ * state). */
 PWB_API pwb_status pwb_estimate_lambda(const double *x, size_t n, pwb_family family,
                                        const pwb_lambda_options *opt, pwb_lambda_result *out);
 
@@ -223,9 +237,12 @@ PWB_API pwb_status pwb_estimate_lambda(const double *x, size_t n, pwb_family fam
  * normal e. X: n-by-p, column-major, no intercept column (one is added); p may be 0. The design
  * is factored once, in one pass over its rows (a Householder QR taken block by block; aliased
  * columns dropped as R's lm does, their count in out->n_aliased), and each lambda costs one
- * projection of the transformed y. Errors as
- * pwb_estimate_lambda for y, plus PWB_ERR_NONFINITE for non-finite X (first row and column
- * named) and PWB_ERR_SINGULAR when n <= rank + 1. Thread-safe. */
+ * projection of the transformed y. With opt->weights the rows of positive weight, scaled by
+ * sqrt(w), are factored (a copy of them lives during the call). Errors as
+ * pwb_estimate_lambda for y, plus PWB_ERR_NONFINITE for non-finite X (the rows in
+ * pwb_lambda_error_rows), PWB_ERR_SINGULAR when n <= rank + 1, and PWB_ERR_SINGULAR when the
+ * predictors fit the transformed y exactly at lambda-hat (1 - R^2 < 1e-12: the likelihood has no
+ * maximum there, and any estimate or interval would be arbitrary). Thread-safe. */
 PWB_API pwb_status pwb_estimate_response_lambda(const double *y, const double *X, size_t n,
                                                 size_t p, pwb_family family,
                                                 const pwb_lambda_options *opt,
@@ -258,6 +275,35 @@ PWB_API pwb_status pwb_estimate_response_lambda_curve(const double *y, const dou
 /* The convenient lambda of the rule above for an estimate lambda and interval [lo, hi]. Never
  * fails; NaN input gives NaN. Thread-safe. */
 PWB_API double pwb_convenient_lambda(double lambda, double lo, double hi);
+
+/* Weighted forms of the two profile functions above: weights as in pwb_lambda_options (NULL
+ * for equal weights; n values otherwise). The grid values the binned series cannot serve are
+ * evaluated together, in one pass over the rows for the whole grid. Errors and thread-safety
+ * as pwb_lambda_profile / pwb_response_lambda_profile. */
+PWB_API pwb_status pwb_lambda_profile_weighted(const double *x, size_t n, pwb_family family,
+                                               const double *weights, const double *grid,
+                                               size_t n_grid, double *loglik_out);
+PWB_API pwb_status pwb_response_lambda_profile_weighted(const double *y, const double *X,
+                                                        size_t n, size_t p, pwb_family family,
+                                                        const double *weights, const double *grid,
+                                                        size_t n_grid, double *loglik_out);
+
+/* Which input the rows of a failed lambda call belong to. */
+typedef enum pwb_lambda_input {
+  PWB_LAMBDA_INPUT_NONE = -1,  /* the last failure was not about particular rows */
+  PWB_LAMBDA_INPUT_RESPONSE = 0, /* y (or x, univariate) */
+  PWB_LAMBDA_INPUT_PREDICTORS = 1, /* a row of X with a non-finite value */
+  PWB_LAMBDA_INPUT_WEIGHTS = 2 /* a negative or non-finite weight */
+} pwb_lambda_input;
+
+/* The rows behind this thread's last failing lambda call (the estimators, profiles and curves
+ * above), as numbers, so that a front end can name them in its own convention without scanning
+ * the data again. Returns how many rows were at fault (0 when the last lambda call succeeded or
+ * its failure was not about rows); writes the first min(that count, cap, 8) of them, 0-based in
+ * the caller's numbering and ascending, to rows (may be NULL when cap is 0) and the input they
+ * belong to to *input (may be NULL). The pwb_status of that call says what was wrong (NONFINITE,
+ * DOMAIN for Box-Cox's y <= 0, ARGUMENT for negative weights). Never fails; per thread. */
+PWB_API size_t pwb_lambda_error_rows(size_t *rows, size_t cap, int *input);
 
 /* @@PWB_SECTION_ESTIMATION@@ (declarations of this section go above this line) */
 

@@ -1,7 +1,9 @@
 // The lambda estimators of the C ABI: options and result structs, estimates, profile curves.
+#include <cstddef>
 #include <vector>
 
 #include "capi_internal.hpp"
+#include "capi_lambda_result.hpp"
 #include "capi_sizes.hpp"
 #include "powerback/lambda.hpp"
 
@@ -17,13 +19,19 @@ Family lambda_family(pwb_family f) {
   return static_cast<Family>(f);
 }
 
+// The fields of pwb_lambda_options up to (and without) weights: a struct of that size comes from
+// a header older than the weights, which then count as absent.
+constexpr std::size_t kOptionsBeforeWeights = offsetof(pwb_lambda_options, weights);
+
 LambdaOptions options_of(const pwb_lambda_options* opt) {
   LambdaOptions o;
   if (!opt) return o;
-  capi::need_struct(opt->struct_size, sizeof(pwb_lambda_options), "pwb_lambda_options");
+  capi::need_struct(opt->struct_size, kOptionsBeforeWeights, "pwb_lambda_options");
   o.lower = opt->lower;
   o.upper = opt->upper;
   o.level = opt->level;
+  if (opt->struct_size >= offsetof(pwb_lambda_options, weights) + sizeof(opt->weights))
+    o.weights = opt->weights;
   return o;
 }
 
@@ -32,19 +40,36 @@ void check_out(const pwb_lambda_result* out) {
 }
 
 void write_result(const LambdaEstimate& e, pwb_lambda_result* out) {
-  out->lambda = e.lambda;
-  out->conf_low = e.conf_low;
-  out->conf_high = e.conf_high;
-  out->convenient = e.convenient;
-  out->loglik = e.loglik;
-  out->at_bound = e.at_bound ? 1 : 0;
-  out->converged = e.converged ? 1 : 0;
-  out->n = e.n;
-  out->low_open = e.low_open ? 1 : 0;
-  out->high_open = e.high_open ? 1 : 0;
-  out->rank = e.rank;
-  out->n_aliased = e.aliased.size();
+  capi::write_lambda_result(e, out);
 }
+
+// The rows behind this thread's last failing lambda call.
+struct ErrorRows {
+  std::size_t count = 0;
+  int input = PWB_LAMBDA_INPUT_NONE;
+  std::vector<std::size_t> first;
+};
+thread_local ErrorRows last_rows;
+
+// capi::guarded, keeping the rows of a LambdaRowsError as numbers.
+template <class Body>
+pwb_status lambda_guarded(Body&& body) noexcept {
+  last_rows.count = 0;
+  last_rows.input = PWB_LAMBDA_INPUT_NONE;
+  last_rows.first.clear();
+  return capi::guarded([&] {
+    try {
+      body();
+    } catch (const LambdaRowsError& e) {
+      last_rows.count = e.count();
+      last_rows.input = static_cast<int>(e.input());
+      last_rows.first = e.first_indices();
+      throw;
+    }
+  });
+}
+
+void check_weights_array(const double* w, std::size_t n) { capi::need_array(w, w ? n : 0, "weights"); }
 
 void write_curve(const std::vector<double>& grid, const std::vector<double>& ll, double* grid_out,
                  double* loglik_out) {
@@ -71,6 +96,7 @@ void pwb_lambda_options_init(pwb_lambda_options* opt) {
   opt->lower = d.lower;
   opt->upper = d.upper;
   opt->level = d.level;
+  opt->weights = nullptr;
 }
 
 void pwb_lambda_result_init(pwb_lambda_result* res) {
@@ -83,7 +109,7 @@ void pwb_lambda_result_init(pwb_lambda_result* res) {
 
 pwb_status pwb_estimate_lambda(const double* x, size_t n, pwb_family family,
                                const pwb_lambda_options* opt, pwb_lambda_result* out) {
-  return capi::guarded([&] {
+  return lambda_guarded([&] {
     check_out(out);
     capi::need_array(x, n, "x");
     write_result(estimate_lambda(x, n, lambda_family(family), options_of(opt)), out);
@@ -93,7 +119,7 @@ pwb_status pwb_estimate_lambda(const double* x, size_t n, pwb_family family,
 pwb_status pwb_estimate_response_lambda(const double* y, const double* X, size_t n, size_t p,
                                         pwb_family family, const pwb_lambda_options* opt,
                                         pwb_lambda_result* out) {
-  return capi::guarded([&] {
+  return lambda_guarded([&] {
     check_out(out);
     capi::need_array(y, n, "y");
     capi::need_array(X, capi::checked_matrix_size(n, p, "X"), "X");
@@ -103,7 +129,7 @@ pwb_status pwb_estimate_response_lambda(const double* y, const double* X, size_t
 
 pwb_status pwb_lambda_profile(const double* x, size_t n, pwb_family family, const double* grid,
                               size_t n_grid, double* loglik_out) {
-  return capi::guarded([&] {
+  return lambda_guarded([&] {
     capi::need_array(x, n, "x");
     capi::need_array(grid, n_grid, "grid");
     capi::need_array(loglik_out, n_grid, "loglik_out");
@@ -115,7 +141,7 @@ pwb_status pwb_lambda_profile(const double* x, size_t n, pwb_family family, cons
 pwb_status pwb_response_lambda_profile(const double* y, const double* X, size_t n, size_t p,
                                        pwb_family family, const double* grid, size_t n_grid,
                                        double* loglik_out) {
-  return capi::guarded([&] {
+  return lambda_guarded([&] {
     capi::need_array(y, n, "y");
     capi::need_array(X, capi::checked_matrix_size(n, p, "X"), "X");
     capi::need_array(grid, n_grid, "grid");
@@ -129,7 +155,7 @@ pwb_status pwb_response_lambda_profile(const double* y, const double* X, size_t 
 pwb_status pwb_estimate_lambda_curve(const double* x, size_t n, pwb_family family,
                                      const pwb_lambda_options* opt, pwb_lambda_result* out,
                                      size_t n_grid, double* grid_out, double* loglik_out) {
-  return capi::guarded([&] {
+  return lambda_guarded([&] {
     check_out(out);
     capi::need_array(x, n, "x");
     check_curve(n_grid, grid_out, loglik_out);
@@ -145,7 +171,7 @@ pwb_status pwb_estimate_response_lambda_curve(const double* y, const double* X, 
                                               pwb_family family, const pwb_lambda_options* opt,
                                               pwb_lambda_result* out, size_t n_grid,
                                               double* grid_out, double* loglik_out) {
-  return capi::guarded([&] {
+  return lambda_guarded([&] {
     check_out(out);
     capi::need_array(y, n, "y");
     capi::need_array(X, capi::checked_matrix_size(n, p, "X"), "X");
@@ -160,6 +186,43 @@ pwb_status pwb_estimate_response_lambda_curve(const double* y, const double* X, 
 
 double pwb_convenient_lambda(double lambda, double lo, double hi) {
   return convenient_lambda(lambda, lo, hi);
+}
+
+pwb_status pwb_lambda_profile_weighted(const double* x, size_t n, pwb_family family,
+                                       const double* weights, const double* grid, size_t n_grid,
+                                       double* loglik_out) {
+  return lambda_guarded([&] {
+    capi::need_array(x, n, "x");
+    check_weights_array(weights, n);
+    capi::need_array(grid, n_grid, "grid");
+    capi::need_array(loglik_out, n_grid, "loglik_out");
+    const std::vector<double> ll =
+        lambda_profile(x, n, lambda_family(family), weights, grid, n_grid);
+    for (std::size_t i = 0; i < n_grid; ++i) loglik_out[i] = ll[i];
+  });
+}
+
+pwb_status pwb_response_lambda_profile_weighted(const double* y, const double* X, size_t n,
+                                                size_t p, pwb_family family, const double* weights,
+                                                const double* grid, size_t n_grid,
+                                                double* loglik_out) {
+  return lambda_guarded([&] {
+    capi::need_array(y, n, "y");
+    capi::need_array(X, capi::checked_matrix_size(n, p, "X"), "X");
+    check_weights_array(weights, n);
+    capi::need_array(grid, n_grid, "grid");
+    capi::need_array(loglik_out, n_grid, "loglik_out");
+    const std::vector<double> ll =
+        response_lambda_profile(y, X, n, p, lambda_family(family), weights, grid, n_grid);
+    for (std::size_t i = 0; i < n_grid; ++i) loglik_out[i] = ll[i];
+  });
+}
+
+size_t pwb_lambda_error_rows(size_t* rows, size_t cap, int* input) {
+  if (input) *input = last_rows.input;
+  if (rows)
+    for (std::size_t i = 0; i < cap && i < last_rows.first.size(); ++i) rows[i] = last_rows.first[i];
+  return last_rows.count;
 }
 
 }  // extern "C"

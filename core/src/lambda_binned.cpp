@@ -5,7 +5,7 @@
 #include <cmath>
 #include <limits>
 
-#include "powerback/lambda.hpp"
+#include "lambda_internal.hpp"
 
 namespace powerback {
 namespace detail {
@@ -37,8 +37,10 @@ struct InverseFactorials {
 }  // namespace
 
 BinnedProfile::BinnedProfile(const Eigen::ArrayXd& t, const Eigen::Array<bool, Eigen::Dynamic, 1>& second,
-                             bool has_second, double k_valid, std::size_t columns)
-    : k_valid_(k_valid), t_(t), second_of_(second), has_second_(has_second), columns_(columns) {
+                             bool has_second, double k_valid, std::size_t columns,
+                             const Eigen::ArrayXd* weights, const Eigen::ArrayXd* root_weights)
+    : k_valid_(k_valid), t_(t), second_of_(second), has_second_(has_second),
+      root_w_(root_weights), columns_(columns) {
   const Eigen::Index n = t.size();
   constexpr int K = kTerms;
   h_ = 1.0 / (16.0 * k_valid);  // |k delta| <= k_valid * h / 2 = 1/32
@@ -79,10 +81,11 @@ BinnedProfile::BinnedProfile(const Eigen::ArrayXd& t, const Eigen::Array<bool, E
   static_assert(K % 2 == 0, "the power sums are added two at a time");
   for (Eigen::Index i = 0; i < n; ++i) {
     const std::size_t b = bin_of(i);
-    count_[b] += 1.0;
+    const double wi = weights ? (*weights)(i) : 1.0;
+    count_[b] += wi;
     const double d = t(i) - centre_[b], d2 = d * d;
     // (delta^(m), delta^(m+1)) pairs, each the previous times delta^2, added as packets.
-    Eigen::Array2d pair(d, d2);
+    Eigen::Array2d pair(wi * d, wi * d2);
     const Eigen::Array2d step = Eigen::Array2d::Constant(d2);
     double* row = &s1_[b * K];
     for (int m = 0; m < K; m += 2) {
@@ -134,6 +137,10 @@ void BinnedProfile::add_rows(std::size_t r0, const Eigen::Ref<const Eigen::Matri
     powers<K>(t_(i) - centre_[b], w + 1);
     for (int m = 0; m < K; ++m) w[m + 1] *= inv_fact.v[m];
     for (int m = K + 1; m < S; ++m) w[m] = 0.0;
+    if (root_w_) {  // the block is scaled by sqrt(w) already: one more factor makes it w
+      const double rw = (*root_w_)(i);
+      for (int m = 0; m <= K; ++m) w[m] *= rw;
+    }
   }
   double* const acc = xm_.data();
   const std::size_t* const rb = bin.data();
@@ -227,7 +234,7 @@ bool BinnedProfile::log_rss(double lambda, double* out) const {
     const double explained = u.tail(u.size() - 1).squaredNorm();
     rss = tss - explained;
     // Too much of the sum of squares explained to subtract safely: evaluate directly instead.
-    if (!(rss > 1e-6 * tss)) return false;
+    if (!(rss > kBinnedFitGuard * tss)) return false;
   }
   if (!(rss > 0.0) || !std::isfinite(rss)) return false;
   *out = std::log(rss) + (scaled ? 2.0 * m : 0.0);

@@ -3,7 +3,8 @@
 #include <cmath>
 
 #include "powerback/errors.hpp"
-#include "powerback/lambda.hpp"
+#include "powerback/transform.hpp"
+#include "lambda_internal.hpp"
 
 namespace powerback {
 namespace {
@@ -11,11 +12,12 @@ namespace {
 std::vector<double> along(const detail::LambdaProfile& prof, const double* grid, std::size_t m) {
   require(grid != nullptr || m == 0, "the lambda grid is NULL");
   std::vector<double> out(m);
-  for (std::size_t i = 0; i < m; ++i) {
-    require(std::isfinite(grid[i]), "the lambda grid has a non-finite value at index " +
-                                        std::to_string(i) + " (0-based)");
-    out[i] = prof.loglik(grid[i]);
-  }
+  for (std::size_t i = 0; i < m; ++i)
+    require(std::isfinite(grid[i]) && std::fabs(grid[i]) <= kMaxLambdaMagnitude,
+            "the lambda grid has a value that is not finite or beyond +-" +
+                format_number(kMaxLambdaMagnitude) + " at index " + std::to_string(i) +
+                " (0-based)");
+  prof.loglik_batch(grid, m, out.data());
   return out;
 }
 
@@ -23,7 +25,12 @@ std::vector<double> along(const detail::LambdaProfile& prof, const double* grid,
 
 std::vector<double> lambda_profile(const double* x, std::size_t n, Family family,
                                    const double* grid, std::size_t m) {
-  const detail::LambdaProfile prof(x, n, family, "x");
+  return lambda_profile(x, n, family, nullptr, grid, m);
+}
+
+std::vector<double> lambda_profile(const double* x, std::size_t n, Family family,
+                                   const double* weights, const double* grid, std::size_t m) {
+  const detail::LambdaProfile prof(x, n, family, "x", weights);
   return along(prof, grid, m);
 }
 
@@ -36,7 +43,13 @@ std::vector<double> response_lambda_profile(const double* y, const LeastSquares&
 std::vector<double> response_lambda_profile(const double* y, const double* X, std::size_t n,
                                             std::size_t p, Family family, const double* grid,
                                             std::size_t m) {
-  const detail::LambdaProfile prof(y, X, n, p, family, "y");
+  return response_lambda_profile(y, X, n, p, family, nullptr, grid, m);
+}
+
+std::vector<double> response_lambda_profile(const double* y, const double* X, std::size_t n,
+                                            std::size_t p, Family family, const double* weights,
+                                            const double* grid, std::size_t m) {
+  const detail::LambdaProfile prof(y, X, n, p, family, "y", weights);
   return along(prof, grid, m);
 }
 

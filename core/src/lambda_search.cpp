@@ -1,24 +1,21 @@
-// Maximum-likelihood lambda and its likelihood-ratio interval: Brent's minimiser on the negated
-// profile, then a bracketing root search on each side for the chi-square cut.
+// Maximum-likelihood lambda and its likelihood-ratio interval: the shared maximiser of the
+// profile (lambda_maximise.hpp), then a bracketing root search on each side for the chi-square cut.
 #include <algorithm>
 #include <boost/math/distributions/chi_squared.hpp>
-#include <boost/math/tools/minima.hpp>
 #include <boost/math/tools/toms748_solve.hpp>
 #include <cmath>
 #include <cstdint>
 #include <utility>
 
 #include "powerback/errors.hpp"
-#include "powerback/lambda.hpp"
+#include "powerback/lambda_maximise.hpp"
+#include "lambda_internal.hpp"
 #include "powerback/transform.hpp"
 
 namespace powerback {
 namespace {
 
 constexpr std::uintmax_t kMaxIter = 200;
-// Brent's minimiser: half the mantissa is the best a minimum can be located to (the profile is
-// flat to second order there), about 1.5e-8 relative.
-constexpr int kMinimiserBits = std::numeric_limits<double>::digits / 2;
 // Interval endpoints are simple roots, so they can be found much more tightly.
 constexpr int kRootBits = 40;
 
@@ -26,6 +23,11 @@ void check_options(const LambdaOptions& opt) {
   require(std::isfinite(opt.lower) && std::isfinite(opt.upper) && opt.lower < opt.upper,
           "the lambda search range needs finite lower < upper; got [" + format_number(opt.lower) +
               ", " + format_number(opt.upper) + "]");
+  require(std::fabs(opt.lower) <= kMaxLambdaMagnitude && std::fabs(opt.upper) <= kMaxLambdaMagnitude,
+          "the lambda search range [" + format_number(opt.lower) + ", " + format_number(opt.upper) +
+              "] reaches beyond +-" + format_number(kMaxLambdaMagnitude) +
+              ", where powers only follow the most extreme values; search within it, e.g. "
+              "[-3, 3] (the default) or [-10, 10]");
   require(opt.level > 0.0 && opt.level < 1.0,
           "the confidence level must lie strictly between 0 and 1; got " + format_number(opt.level));
 }
@@ -90,6 +92,19 @@ Side solve_side(G& g, double lhat, double g_hat, double h, double edge, double d
   return {x_in, false, false};
 }
 
+// An exact fit at lambda-hat: the profile climbs without bound toward it, so neither the
+// estimate nor its (zero-width) interval mean anything.
+void check_not_exact(const detail::LambdaProfile& prof, double lhat) {
+  if (prof.binned_serves(lhat)) return;  // the bins refuse fits with 1 - R^2 <= 1e-6
+  const double ratio = prof.unexplained_share(lhat);
+  if (ratio < kExactFitRatio)
+    throw Error(ErrorCode::Singular,
+                "the predictors fit the transformed response almost exactly near lambda = " +
+                    format_number(lhat) + " (1 - R^2 = " + format_number(ratio) +
+                    "): the likelihood climbs without bound there, so no power can be estimated; "
+                    "check that the response is not computed from the predictors");
+}
+
 LambdaEstimate search(const detail::LambdaProfile& prof, const LambdaOptions& opt) {
   LambdaEstimate est;
   est.family = prof.family();
@@ -97,27 +112,16 @@ LambdaEstimate search(const detail::LambdaProfile& prof, const LambdaOptions& op
   est.level = opt.level;
   est.lower = opt.lower;
   est.upper = opt.upper;
-  const auto neg = [&](double l) { return -prof.loglik(l); };
-
-  std::uintmax_t it = kMaxIter;
-  const std::pair<double, double> best =
-      boost::math::tools::brent_find_minima(neg, opt.lower, opt.upper, kMinimiserBits, it);
-  bool ok = it < kMaxIter;
-  double lhat = best.first, lmax = -best.second;
-  // Brent never evaluates the ends of the range; near one, compare with the end itself.
-  const double width = opt.upper - opt.lower, near = 1e-4 * width;
-  for (double edge : {opt.lower, opt.upper}) {
-    if (std::fabs(lhat - edge) < near) {
-      const double le = prof.loglik(edge);
-      if (le >= lmax) {
-        lhat = edge;
-        lmax = le;
-      }
-      est.at_bound = true;
-    }
-  }
+  // The one maximiser (lambda_maximise.hpp): Brent, with the range ends checked within a few of
+  // its own steps.
+  const ProfileMaximum best =
+      maximise_profile([&](double l) { return prof.loglik(l); }, opt.lower, opt.upper);
+  bool ok = best.converged;
+  const double lhat = best.lambda, lmax = best.loglik;
+  est.at_bound = best.at_bound;
   est.lambda = lhat;
   est.loglik = lmax;
+  if (prof.response()) check_not_exact(prof, lhat);
 
   // Interval: the lambdas whose profile lies within chi2_1(level) / 2 of the maximum.
   const double half_q = 0.5 * boost::math::quantile(boost::math::chi_squared(1.0), opt.level);
@@ -147,7 +151,7 @@ void curve_of(const detail::LambdaProfile& prof, const LambdaEstimate& est, std:
   std::vector<double> g = profile_grid(est, m);
   if (loglik) {
     loglik->resize(m);
-    for (std::size_t i = 0; i < m; ++i) (*loglik)[i] = prof.loglik(g[i]);
+    prof.loglik_batch(g.data(), m, loglik->data());
   }
   if (grid) *grid = std::move(g);
 }
@@ -155,7 +159,7 @@ void curve_of(const detail::LambdaProfile& prof, const LambdaEstimate& est, std:
 }  // namespace
 
 double convenient_lambda(double lambda, double lo, double hi) {
-  static const double kValues[] = {-2.0, -1.0, -0.5, 0.0, 0.5, 1.0, 2.0};
+  static const double kValues[] = {-2.0, -1.0, -0.5, -1.0 / 3.0, 0.0, 1.0 / 3.0, 0.5, 1.0, 2.0};
   if (std::isnan(lambda) || std::isnan(lo) || std::isnan(hi)) return math::kNaN;
   double best = math::kNaN;
   for (double v : kValues)
@@ -167,13 +171,15 @@ double convenient_lambda(double lambda, double lo, double hi) {
 LambdaEstimate estimate_lambda(const double* x, std::size_t n, Family family,
                                const LambdaOptions& opt) {
   check_options(opt);
-  const detail::LambdaProfile prof(x, n, family, "x");
+  const detail::LambdaProfile prof(x, n, family, "x", opt.weights);
   return search(prof, opt);
 }
 
 LambdaEstimate estimate_response_lambda(const double* y, const LeastSquares& design, Family family,
                                         const LambdaOptions& opt) {
   check_options(opt);
+  require(opt.weights == nullptr,
+          "weights cannot be combined with a prepared design; pass the predictors instead");
   const detail::LambdaProfile prof(y, design, family, "y");
   return with_design(search(prof, opt), prof);
 }
@@ -181,7 +187,7 @@ LambdaEstimate estimate_response_lambda(const double* y, const LeastSquares& des
 LambdaEstimate estimate_response_lambda(const double* y, const double* X, std::size_t n,
                                         std::size_t p, Family family, const LambdaOptions& opt) {
   check_options(opt);
-  const detail::LambdaProfile prof(y, X, n, p, family, "y");
+  const detail::LambdaProfile prof(y, X, n, p, family, "y", opt.weights);
   return with_design(search(prof, opt), prof);
 }
 
@@ -190,7 +196,7 @@ LambdaEstimate estimate_lambda_curve(const double* x, std::size_t n, Family fami
                                      std::vector<double>* grid, std::vector<double>* loglik) {
   check_options(opt);
   require(m >= 2, "a profile grid needs at least 2 points");
-  const detail::LambdaProfile prof(x, n, family, "x");
+  const detail::LambdaProfile prof(x, n, family, "x", opt.weights);
   const LambdaEstimate est = search(prof, opt);
   curve_of(prof, est, m, grid, loglik);
   return est;
@@ -203,7 +209,7 @@ LambdaEstimate estimate_response_lambda_curve(const double* y, const double* X, 
                                               std::vector<double>* loglik) {
   check_options(opt);
   require(m >= 2, "a profile grid needs at least 2 points");
-  const detail::LambdaProfile prof(y, X, n, p, family, "y");
+  const detail::LambdaProfile prof(y, X, n, p, family, "y", opt.weights);
   const LambdaEstimate est = with_design(search(prof, opt), prof);
   curve_of(prof, est, m, grid, loglik);
   return est;

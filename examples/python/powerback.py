@@ -56,7 +56,7 @@ class _PredictOptions(ctypes.Structure):
 
 class _LambdaOptions(ctypes.Structure):
     _fields_ = [("struct_size", _size_t), ("lower", ctypes.c_double), ("upper", ctypes.c_double),
-                ("level", ctypes.c_double)]
+                ("level", ctypes.c_double), ("weights", ctypes.POINTER(ctypes.c_double))]
 
 
 class _LambdaResult(ctypes.Structure):

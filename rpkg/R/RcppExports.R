@@ -65,16 +65,16 @@ rpwb_lambda_influence <- function(y, X, family, lower, upper, level, weights) {
     .Call(`_powerback_rpwb_lambda_influence`, y, X, family, lower, upper, level, weights)
 }
 
-rpwb_estimate_lambda <- function(x, family, lower, upper, level, n_grid) {
-    .Call(`_powerback_rpwb_estimate_lambda`, x, family, lower, upper, level, n_grid)
+rpwb_estimate_lambda <- function(x, family, lower, upper, level, n_grid, weights = NULL) {
+    .Call(`_powerback_rpwb_estimate_lambda`, x, family, lower, upper, level, n_grid, weights)
 }
 
-rpwb_estimate_response_lambda <- function(y, X, family, lower, upper, level, n_grid) {
-    .Call(`_powerback_rpwb_estimate_response_lambda`, y, X, family, lower, upper, level, n_grid)
+rpwb_estimate_response_lambda <- function(y, X, family, lower, upper, level, n_grid, weights = NULL, skip = 0L) {
+    .Call(`_powerback_rpwb_estimate_response_lambda`, y, X, family, lower, upper, level, n_grid, weights, skip)
 }
 
-rpwb_lambda_profile <- function(y, X, family, grid) {
-    .Call(`_powerback_rpwb_lambda_profile`, y, X, family, grid)
+rpwb_lambda_profile <- function(y, X, family, grid, weights = NULL) {
+    .Call(`_powerback_rpwb_lambda_profile`, y, X, family, grid, weights)
 }
 
 rpwb_model_new <- function(y, X, intercept, response, estimated, weights) {

@@ -243,8 +243,8 @@ BEGIN_RCPP
 END_RCPP
 }
 // rpwb_estimate_lambda
-Rcpp::List rpwb_estimate_lambda(Rcpp::NumericVector x, std::string family, double lower, double upper, double level, int n_grid);
-RcppExport SEXP _powerback_rpwb_estimate_lambda(SEXP xSEXP, SEXP familySEXP, SEXP lowerSEXP, SEXP upperSEXP, SEXP levelSEXP, SEXP n_gridSEXP) {
+Rcpp::List rpwb_estimate_lambda(Rcpp::NumericVector x, std::string family, double lower, double upper, double level, int n_grid, Rcpp::Nullable<Rcpp::NumericVector> weights);
+RcppExport SEXP _powerback_rpwb_estimate_lambda(SEXP xSEXP, SEXP familySEXP, SEXP lowerSEXP, SEXP upperSEXP, SEXP levelSEXP, SEXP n_gridSEXP, SEXP weightsSEXP) {
 BEGIN_RCPP
     Rcpp::RObject rcpp_result_gen;
     Rcpp::RNGScope rcpp_rngScope_gen;
@@ -254,13 +254,14 @@ BEGIN_RCPP
     Rcpp::traits::input_parameter< double >::type upper(upperSEXP);
     Rcpp::traits::input_parameter< double >::type level(levelSEXP);
     Rcpp::traits::input_parameter< int >::type n_grid(n_gridSEXP);
-    rcpp_result_gen = Rcpp::wrap(rpwb_estimate_lambda(x, family, lower, upper, level, n_grid));
+    Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::NumericVector> >::type weights(weightsSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_estimate_lambda(x, family, lower, upper, level, n_grid, weights));
     return rcpp_result_gen;
 END_RCPP
 }
 // rpwb_estimate_response_lambda
-Rcpp::List rpwb_estimate_response_lambda(Rcpp::NumericVector y, Rcpp::NumericMatrix X, std::string family, double lower, double upper, double level, int n_grid);
-RcppExport SEXP _powerback_rpwb_estimate_response_lambda(SEXP ySEXP, SEXP XSEXP, SEXP familySEXP, SEXP lowerSEXP, SEXP upperSEXP, SEXP levelSEXP, SEXP n_gridSEXP) {
+Rcpp::List rpwb_estimate_response_lambda(Rcpp::NumericVector y, Rcpp::NumericMatrix X, std::string family, double lower, double upper, double level, int n_grid, Rcpp::Nullable<Rcpp::NumericVector> weights, int skip);
+RcppExport SEXP _powerback_rpwb_estimate_response_lambda(SEXP ySEXP, SEXP XSEXP, SEXP familySEXP, SEXP lowerSEXP, SEXP upperSEXP, SEXP levelSEXP, SEXP n_gridSEXP, SEXP weightsSEXP, SEXP skipSEXP) {
 BEGIN_RCPP
     Rcpp::RObject rcpp_result_gen;
     Rcpp::RNGScope rcpp_rngScope_gen;
@@ -271,13 +272,15 @@ BEGIN_RCPP
     Rcpp::traits::input_parameter< double >::type upper(upperSEXP);
     Rcpp::traits::input_parameter< double >::type level(levelSEXP);
     Rcpp::traits::input_parameter< int >::type n_grid(n_gridSEXP);
-    rcpp_result_gen = Rcpp::wrap(rpwb_estimate_response_lambda(y, X, family, lower, upper, level, n_grid));
+    Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::NumericVector> >::type weights(weightsSEXP);
+    Rcpp::traits::input_parameter< int >::type skip(skipSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_estimate_response_lambda(y, X, family, lower, upper, level, n_grid, weights, skip));
     return rcpp_result_gen;
 END_RCPP
 }
 // rpwb_lambda_profile
-Rcpp::NumericVector rpwb_lambda_profile(Rcpp::NumericVector y, Rcpp::Nullable<Rcpp::NumericMatrix> X, std::string family, Rcpp::NumericVector grid);
-RcppExport SEXP _powerback_rpwb_lambda_profile(SEXP ySEXP, SEXP XSEXP, SEXP familySEXP, SEXP gridSEXP) {
+Rcpp::NumericVector rpwb_lambda_profile(Rcpp::NumericVector y, Rcpp::Nullable<Rcpp::NumericMatrix> X, std::string family, Rcpp::NumericVector grid, Rcpp::Nullable<Rcpp::NumericVector> weights);
+RcppExport SEXP _powerback_rpwb_lambda_profile(SEXP ySEXP, SEXP XSEXP, SEXP familySEXP, SEXP gridSEXP, SEXP weightsSEXP) {
 BEGIN_RCPP
     Rcpp::RObject rcpp_result_gen;
     Rcpp::RNGScope rcpp_rngScope_gen;
@@ -285,7 +288,8 @@ BEGIN_RCPP
     Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::NumericMatrix> >::type X(XSEXP);
     Rcpp::traits::input_parameter< std::string >::type family(familySEXP);
     Rcpp::traits::input_parameter< Rcpp::NumericVector >::type grid(gridSEXP);
-    rcpp_result_gen = Rcpp::wrap(rpwb_lambda_profile(y, X, family, grid));
+    Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::NumericVector> >::type weights(weightsSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_lambda_profile(y, X, family, grid, weights));
     return rcpp_result_gen;
 END_RCPP
 }
@@ -465,9 +469,9 @@ static const R_CallMethodDef CallEntries[] = {
     {"_powerback_rpwb_model_checks", (DL_FUNC) &_powerback_rpwb_model_checks, 1},
     {"_powerback_rpwb_model_effects", (DL_FUNC) &_powerback_rpwb_model_effects, 11},
     {"_powerback_rpwb_lambda_influence", (DL_FUNC) &_powerback_rpwb_lambda_influence, 7},
-    {"_powerback_rpwb_estimate_lambda", (DL_FUNC) &_powerback_rpwb_estimate_lambda, 6},
-    {"_powerback_rpwb_estimate_response_lambda", (DL_FUNC) &_powerback_rpwb_estimate_response_lambda, 7},
-    {"_powerback_rpwb_lambda_profile", (DL_FUNC) &_powerback_rpwb_lambda_profile, 4},
+    {"_powerback_rpwb_estimate_lambda", (DL_FUNC) &_powerback_rpwb_estimate_lambda, 7},
+    {"_powerback_rpwb_estimate_response_lambda", (DL_FUNC) &_powerback_rpwb_estimate_response_lambda, 9},
+    {"_powerback_rpwb_lambda_profile", (DL_FUNC) &_powerback_rpwb_lambda_profile, 5},
     {"_powerback_rpwb_model_new", (DL_FUNC) &_powerback_rpwb_model_new, 6},
     {"_powerback_rpwb_model_is_live", (DL_FUNC) &_powerback_rpwb_model_is_live, 1},
     {"_powerback_rpwb_model_summary", (DL_FUNC) &_powerback_rpwb_model_summary, 1},

@@ -2,6 +2,7 @@
 #include <catch2/catch.hpp>
 
 #include <cmath>
+#include <cstddef>
 #include <map>
 #include <string>
 #include <vector>
@@ -55,7 +56,7 @@ TEST_CASE("Box-Cox estimate through the ABI equals scipy boxcox", "[capi][lambda
   CHECK(r.lambda == Approx(reference("bc_gamma", "mle")).margin(1e-6));
   CHECK(r.conf_low == Approx(reference("bc_gamma", "ci_low")).margin(1e-7));
   CHECK(r.conf_high == Approx(reference("bc_gamma", "ci_high")).margin(1e-7));
-  CHECK(r.convenient == 0.0);  // interval (-0.063, 0.502) holds 0 and 0.5; 0 is nearer 0.214
+  CHECK(r.convenient == 1.0 / 3.0);  // interval (-0.063, 0.502) holds 0, 1/3, 1/2; 1/3 is nearest 0.214
   CHECK(r.converged == 1);
   CHECK(r.at_bound == 0);
   CHECK(r.low_open == 0);
@@ -143,4 +144,77 @@ TEST_CASE("ABI errors: statuses and messages", "[capi][lambda]") {
   const std::vector<double> ok = {1.0, 2.0, 5.0, 3.0};
   CHECK(pwb_estimate_lambda(ok.data(), 4, PWB_BOX_COX, nullptr, &r) == PWB_OK);
   CHECK(std::string(pwb_last_error()).empty());
+}
+
+TEST_CASE("C ABI: weights in the options, old struct sizes, rows of bad input as numbers", "[capi][lambda][weights]") {
+  const std::size_t n = 60;
+  std::vector<double> X(n), y(n), w(n);
+  for (std::size_t i = 0; i < n; ++i) {
+    X[i] = std::sin(0.37 * static_cast<double>(i)) * 2.0;
+    y[i] = std::exp(1.0 + 0.4 * X[i] + 0.3 * std::cos(1.3 * static_cast<double>(i)));
+    w[i] = 1.0 + static_cast<double>(i % 4);
+  }
+  pwb_lambda_options o;
+  pwb_lambda_options_init(&o);
+  CHECK(o.weights == nullptr);
+  pwb_lambda_result plain = fresh(), weighted = fresh(), old = fresh();
+  REQUIRE(pwb_estimate_response_lambda(y.data(), X.data(), n, 1, PWB_BOX_COX, &o, &plain) == PWB_OK);
+  o.weights = w.data();
+  REQUIRE(pwb_estimate_response_lambda(y.data(), X.data(), n, 1, PWB_BOX_COX, &o, &weighted) == PWB_OK);
+  CHECK(weighted.lambda != plain.lambda);
+  CHECK(weighted.n == n);
+  // A struct from a header older than the weights: accepted, the weights absent.
+  o.struct_size = offsetof(pwb_lambda_options, weights);
+  REQUIRE(pwb_estimate_response_lambda(y.data(), X.data(), n, 1, PWB_BOX_COX, &o, &old) == PWB_OK);
+  CHECK(old.lambda == plain.lambda);
+  o.struct_size = sizeof(pwb_lambda_options);
+  // The weighted profile at lambda-hat is the weighted estimate's log-likelihood.
+  double ll = 0.0;
+  REQUIRE(pwb_response_lambda_profile_weighted(y.data(), X.data(), n, 1, PWB_BOX_COX, w.data(),
+                                               &weighted.lambda, 1, &ll) == PWB_OK);
+  CHECK(ll == Approx(weighted.loglik).epsilon(1e-12));  // the same evaluation
+  REQUIRE(pwb_lambda_profile_weighted(y.data(), n, PWB_BOX_COX, nullptr, &weighted.lambda, 1, &ll) == PWB_OK);
+  // Zero weights drop rows: n counts the others.
+  w[0] = w[5] = 0.0;
+  y[5] = -1.0;  // never looked at
+  pwb_lambda_result dropped = fresh();
+  REQUIRE(pwb_estimate_response_lambda(y.data(), X.data(), n, 1, PWB_BOX_COX, &o, &dropped) == PWB_OK);
+  CHECK(dropped.n == n - 2);
+  CHECK(pwb_lambda_error_rows(nullptr, 0, nullptr) == 0);
+  // Rows at fault come back as numbers.
+  y[9] = 0.0;
+  y[30] = -2.0;
+  CHECK(pwb_estimate_response_lambda(y.data(), X.data(), n, 1, PWB_BOX_COX, &o, &dropped) == PWB_ERR_DOMAIN);
+  size_t rows[8] = {0};
+  int input = -5;
+  CHECK(pwb_lambda_error_rows(rows, 8, &input) == 2);
+  CHECK(input == PWB_LAMBDA_INPUT_RESPONSE);
+  CHECK(rows[0] == 9);
+  CHECK(rows[1] == 30);
+  y[9] = y[30] = 1.0;
+  w[17] = -1.0;
+  CHECK(pwb_estimate_response_lambda(y.data(), X.data(), n, 1, PWB_BOX_COX, &o, &dropped) == PWB_ERR_ARGUMENT);
+  CHECK(pwb_lambda_error_rows(rows, 1, &input) == 1);
+  CHECK(input == PWB_LAMBDA_INPUT_WEIGHTS);
+  CHECK(rows[0] == 17);
+  CHECK_THAT(pwb_last_error(), Contains("negative"));
+  w[17] = 1.0;
+  X[44] = NAN;
+  CHECK(pwb_estimate_response_lambda(y.data(), X.data(), n, 1, PWB_BOX_COX, &o, &dropped) == PWB_ERR_NONFINITE);
+  CHECK(pwb_lambda_error_rows(rows, 8, &input) == 1);
+  CHECK(input == PWB_LAMBDA_INPUT_PREDICTORS);
+  CHECK(rows[0] == 44);
+  // A failure not about rows clears them.
+  X[44] = 0.5;
+  o.lower = -1e300;
+  o.upper = 1e300;
+  CHECK(pwb_estimate_response_lambda(y.data(), X.data(), n, 1, PWB_BOX_COX, &o, &dropped) == PWB_ERR_ARGUMENT);
+  CHECK(pwb_lambda_error_rows(rows, 8, &input) == 0);
+  CHECK(input == PWB_LAMBDA_INPUT_NONE);
+  CHECK_THAT(pwb_last_error(), Contains("beyond +-100"));
+}
+
+TEST_CASE("C ABI: the convenient set holds the cube roots", "[capi][lambda]") {
+  CHECK(pwb_convenient_lambda(0.22, 0.084, 0.365) == 1.0 / 3.0);
+  CHECK(pwb_convenient_lambda(-0.3, -0.45, -0.2) == -1.0 / 3.0);
 }

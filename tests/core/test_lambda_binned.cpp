@@ -5,7 +5,7 @@
 #include <random>
 #include <vector>
 
-#include "powerback/lambda.hpp"
+#include "../../core/src/lambda_internal.hpp"
 
 using namespace powerback;
 

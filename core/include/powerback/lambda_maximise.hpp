@@ -5,7 +5,7 @@
 // Brent never evaluates the ends of the range, so when its answer lies within a few of its own
 // steps of an end, the end itself is evaluated and kept when it is at least as high; such an answer is
 // flagged at_bound. The leave-one-out estimates of influence.hpp go through this function; the
-// full-data search of lambda_search.cpp uses the same settings and is meant to call it too.
+// full-data search of lambda_search.cpp calls it too.
 #pragma once
 
 #include <functional>

@@ -1,0 +1,43 @@
+// One copy of a core lambda estimate into the C ABI's structs, for every entry point that
+// returns one (the lambda estimators, the screen's ML column, the influence summary).
+#pragma once
+
+#include "powerback.h"
+#include "powerback/lambda.hpp"
+
+namespace powerback {
+namespace capi {
+
+// The fields every struct reporting a lambda estimate shares, by the names pwb_lambda_result
+// gives them: lambda, conf_low, conf_high, loglik, at_bound.
+template <class T>
+void put_lambda_estimate(const LambdaEstimate& e, T* out) {
+  out->lambda = e.lambda;
+  out->conf_low = e.conf_low;
+  out->conf_high = e.conf_high;
+  out->loglik = e.loglik;
+  out->at_bound = e.at_bound ? 1 : 0;
+}
+
+// Every field of pwb_lambda_result (struct_size left as the caller set it).
+inline void write_lambda_result(const LambdaEstimate& e, pwb_lambda_result* out) {
+  put_lambda_estimate(e, out);
+  out->convenient = e.convenient;
+  out->converged = e.converged ? 1 : 0;
+  out->n = e.n;
+  out->low_open = e.low_open ? 1 : 0;
+  out->high_open = e.high_open ? 1 : 0;
+  out->rank = e.rank;
+  out->n_aliased = e.aliased.size();
+}
+
+// A pwb_lambda_result holding e (for structs that keep the same figures under other names).
+inline pwb_lambda_result lambda_result_of(const LambdaEstimate& e) {
+  pwb_lambda_result r;
+  pwb_lambda_result_init(&r);
+  write_lambda_result(e, &r);
+  return r;
+}
+
+}  // namespace capi
+}  // namespace powerback
