@@ -2,6 +2,7 @@
 #include <cstddef>
 
 #include "capi_internal.hpp"
+#include "capi_lambda_result.hpp"
 #include "capi_sizes.hpp"
 #include "powerback/influence.hpp"
 
@@ -44,11 +45,7 @@ pwb_status pwb_lambda_influence(const double* y, const double* X, size_t n, size
         weights = opt->weights;
     }
     const LambdaInfluence r = lambda_influence(y, X, n, p, fam, o, weights);
-    summary->lambda = r.full.lambda;
-    summary->conf_low = r.full.conf_low;
-    summary->conf_high = r.full.conf_high;
-    summary->loglik = r.full.loglik;
-    summary->at_bound = r.full.at_bound ? 1 : 0;
+    capi::put_lambda_estimate(r.full, summary);
     summary->converged = r.full.converged ? 1 : 0;
     summary->n = n;
     summary->n_outside = r.n_outside;
