@@ -66,34 +66,50 @@ Rcpp::NumericVector rpwb_model_vector(SEXP handle, int which) {
   return vec(out);
 }
 
-// interval: 0 none, 1 confidence, 2 prediction; center: 0 median, 1 mean; mean_method: 0
-// smearing, 1 normal. Rows of Xnew with NA come back NA with flag 2 (PWB_PRED_MISSING). With
-// se_fit, `se` holds the transformed-scale standard errors of the fit.
+namespace {
+
+// Options and caller-owned outputs of one prediction call. interval: 0 none, 1 confidence,
+// 2 prediction; center: 0 median, 1 mean; mean_method: 0 smearing, 1 normal.
+struct PredictBuffers {
+  PredictBuffers(std::size_t rows, double level, int interval, int center, int mean_method,
+                 bool transformed)
+      : fit(rows), lwr(rows), upr(rows), cut(rows), flags(rows) {
+    pwb_predict_options_init(&opt);
+    opt.level = level;
+    opt.interval = static_cast<pwb_interval>(interval);
+    opt.center = static_cast<pwb_center>(center);
+    opt.mean_method = static_cast<pwb_mean_method>(mean_method);
+    opt.transformed_scale = transformed ? 1 : 0;
+    opt.tail_mass = cut.data();
+  }
+  Rcpp::List as_list() const {
+    Rcpp::IntegerVector fl(flags.size());
+    for (std::size_t i = 0; i < flags.size(); ++i) fl[i] = static_cast<int>(flags[i]);
+    return Rcpp::List::create(Rcpp::Named("fit") = vec(fit), Rcpp::Named("lwr") = vec(lwr),
+                              Rcpp::Named("upr") = vec(upr), Rcpp::Named("flags") = fl,
+                              Rcpp::Named("cut_mass") = vec(cut));
+  }
+  pwb_predict_options opt;
+  std::vector<double> fit, lwr, upr, cut;
+  std::vector<unsigned> flags;
+};
+
+}  // namespace
+
+// Rows of Xnew with NA come back NA with flag 2 (PWB_PRED_MISSING); R's NA_real_ is a NaN,
+// which the library treats as a missing row. With se_fit, `se` holds the transformed-scale
+// standard errors of the fit.
 // [[Rcpp::export]]
 Rcpp::List rpwb_model_predict(SEXP handle, Rcpp::NumericMatrix Xnew, double level, int interval,
                               int center, int mean_method, bool transformed, bool se_fit) {
   const pwb_model* m = rpwb::model_of(handle);
-  pwb_predict_options o;
-  pwb_predict_options_init(&o);
-  o.level = level;
-  o.interval = static_cast<pwb_interval>(interval);
-  o.center = static_cast<pwb_center>(center);
-  o.mean_method = static_cast<pwb_mean_method>(mean_method);
-  o.transformed_scale = transformed ? 1 : 0;
   const std::size_t rows = static_cast<std::size_t>(Xnew.nrow());
   const std::size_t p = static_cast<std::size_t>(Xnew.ncol());
   const double* x = p > 0 && rows > 0 ? Xnew.begin() : nullptr;
-  // R's NA_real_ is a NaN, which the library treats as a missing row.
-  std::vector<double> fit(rows), lwr(rows), upr(rows), cut(rows);
-  std::vector<unsigned> flags(rows);
-  o.tail_mass = cut.data();
-  rpwb::check(pwb_model_predict(m, x, rows, p, &o, fit.data(), lwr.data(), upr.data(),
-                                flags.data()));
-  Rcpp::IntegerVector fl(rows);
-  for (std::size_t i = 0; i < rows; ++i) fl[i] = static_cast<int>(flags[i]);
-  Rcpp::List out = Rcpp::List::create(Rcpp::Named("fit") = vec(fit), Rcpp::Named("lwr") = vec(lwr),
-                                      Rcpp::Named("upr") = vec(upr), Rcpp::Named("flags") = fl,
-                                      Rcpp::Named("cut_mass") = vec(cut));
+  PredictBuffers b(rows, level, interval, center, mean_method, transformed);
+  rpwb::check(pwb_model_predict(m, x, rows, p, &b.opt, b.fit.data(), b.lwr.data(), b.upr.data(),
+                                b.flags.data()));
+  Rcpp::List out = b.as_list();
   if (se_fit) {
     std::vector<double> se(rows);
     rpwb::check(pwb_model_predict_se(m, x, rows, p, se.data()));
@@ -107,22 +123,9 @@ Rcpp::List rpwb_model_predict(SEXP handle, Rcpp::NumericMatrix Xnew, double leve
 Rcpp::List rpwb_model_predict_fitted(SEXP handle, double level, int interval, int center,
                                      int mean_method, bool transformed) {
   const pwb_model* m = rpwb::model_of(handle);
-  pwb_predict_options o;
-  pwb_predict_options_init(&o);
-  o.level = level;
-  o.interval = static_cast<pwb_interval>(interval);
-  o.center = static_cast<pwb_center>(center);
-  o.mean_method = static_cast<pwb_mean_method>(mean_method);
-  o.transformed_scale = transformed ? 1 : 0;
   const std::size_t rows = info_of(m).n;
-  std::vector<double> fit(rows), lwr(rows), upr(rows), cut(rows);
-  std::vector<unsigned> flags(rows);
-  o.tail_mass = cut.data();
-  rpwb::check(pwb_model_predict_fitted(m, &o, fit.data(), lwr.data(), upr.data(), flags.data(),
-                                       rows));
-  Rcpp::IntegerVector fl(rows);
-  for (std::size_t i = 0; i < rows; ++i) fl[i] = static_cast<int>(flags[i]);
-  return Rcpp::List::create(Rcpp::Named("fit") = vec(fit), Rcpp::Named("lwr") = vec(lwr),
-                            Rcpp::Named("upr") = vec(upr), Rcpp::Named("flags") = fl,
-                            Rcpp::Named("cut_mass") = vec(cut));
+  PredictBuffers b(rows, level, interval, center, mean_method, transformed);
+  rpwb::check(pwb_model_predict_fitted(m, &b.opt, b.fit.data(), b.lwr.data(), b.upr.data(),
+                                       b.flags.data(), rows));
+  return b.as_list();
 }
