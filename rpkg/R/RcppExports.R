@@ -57,8 +57,8 @@ rpwb_model_checks <- function(handle) {
     .Call(`_powerback_rpwb_model_checks`, handle)
 }
 
-rpwb_model_effects <- function(y, X, intercept, response, estimated, level, contrasts, elast_cols, elast_transforms, rows0, rows1) {
-    .Call(`_powerback_rpwb_model_effects`, y, X, intercept, response, estimated, level, contrasts, elast_cols, elast_transforms, rows0, rows1)
+rpwb_model_effects <- function(handle, level, contrasts, elast_cols, elast_transforms, rows0, rows1) {
+    .Call(`_powerback_rpwb_model_effects`, handle, level, contrasts, elast_cols, elast_transforms, rows0, rows1)
 }
 
 rpwb_lambda_influence <- function(y, X, family, lower, upper, level, weights) {

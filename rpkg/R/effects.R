@@ -67,10 +67,10 @@ effect_table <- function(model, values = NULL, at = NULL, per = c("auto", "unit"
     stop(sprintf("%s not among the model's predictors (%s)",
                  paste0("`", unknown, "`", collapse = ", "),
                  paste0("`", model$xvars, "`", collapse = ", ")), call. = FALSE)
-  xlev <- model$lm$xlevels
+  xlev <- model$xlevels
   base <- pwb_effect_base(model, at)
   log_resp <- pwb_log_type(model$response)
-  design <- pwb_design_parts(stats::model.matrix(model$lm))
+  design <- pwb_design_parts(stats::model.matrix(model))
   rows_of <- function(v, a, b) {
     nd <- base[rep(1L, 2L), , drop = FALSE]
     nd[[v]] <- if (v %in% names(xlev)) factor(c(a, b), levels = xlev[[v]]) else c(a, b)
@@ -135,8 +135,7 @@ effect_table <- function(model, values = NULL, at = NULL, per = c("auto", "unit"
   r0 <- pwb_stack(lapply(pick("change"), function(s) s$rows[1L, ]), k)
   r1 <- pwb_stack(lapply(pick("change"), function(s) s$rows[2L, ]), k)
   el <- pick("elasticity")
-  res <- rpwb_model_effects(model$y, design$X, design$intercept, pwb_spec_or_null(model$response),
-                            model$estimated, level, contr, as.integer(vapply(el, `[[`, 0L, "column")),
+  res <- rpwb_model_effects(pwb_handle(model), level, contr, as.integer(vapply(el, `[[`, 0L, "column")),
                             lapply(el, `[[`, "transform"), r0, r1)
   vals <- matrix(NA_real_, length(spec), 6L)
   vals[meas == "percent", ] <- res$percent
@@ -158,7 +157,7 @@ pwb_check_named_list <- function(x, what) {
 
 # One row of held values: medians of numeric variables, reference levels of factors, or `at`.
 pwb_effect_base <- function(model, at) {
-  xlev <- model$lm$xlevels
+  xlev <- model$xlevels
   base <- lapply(model$xvars, function(v) {
     if (!is.null(at[[v]])) return(at[[v]][1L])
     if (v %in% names(xlev)) return(factor(xlev[[v]][1L], levels = xlev[[v]]))

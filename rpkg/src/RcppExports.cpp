@@ -205,23 +205,19 @@ BEGIN_RCPP
 END_RCPP
 }
 // rpwb_model_effects
-Rcpp::List rpwb_model_effects(Rcpp::NumericVector y, Rcpp::NumericMatrix X, bool intercept, Rcpp::Nullable<Rcpp::List> response, int estimated, double level, Rcpp::NumericMatrix contrasts, Rcpp::IntegerVector elast_cols, Rcpp::List elast_transforms, Rcpp::NumericMatrix rows0, Rcpp::NumericMatrix rows1);
-RcppExport SEXP _powerback_rpwb_model_effects(SEXP ySEXP, SEXP XSEXP, SEXP interceptSEXP, SEXP responseSEXP, SEXP estimatedSEXP, SEXP levelSEXP, SEXP contrastsSEXP, SEXP elast_colsSEXP, SEXP elast_transformsSEXP, SEXP rows0SEXP, SEXP rows1SEXP) {
+Rcpp::List rpwb_model_effects(SEXP handle, double level, Rcpp::NumericMatrix contrasts, Rcpp::IntegerVector elast_cols, Rcpp::List elast_transforms, Rcpp::NumericMatrix rows0, Rcpp::NumericMatrix rows1);
+RcppExport SEXP _powerback_rpwb_model_effects(SEXP handleSEXP, SEXP levelSEXP, SEXP contrastsSEXP, SEXP elast_colsSEXP, SEXP elast_transformsSEXP, SEXP rows0SEXP, SEXP rows1SEXP) {
 BEGIN_RCPP
     Rcpp::RObject rcpp_result_gen;
     Rcpp::RNGScope rcpp_rngScope_gen;
-    Rcpp::traits::input_parameter< Rcpp::NumericVector >::type y(ySEXP);
-    Rcpp::traits::input_parameter< Rcpp::NumericMatrix >::type X(XSEXP);
-    Rcpp::traits::input_parameter< bool >::type intercept(interceptSEXP);
-    Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::List> >::type response(responseSEXP);
-    Rcpp::traits::input_parameter< int >::type estimated(estimatedSEXP);
+    Rcpp::traits::input_parameter< SEXP >::type handle(handleSEXP);
     Rcpp::traits::input_parameter< double >::type level(levelSEXP);
     Rcpp::traits::input_parameter< Rcpp::NumericMatrix >::type contrasts(contrastsSEXP);
     Rcpp::traits::input_parameter< Rcpp::IntegerVector >::type elast_cols(elast_colsSEXP);
     Rcpp::traits::input_parameter< Rcpp::List >::type elast_transforms(elast_transformsSEXP);
     Rcpp::traits::input_parameter< Rcpp::NumericMatrix >::type rows0(rows0SEXP);
     Rcpp::traits::input_parameter< Rcpp::NumericMatrix >::type rows1(rows1SEXP);
-    rcpp_result_gen = Rcpp::wrap(rpwb_model_effects(y, X, intercept, response, estimated, level, contrasts, elast_cols, elast_transforms, rows0, rows1));
+    rcpp_result_gen = Rcpp::wrap(rpwb_model_effects(handle, level, contrasts, elast_cols, elast_transforms, rows0, rows1));
     return rcpp_result_gen;
 END_RCPP
 }
@@ -467,7 +463,7 @@ static const R_CallMethodDef CallEntries[] = {
     {"_powerback_rpwb_cv_folds_by", (DL_FUNC) &_powerback_rpwb_cv_folds_by, 6},
     {"_powerback_rpwb_holdout_score", (DL_FUNC) &_powerback_rpwb_holdout_score, 5},
     {"_powerback_rpwb_model_checks", (DL_FUNC) &_powerback_rpwb_model_checks, 1},
-    {"_powerback_rpwb_model_effects", (DL_FUNC) &_powerback_rpwb_model_effects, 11},
+    {"_powerback_rpwb_model_effects", (DL_FUNC) &_powerback_rpwb_model_effects, 7},
     {"_powerback_rpwb_lambda_influence", (DL_FUNC) &_powerback_rpwb_lambda_influence, 7},
     {"_powerback_rpwb_estimate_lambda", (DL_FUNC) &_powerback_rpwb_estimate_lambda, 7},
     {"_powerback_rpwb_estimate_response_lambda", (DL_FUNC) &_powerback_rpwb_estimate_response_lambda, 9},

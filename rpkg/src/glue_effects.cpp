@@ -1,5 +1,5 @@
 // Rcpp glue for effects in original units: thin wrappers over pwb_model_effect_* of
-// powerback.h. The R side builds the contrasts and design rows; one model handle serves all.
+// powerback.h. The R side builds the contrasts and design rows; the model's live handle serves all.
 #include "glue_model_handle.h"
 
 #include <vector>
@@ -17,12 +17,10 @@ Rcpp::NumericVector effect_vec(const pwb_effect& e) {
 // of median changes. Each result is a matrix with columns estimate, se, lower, upper,
 // median0, median1.
 // [[Rcpp::export]]
-Rcpp::List rpwb_model_effects(Rcpp::NumericVector y, Rcpp::NumericMatrix X, bool intercept,
-                              Rcpp::Nullable<Rcpp::List> response, int estimated, double level,
-                              Rcpp::NumericMatrix contrasts, Rcpp::IntegerVector elast_cols,
+Rcpp::List rpwb_model_effects(SEXP handle, double level, Rcpp::NumericMatrix contrasts, Rcpp::IntegerVector elast_cols,
                               Rcpp::List elast_transforms, Rcpp::NumericMatrix rows0,
                               Rcpp::NumericMatrix rows1) {
-  rpwb::Model m(y, X, intercept, response, estimated);
+  const pwb_model* m = rpwb::model_of(handle);
   const std::size_t cols = static_cast<std::size_t>(contrasts.ncol());
   auto run = [&](int k, auto&& one) {
     Rcpp::NumericMatrix out(k, 6);
@@ -41,15 +39,15 @@ Rcpp::List rpwb_model_effects(Rcpp::NumericVector y, Rcpp::NumericMatrix X, bool
   };
   Rcpp::NumericMatrix pc = run(contrasts.nrow(), [&](int i, pwb_effect* e) {
     const std::vector<double> c = row_of(contrasts, i);
-    return pwb_model_effect_percent(m.get(), c.data(), cols, level, e);
+    return pwb_model_effect_percent(m, c.data(), cols, level, e);
   });
   Rcpp::NumericMatrix el = run(elast_cols.size(), [&](int i, pwb_effect* e) {
     rpwb::Transform t(Rcpp::List(elast_transforms[i]));
-    return pwb_model_effect_elasticity(m.get(), static_cast<size_t>(elast_cols[i]), t.get(), level, e);
+    return pwb_model_effect_elasticity(m, static_cast<size_t>(elast_cols[i]), t.get(), level, e);
   });
   Rcpp::NumericMatrix ch = run(rows0.nrow(), [&](int i, pwb_effect* e) {
     const std::vector<double> a = row_of(rows0, i), b = row_of(rows1, i);
-    return pwb_model_effect_median_change(m.get(), a.data(), b.data(), static_cast<size_t>(rows0.ncol()),
+    return pwb_model_effect_median_change(m, a.data(), b.data(), static_cast<size_t>(rows0.ncol()),
                                           level, e);
   });
   return Rcpp::List::create(Rcpp::Named("percent") = pc, Rcpp::Named("elasticity") = el,
