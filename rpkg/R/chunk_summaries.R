@@ -200,9 +200,23 @@ pwb_new_summary <- function(kind, bytes, design, n, n_missing, extra) {
             class = c(kind, "pwb_summary"))
 }
 
+# The chunk's response: finite, and positive for Box-Cox; an error names the chunk and its rows.
 pwb_chunk_check_response <- function(fr, design, family, chunk) {
-  tryCatch(pwb_lambda_check_values(fr$y, fr$rows, design$yname, family),
-           error = function(e) stop(sprintf("chunk %s: %s", chunk, conditionMessage(e)), call. = FALSE))
+  y <- fr$y
+  what <- design$yname
+  bad <- which(!is.finite(y))
+  msg <- if (length(bad)) {
+    sprintf("`%s` has %d infinite %s at %s %s: remove or replace them first", what, length(bad),
+            pwb_plural(length(bad), "value"), pwb_plural(length(bad), "row"),
+            pwb_format_rows(fr$rows[bad]))
+  } else if (family == "box-cox" && any(y <= 0)) {
+    bad <- which(y <= 0)
+    sprintf("Box-Cox needs %s > 0; %d %s <= 0 at %s %s: use Yeo-Johnson or a shift", what,
+            length(bad), pwb_plural(length(bad), "value"), pwb_plural(length(bad), "row"),
+            pwb_format_rows(fr$rows[bad]))
+  }
+  if (!is.null(msg)) stop(sprintf("chunk %s: %s", chunk, msg), call. = FALSE)
+  invisible()
 }
 
 # list(transform, lambda, estimated) for a fit summary's response.

@@ -70,12 +70,13 @@ effect_table <- function(model, values = NULL, at = NULL, per = c("auto", "unit"
   xlev <- model$xlevels
   base <- pwb_effect_base(model, at)
   log_resp <- pwb_log_type(model$response)
-  design <- pwb_design_parts(stats::model.matrix(model))
+  mm <- stats::model.matrix(model)
+  intercept <- ncol(mm) > 0L && colnames(mm)[1L] == "(Intercept)"
   rows_of <- function(v, a, b) {
     nd <- base[rep(1L, 2L), , drop = FALSE]
     nd[[v]] <- if (v %in% names(xlev)) factor(c(a, b), levels = xlev[[v]]) else c(a, b)
     X <- pwb_prepare_newdata(model, nd, "error")$X
-    if (design$intercept) X <- cbind(1, X)
+    if (intercept) X <- cbind(1, X)
     X
   }
   spec <- list()  # one entry per effect: term, effect text, measure, and what to compute
@@ -129,7 +130,7 @@ effect_table <- function(model, values = NULL, at = NULL, per = c("auto", "unit"
   }
   if (!length(spec)) stop("the model has no predictors to report effects for", call. = FALSE)
   meas <- vapply(spec, `[[`, "", "measure")
-  k <- ncol(design$X) + design$intercept
+  k <- ncol(mm)
   pick <- function(m) spec[meas == m]
   contr <- pwb_stack(lapply(pick("percent"), function(s) s$rows[2L, ] - s$rows[1L, ]), k)
   r0 <- pwb_stack(lapply(pick("change"), function(s) s$rows[1L, ]), k)
