@@ -68,7 +68,8 @@ typedef enum pwb_status {
   PWB_ERR_CONVERGENCE, /* an iterative method failed to converge */
   PWB_ERR_PARSE,       /* malformed text */
   PWB_ERR_MEMORY,      /* allocation failure or size overflow */
-  PWB_ERR_INTERNAL     /* a bug in powerback: please report it with the message */
+  PWB_ERR_INTERNAL,    /* a bug in powerback: please report it with the message */
+  PWB_ERR_CANCELLED    /* the calling thread's interrupt check (pwb_set_interrupt_check) said stop */
 } pwb_status;
 
 /* The enumerator's name, e.g. "PWB_ERR_DOMAIN"; "PWB_UNKNOWN_STATUS" for other values.
@@ -79,6 +80,20 @@ PWB_API const char *pwb_status_name(pwb_status s);
  * returns a pwb_status succeeded. Never NULL. The string stays valid until this thread's next
  * powerback call; copy it to keep it. */
 PWB_API const char *pwb_last_error(void);
+
+/* A caller's check, polled between the steps of long computations (rank detection over many
+ * columns, lambda searches, leave-one-out passes): return nonzero to stop. It receives the
+ * `user` pointer given to pwb_set_interrupt_check. It runs on the calling thread, inside the
+ * library call; it must return normally (no longjmp out of it, no C++ exception) and should be
+ * quick, since it may be called many times per second. */
+typedef int (*pwb_interrupt_check)(void *user);
+
+/* Installs check (with its user pointer) for the calling thread; NULL removes it. Other threads
+ * are not affected. While one is installed, a long computation whose check returns nonzero stops
+ * at the next step and its function returns PWB_ERR_CANCELLED (outputs unspecified, handles
+ * passed in unchanged, nothing leaked). The library keeps `user` but never dereferences it.
+ * Never fails; thread-safe (each thread has its own check). */
+PWB_API void pwb_set_interrupt_check(pwb_interrupt_check check, void *user);
 
 /* ------------------------------------------------------------------------------------------ */
 /* Transform families                                                                         */
