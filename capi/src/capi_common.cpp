@@ -89,7 +89,10 @@ void pwb_set_interrupt_check(pwb_interrupt_check check, void* user) {
   }
 }
 
-const char* pwb_family_name(pwb_family f) { return family_name(static_cast<Family>(f)); }
+const char* pwb_family_name(pwb_family f) {
+  const int code = capi::enum_value(f);
+  return family_is_valid(code) ? family_name(static_cast<Family>(code)) : "unknown";
+}
 
 pwb_status pwb_family_from_name(const char* name, pwb_family* out) {
   return capi::guarded([&] {

@@ -7,9 +7,10 @@ namespace {
 
 TransformSpec from_c(const pwb_transform_spec& s) {
   TransformSpec t;
-  if (!family_is_valid(static_cast<int>(s.family)))
-    throw Error(ErrorCode::Argument, "unknown family code " + std::to_string(static_cast<int>(s.family)));
-  t.family = static_cast<Family>(s.family);
+  const int code = capi::enum_value(s.family);
+  if (!family_is_valid(code))
+    throw Error(ErrorCode::Argument, "unknown family code " + std::to_string(code));
+  t.family = static_cast<Family>(code);
   t.lambda = s.lambda;
   t.shift = s.shift;
   t.reflect = s.reflect != 0;
