@@ -188,9 +188,11 @@ PWB_API pwb_status pwb_transform_log_derivative(const pwb_transform *t, const do
 
 /* One line of text about t: which = 0, what it needs of its input ("box-cox needs v > 0, where
  * v = x + shift"); 1, what it needs of the values it inverts; 2, the usual remedy for input
- * outside the domain; 3, the transform itself ("box-cox(lambda = 0.5) of (x + 1)"). Writes at most cap bytes including the terminating NUL into buf (buf may be NULL when
+ * outside the domain; 3, the transform itself ("box-cox(lambda = 0.5) of (x + 1)"); 4, the
+ * remedy for values outside the range (for Box-Cox with lambda < 0 it explains that a value at
+ * the limit -1/lambda means the precision of the original values is exhausted). Writes at most cap bytes including the terminating NUL into buf (buf may be NULL when
  * cap is 0) and stores the full length (without NUL) in *needed when needed is not NULL, like
- * snprintf. Errors: PWB_ERR_ARGUMENT for a NULL t or a which other than 0 to 3. */
+ * snprintf. Errors: PWB_ERR_ARGUMENT for a NULL t or a which other than 0 to 4. */
 PWB_API pwb_status pwb_transform_describe(const pwb_transform *t, int which, char *buf, size_t cap,
                                           size_t *needed);
 

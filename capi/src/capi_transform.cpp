@@ -87,11 +87,12 @@ pwb_status pwb_transform_describe(const pwb_transform* t, int which, char* buf, 
                                   size_t* needed) {
   return capi::guarded([&] {
     capi::need(t, "t");
-    if (which < 0 || which > 3) throw Error(ErrorCode::Argument, "which must be 0, 1, 2 or 3");
+    if (which < 0 || which > 4) throw Error(ErrorCode::Argument, "which must be 0, 1, 2, 3 or 4");
     const std::string text = which == 0   ? t->impl.domain_requirement()
                              : which == 1 ? t->impl.range_requirement()
                              : which == 2 ? t->impl.domain_remedy()
-                                          : t->impl.describe();
+                             : which == 3 ? t->impl.describe()
+                                          : t->impl.range_remedy();
     capi::copy_text(text, buf, cap, needed);
   });
 }

@@ -96,7 +96,11 @@ TEST_CASE("domain errors fill NaN, return PWB_ERR_DOMAIN and describe the rows",
   CHECK(std::string(buf) == "log needs v > 0");
   REQUIRE(pwb_transform_describe(h.t, 2, buf, 8, &needed) == PWB_OK);
   CHECK(std::strlen(buf) == 7);  // truncated like snprintf
-  CHECK(pwb_transform_describe(h.t, 4, buf, 8, &needed) == PWB_ERR_ARGUMENT);
+  CHECK(pwb_transform_describe(h.t, 5, buf, 8, &needed) == PWB_ERR_ARGUMENT);
+  CHECK(pwb_transform_describe(h.t, -1, buf, 8, &needed) == PWB_ERR_ARGUMENT);
+  char remedy[256];
+  REQUIRE(pwb_transform_describe(h.t, 4, remedy, sizeof remedy, nullptr) == PWB_OK);
+  CHECK(std::string(remedy) == "the value lies beyond the transform's range");
   char line[64];
   REQUIRE(pwb_transform_describe(h.t, 3, line, sizeof line, nullptr) == PWB_OK);
   CHECK(std::string(line) == "log of x");
@@ -186,4 +190,17 @@ TEST_CASE("overflow is PWB_ERR_DOMAIN and the power family's zero is a -Inf boun
   CHECK(d[1] == -INFINITY);
   CHECK(d[0] == Approx(std::log(0.5) - 0.5 * std::log(4.0)));  // |f'| = 0.5 |v|^-0.5
   CHECK(d[2] == Approx(d[0]));
+
+  // Box-Cox lambda = -2 at 1e9: z rounds onto the limit 0.5, and the inverse says why.
+  s = spec_of(PWB_BOX_COX, -2.0);
+  Handle neg;
+  REQUIRE(pwb_transform_new(&s, &neg.t) == PWB_OK);
+  const double far[1] = {1e9};
+  double zf[1], xf[1];
+  REQUIRE(pwb_transform_apply(neg.t, far, 1, zf) == PWB_OK);
+  CHECK(pwb_transform_invert(neg.t, zf, 1, xf) == PWB_ERR_DOMAIN);
+  CHECK_THAT(pwb_last_error(), Contains("precision"));
+  char remedy[256];
+  REQUIRE(pwb_transform_describe(neg.t, 4, remedy, sizeof remedy, nullptr) == PWB_OK);
+  CHECK_THAT(std::string(remedy), Contains("precision") && Contains("rescale"));
 }

@@ -9,22 +9,12 @@
 
 #include "powerback/errors.hpp"
 #include "powerback/transform.hpp"
+#include "test_support.hpp"
 
 using namespace powerback;
 using Catch::Matchers::Contains;
 
-namespace {
-Transform make(Family f, double lambda = math::kNaN, double shift = 0.0, bool reflect = false,
-               double pivot = math::kNaN) {
-  TransformSpec s;
-  s.family = f;
-  s.lambda = lambda;
-  s.shift = shift;
-  s.reflect = reflect;
-  s.pivot = pivot;
-  return Transform(s);
-}
-}  // namespace
+using pwbtest::make;
 
 TEST_CASE("finite input whose result overflows is a domain error, not Inf", "[transform][extremes]") {
   struct Case {
