@@ -63,27 +63,29 @@ TallFactor factor_tall(const double* X, std::size_t n, std::size_t p, bool add_i
   require(cols > 0, "the design has no columns");
   const Eigen::Index c = static_cast<Eigen::Index>(cols), c0 = add_intercept ? 1 : 0;
 
-  // Each step factors [R; block]: (c + rows) x c. R starts at zero, so the first step is the
-  // plain QR of the first block; fewer than c rows in all leave zero rows at the bottom of R.
+  // Each step factors [R; block]: (k + rows) x c, where R holds k = min(rows so far, c) rows
+  // (upper trapezoidal while fewer than c rows have been seen). The first step is the plain QR
+  // of the first block, so a wide design (n < c) costs one QR of n x c, never of c x c.
   const Eigen::VectorXd scale = tall_scales(X, n, p, add_intercept);
-  Eigen::MatrixXd r_all = Eigen::MatrixXd::Zero(c, c);
+  Eigen::MatrixXd r_all(0, c);
   Eigen::MatrixXd work;
   for (std::size_t r0 = 0; r0 < n; r0 += kTallBlockRows) {
     const std::size_t rows = std::min(kTallBlockRows, n - r0);
-    const Eigen::Index nr = static_cast<Eigen::Index>(rows);
-    if (work.rows() != c + nr) work.resize(c + nr, c);
-    if (add_intercept) work.block(c, 0, nr, 1).setOnes();
+    const Eigen::Index nr = static_cast<Eigen::Index>(rows), k = r_all.rows();
+    if (work.rows() != k + nr) work.resize(k + nr, c);
+    if (add_intercept) work.block(k, 0, nr, 1).setOnes();
     for (std::size_t j = 0; j < p; ++j)
-      work.block(c, static_cast<Eigen::Index>(j) + c0, nr, 1) =
+      work.block(k, static_cast<Eigen::Index>(j) + c0, nr, 1) =
           Eigen::Map<const Eigen::VectorXd>(X + j * n + r0, nr);
     if (!work.bottomRows(nr).allFinite()) non_finite_at(X, n, p, r0, rows);
     if (visit) visit(r0, work.bottomRows(nr));
     work.bottomRows(nr).array().rowwise() *= scale.transpose().array();
-    work.topRows(c) = r_all;
+    work.topRows(k) = r_all;
     poll_cancel();
     // Factored in place (no copy of the block); R is left in the upper triangle.
     const Eigen::HouseholderQR<Eigen::Ref<Eigen::MatrixXd>> qr(work);
-    r_all = work.topRows(c).triangularView<Eigen::Upper>();
+    const Eigen::Index k_new = std::min<Eigen::Index>(k + nr, c);
+    r_all = work.topRows(k_new).triangularView<Eigen::Upper>();
   }
 
   TallFactor out;
