@@ -125,7 +125,7 @@ RankedQR apply_rank_rule(const Eigen::MatrixXd& a, const Eigen::VectorXd& norms,
   const Index rest = k - bad - 1;
   Eigen::MatrixXd w(rows, rest);
   for (Index i = 0; i < rest; ++i) w.col(i) = a.col(static_cast<Index>(cand[static_cast<std::size_t>(bad + 1 + i)]));
-  if (bad > 0) {
+  if (bad > 0 && rest > 0) {  // (an empty w has no data to offset into)
     HouseholderQ h(out.packed, out.hcoeffs);
     h.setLength(bad);
     w.applyOnTheLeft(h.adjoint());

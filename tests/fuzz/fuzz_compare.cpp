@@ -27,7 +27,7 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
     const std::vector<double> y = in.values(n), X = in.values(n * p);
     pwb_influence_options opt;
     pwb_influence_options_init(&opt);
-    opt.family = in.family();
+    pwbfuzz::set_enum(opt.family, in.family_code());
     if (in.byte() & 1) {
       opt.lower = in.value();
       opt.upper = in.value();

@@ -53,15 +53,14 @@ class Input {
     return v;
   }
 
-  // A family: usually a valid one, sometimes any int (written through its bytes, as a C caller
-  // could).
-  pwb_family family() {
+  // A family code: usually a valid one, sometimes any int.
+  int family_code() {
     const std::uint8_t tag = byte();
-    int code = tag < 230 ? tag % 10 : any_int();
-    pwb_family f;
-    std::memcpy(&f, &code, sizeof f);
-    return f;
+    return tag < 230 ? tag % 10 : any_int();
   }
+  // A valid family, for parameters passed by value (loading an out-of-range value into an enum
+  // variable is itself undefined in C++, so only struct fields get arbitrary codes).
+  pwb_family family() { return static_cast<pwb_family>(byte() % 10); }
 
  private:
   const std::uint8_t* p_;
@@ -81,6 +80,13 @@ inline void check_status(pwb_status st) {
   if (code < PWB_OK || code > PWB_ERR_CANCELLED) fail("status outside the enumeration");
   if (st == PWB_ERR_INTERNAL) fail("PWB_ERR_INTERNAL (an exception the library did not expect)");
   if (st != PWB_OK && pwb_last_error()[0] == '\0') fail("a failure without a message");
+}
+
+// Writes any int into an enum field through its bytes, as a C caller may.
+template <class E>
+void set_enum(E& field, int code) {
+  static_assert(sizeof(E) == sizeof(int), "C enums are int-sized");
+  std::memcpy(&field, &code, sizeof code);
 }
 
 }  // namespace pwbfuzz

@@ -8,10 +8,8 @@
 
 namespace {
 template <class E>
-E as_enum(int code) {
-  E e;
-  std::memcpy(&e, &code, sizeof e);
-  return e;
+E valid_enum(int code) {
+  return static_cast<E>(code);  // code within the enumerators
 }
 }  // namespace
 
@@ -23,7 +21,7 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
   if (in.byte() & 1) {
     pwb_transform_spec s;
     pwb_transform_spec_init(&s);
-    s.family = in.family();
+    pwbfuzz::set_enum(s.family, in.family_code());
     s.lambda = in.value();
     if (pwb_transform_new(&s, &t) != PWB_OK) t = nullptr;
   }
@@ -48,16 +46,16 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
   std::vector<int> aliased(info.columns);
   pwbfuzz::check_status(pwb_model_coefficients(m, coef.data(), se.data(), aliased.data(), info.columns));
   for (int which = 0; which < 4; ++which)
-    pwbfuzz::check_status(pwb_model_vector_get(m, as_enum<pwb_model_vector>(which), v.data(), n));
+    pwbfuzz::check_status(pwb_model_vector_get(m, valid_enum<pwb_model_vector>(which), v.data(), n));
 
   const std::size_t rows = in.size(8);
   const std::vector<double> Xnew = in.values(rows * p);
   pwb_predict_options po;
   pwb_predict_options_init(&po);
   po.level = in.byte() < 220 ? 0.5 + in.byte() / 520.0 : in.value();
-  po.interval = as_enum<pwb_interval>(in.byte() < 240 ? in.byte() % 3 : in.any_int());
-  po.center = as_enum<pwb_center>(in.byte() % 2);
-  po.mean_method = as_enum<pwb_mean_method>(in.byte() % 2);
+  pwbfuzz::set_enum(po.interval, in.byte() < 240 ? in.byte() % 3 : in.any_int());
+  pwbfuzz::set_enum(po.center, in.byte() < 240 ? in.byte() % 2 : in.any_int());
+  pwbfuzz::set_enum(po.mean_method, in.byte() < 240 ? in.byte() % 2 : in.any_int());
   po.transformed_scale = in.byte() & 1;
   std::vector<double> fit(rows), lwr(rows), upr(rows);
   std::vector<unsigned> flags(rows);

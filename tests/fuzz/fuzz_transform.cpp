@@ -9,7 +9,7 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
   pwbfuzz::Input in(data, size);
   pwb_transform_spec spec;
   pwb_transform_spec_init(&spec);
-  spec.family = in.family();
+  pwbfuzz::set_enum(spec.family, in.family_code());
   spec.lambda = in.value();
   spec.shift = in.byte() < 128 ? 0.0 : in.value();
   spec.reflect = in.byte() & 1;
