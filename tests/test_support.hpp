@@ -32,3 +32,27 @@ std::vector<double> quantiles(const Dist& d, std::size_t n) {
 inline bool same_bits(double a, double b) { return std::memcmp(&a, &b, sizeof a) == 0; }
 
 }  // namespace pwbtest
+
+// For the tests of the core (the C ABI tests do not see the core's headers).
+#if defined(__has_include)
+#if __has_include("powerback/transform.hpp")
+#include "powerback/transform.hpp"
+
+namespace pwbtest {
+
+// A transform from its constants; Error(Argument) for an invalid spec, as Transform's own.
+inline powerback::Transform make(powerback::Family f, double lambda = powerback::math::kNaN,
+                                 double shift = 0.0, bool reflect = false,
+                                 double pivot = powerback::math::kNaN) {
+  powerback::TransformSpec s;
+  s.family = f;
+  s.lambda = lambda;
+  s.shift = shift;
+  s.reflect = reflect;
+  s.pivot = pivot;
+  return powerback::Transform(s);
+}
+
+}  // namespace pwbtest
+#endif
+#endif

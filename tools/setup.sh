@@ -10,6 +10,7 @@ packages=(
   r-cran-testthat r-cran-roxygen2 r-cran-knitr r-cran-rmarkdown
   pandoc qpdf
   python3 python3-scipy python3-numpy
+  clang libclang-rt-dev
 )
 
 missing=()

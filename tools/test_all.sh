@@ -1,7 +1,10 @@
 #!/usr/bin/env bash
 # Run every test of powerback: build the C++ core and C ABI, run ctest (Catch2 tests, the C99
-# header program, the exported-symbol check, fixture provenance checks), then build the R
-# package and run R CMD check --as-cran on the tarball (which runs the testthat suite).
+# header program, the exported-symbol check, fixture provenance checks, the layering check),
+# run the C++ and C tests again in a second tree built with AddressSanitizer and
+# UndefinedBehaviorSanitizer (build-asan), run each libFuzzer target briefly when clang is
+# present, then build the R package and run R CMD check --as-cran on the tarball (which runs
+# the testthat suite).
 # Fails on any test failure and on any R CMD check ERROR or WARNING.
 #
 #   tools/test_all.sh            build tree in ./build (override with PWB_BUILD_DIR)
@@ -22,6 +25,36 @@ cmake --build "$build" -j "$jobs" >"$build/build.log" 2>&1 || { tail -n 60 "$bui
 set +e
 (cd "$build" && ctest --output-on-failure -j "$jobs") | tee "$build/ctest.log"
 ctest_rc=${PIPESTATUS[0]}
+set -e
+
+# The same C++ and C tests built with AddressSanitizer and UndefinedBehaviorSanitizer, in a
+# second tree (only the test programs are built; the R package and install tests are not).
+echo "== Sanitizers: ctest of the C++ and C tests under -DPWB_SANITIZE=address,undefined"
+asan=${PWB_ASAN_BUILD_DIR:-$root/build-asan}
+launcher=()
+if command -v ccache >/dev/null; then launcher=(-DCMAKE_CXX_COMPILER_LAUNCHER=ccache -DCMAKE_C_COMPILER_LAUNCHER=ccache); fi
+mkdir -p "$asan"
+san_rc=0
+cmake -S "$root" -B "$asan" -DCMAKE_BUILD_TYPE=RelWithDebInfo -DPWB_WARNINGS_AS_ERRORS=ON \
+  -DPWB_SANITIZE=address,undefined "${launcher[@]}" >"$asan/cmake.log" 2>&1 || { cat "$asan/cmake.log"; san_rc=1; }
+if [ "$san_rc" -eq 0 ]; then
+  cmake --build "$asan" -j "$jobs" --target pwb_core_tests pwb_capi_tests pwb_c99_header_check \
+    pwb_cxx11_header_check pwb_cxx17_header_check pwb_example_c >"$asan/build.log" 2>&1 \
+    || { tail -n 60 "$asan/build.log"; san_rc=1; }
+fi
+if [ "$san_rc" -eq 0 ]; then
+  set +e
+  (cd "$asan" && ASAN_OPTIONS=detect_leaks=1 UBSAN_OPTIONS=print_stacktrace=1 \
+     ctest --output-on-failure -j "$jobs" -R '^(core|capi|c|example)\.' -E '^example\.(python|r_)') | tee "$asan/ctest.log"
+  san_rc=${PIPESTATUS[0]}
+  set -e
+fi
+
+# libFuzzer targets (clang only; skipped with a note without it): a short run of each.
+echo "== Fuzz smoke run (tests/fuzz, ${PWB_FUZZ_SECONDS:-20} s per target)"
+set +e
+bash tools/fuzz_smoke.sh "${PWB_FUZZ_SECONDS:-20}"
+fuzz_rc=$?
 set -e
 
 echo "== R package (R CMD build + R CMD check --as-cran)"
@@ -63,6 +96,8 @@ echo
 echo "ctest: $((c_total - c_failed)) of $c_total passed; testthat: $testthat_line; R CMD check: $status_line"
 rc=0
 [ "$ctest_rc" -eq 0 ] || { echo "FAILED: ctest"; rc=1; }
+[ "$san_rc" -eq 0 ] || { echo "FAILED: ctest under the sanitizers ($asan/ctest.log)"; rc=1; }
+[ "$fuzz_rc" -eq 0 ] || { echo "FAILED: the fuzz smoke run"; rc=1; }
 [ "$ref_rc" -eq 0 ] || { echo "FAILED: the R reference of the Python example"; rc=1; c_failed=$((c_failed + 1)); }
 [ "$check_rc" -eq 0 ] || { echo "FAILED: R CMD check exited $check_rc"; rc=1; }
 [ -n "$status_line" ] || { echo "FAILED: no R CMD check status"; rc=1; }

@@ -1,5 +1,6 @@
 // Version, status names, per-thread error text, family names.
 #include "capi_internal.hpp"
+#include "powerback/cancel.hpp"
 #include "powerback/transform.hpp"
 
 #define PWB_STR2(x) #x
@@ -31,6 +32,7 @@ pwb_status status_of(ErrorCode code) noexcept {
     case ErrorCode::Parse: return PWB_ERR_PARSE;
     case ErrorCode::Memory: return PWB_ERR_MEMORY;
     case ErrorCode::Internal: return PWB_ERR_INTERNAL;
+    case ErrorCode::Cancelled: return PWB_ERR_CANCELLED;
   }
   return PWB_ERR_INTERNAL;
 }
@@ -68,13 +70,29 @@ const char* pwb_status_name(pwb_status s) {
     case PWB_ERR_PARSE: return "PWB_ERR_PARSE";
     case PWB_ERR_MEMORY: return "PWB_ERR_MEMORY";
     case PWB_ERR_INTERNAL: return "PWB_ERR_INTERNAL";
+    case PWB_ERR_CANCELLED: return "PWB_ERR_CANCELLED";
   }
   return "PWB_UNKNOWN_STATUS";
 }
 
 const char* pwb_last_error(void) { return capi::g_last_error.c_str(); }
 
-const char* pwb_family_name(pwb_family f) { return family_name(static_cast<Family>(f)); }
+void pwb_set_interrupt_check(pwb_interrupt_check check, void* user) {
+  // Installing cannot fail short of memory for a small closure; then the thread keeps no check.
+  try {
+    if (check)
+      set_cancel_check([check, user]() { return check(user) != 0; });
+    else
+      set_cancel_check(CancelCheck());
+  } catch (...) {
+    set_cancel_check(CancelCheck());
+  }
+}
+
+const char* pwb_family_name(pwb_family f) {
+  const int code = capi::enum_value(f);
+  return family_is_valid(code) ? family_name(static_cast<Family>(code)) : "unknown";
+}
 
 pwb_status pwb_family_from_name(const char* name, pwb_family* out) {
   return capi::guarded([&] {

@@ -62,6 +62,16 @@ void need_sized(const T* p, const char* arg, const char* type) {
   need_struct(p->struct_size, sizeof(T), type);
 }
 
+// A C caller may pass any int where an enum is declared; reading it as the C++ enum type would
+// be undefined for values outside the enumerators, so its bytes are read as an int.
+template <class E>
+int enum_value(const E& e) noexcept {
+  static_assert(sizeof(E) == sizeof(int), "C enums are int-sized");
+  int v;
+  std::memcpy(&v, &e, sizeof v);
+  return v;
+}
+
 // snprintf-like copy of text into a caller's buffer.
 void copy_text(const std::string& text, char* buf, std::size_t cap, std::size_t* needed);
 

@@ -7,9 +7,10 @@ namespace {
 
 TransformSpec from_c(const pwb_transform_spec& s) {
   TransformSpec t;
-  if (!family_is_valid(static_cast<int>(s.family)))
-    throw Error(ErrorCode::Argument, "unknown family code " + std::to_string(static_cast<int>(s.family)));
-  t.family = static_cast<Family>(s.family);
+  const int code = capi::enum_value(s.family);
+  if (!family_is_valid(code))
+    throw Error(ErrorCode::Argument, "unknown family code " + std::to_string(code));
+  t.family = static_cast<Family>(code);
   t.lambda = s.lambda;
   t.shift = s.shift;
   t.reflect = s.reflect != 0;
@@ -86,11 +87,12 @@ pwb_status pwb_transform_describe(const pwb_transform* t, int which, char* buf, 
                                   size_t* needed) {
   return capi::guarded([&] {
     capi::need(t, "t");
-    if (which < 0 || which > 3) throw Error(ErrorCode::Argument, "which must be 0, 1, 2 or 3");
+    if (which < 0 || which > 4) throw Error(ErrorCode::Argument, "which must be 0, 1, 2, 3 or 4");
     const std::string text = which == 0   ? t->impl.domain_requirement()
                              : which == 1 ? t->impl.range_requirement()
                              : which == 2 ? t->impl.domain_remedy()
-                                          : t->impl.describe();
+                             : which == 3 ? t->impl.describe()
+                                          : t->impl.range_remedy();
     capi::copy_text(text, buf, cap, needed);
   });
 }

@@ -6,6 +6,7 @@
 #include <limits>
 #include <string>
 
+#include "powerback/cancel.hpp"
 #include "powerback/errors.hpp"
 
 namespace powerback {
@@ -43,45 +44,116 @@ LeastSquares::LeastSquares(const Eigen::MatrixXd& design, double tol) : design_(
   factor(tol);
 }
 
+namespace {
+using HouseholderQ = Eigen::HouseholderSequence<Eigen::MatrixXd, Eigen::VectorXd>;
+}  // namespace
+
 void LeastSquares::factor(double tol) {
   const Eigen::Index p = design_.cols();
+  const Eigen::VectorXd s = detail::column_scales(design_);
+  const Eigen::MatrixXd scaled = design_ * s.asDiagonal();
   Eigen::VectorXd norms(p);
-  for (Eigen::Index j = 0; j < p; ++j) norms(j) = design_.col(j).norm();
-  detail::apply_rank_rule(design_, norms, tol, qr_, kept_, aliased_);
+  for (Eigen::Index j = 0; j < p; ++j) norms(j) = scaled.col(j).norm();
+  detail::RankedQR q = detail::apply_rank_rule(scaled, norms, tol);
+  kept_ = std::move(q.kept);
+  aliased_ = std::move(q.aliased);
+  packed_ = std::move(q.packed);
+  hcoeffs_ = std::move(q.hcoeffs);
   const Eigen::Index k = static_cast<Eigen::Index>(kept_.size());
-  r_ = qr_.matrixQR().topLeftCorner(k, k).triangularView<Eigen::Upper>();
-  r_inv_ = r_.triangularView<Eigen::Upper>().solve(Eigen::MatrixXd::Identity(k, k));
+  kscale_.resize(k);
+  for (Eigen::Index i = 0; i < k; ++i) kscale_(i) = s(static_cast<Eigen::Index>(kept_[static_cast<std::size_t>(i)]));
+  // The scaled design is X S, so its R is R S: R = R_s S^-1 and R^-1 = S R_s^-1 (exact scalings).
+  const Eigen::MatrixXd rs = packed_.topLeftCorner(k, k).triangularView<Eigen::Upper>();
+  r_ = rs * kscale_.cwiseInverse().asDiagonal();
+  r_inv_ = kscale_.asDiagonal() *
+           rs.triangularView<Eigen::Upper>().solve(Eigen::MatrixXd::Identity(k, k));
 }
 
 namespace detail {
 
-void apply_rank_rule(const Eigen::MatrixXd& a, const Eigen::VectorXd& norms, double tol,
-                     Eigen::HouseholderQR<Eigen::MatrixXd>& qr, std::vector<std::size_t>& kept,
-                     std::vector<std::size_t>& aliased) {
-  const Eigen::Index rows = a.rows(), p = a.cols();
-  std::vector<std::size_t> candidates;
-  for (Eigen::Index j = 0; j < p; ++j) {
-    if (norms(j) > 0) candidates.push_back(static_cast<std::size_t>(j));
-    else aliased.push_back(static_cast<std::size_t>(j));
+Eigen::VectorXd column_scales(const Eigen::MatrixXd& a) {
+  Eigen::VectorXd s(a.cols());
+  for (Eigen::Index j = 0; j < a.cols(); ++j) {
+    const double m = a.col(j).cwiseAbs().maxCoeff();
+    int e = 0;
+    if (m > 0 && std::isfinite(m)) std::frexp(m, &e);  // m = f * 2^e, f in [0.5, 1)
+    s(j) = std::ldexp(1.0, -e);
   }
-  // One refactorisation per alias.
-  for (;;) {
-    if (candidates.empty()) throw Error(ErrorCode::Singular, "every column of the design is zero");
-    const Eigen::Index k = static_cast<Eigen::Index>(candidates.size());
-    Eigen::MatrixXd ak(rows, k);
-    for (Eigen::Index i = 0; i < k; ++i) ak.col(i) = a.col(static_cast<Eigen::Index>(candidates[i]));
-    qr.compute(ak);
-    Eigen::Index bad = -1;
-    const Eigen::Index m = std::min(k, rows);
-    for (Eigen::Index i = 0; i < m && bad < 0; ++i)
-      if (!(std::fabs(qr.matrixQR()(i, i)) >= tol * norms(static_cast<Eigen::Index>(candidates[i])))) bad = i;
-    if (bad < 0 && k > rows) bad = rows;  // `rows` independent columns already span every column
-    if (bad < 0) break;
-    aliased.push_back(candidates[static_cast<std::size_t>(bad)]);
-    candidates.erase(candidates.begin() + bad);
+  return s;
+}
+
+RankedQR apply_rank_rule(const Eigen::MatrixXd& a, const Eigen::VectorXd& norms, double tol) {
+  using Eigen::Index;
+  const Index rows = a.rows(), p = a.cols();
+  RankedQR out;
+  std::vector<std::size_t> cand;
+  for (Index j = 0; j < p; ++j) {
+    if (norms(j) > 0) cand.push_back(static_cast<std::size_t>(j));
+    else out.aliased.push_back(static_cast<std::size_t>(j));
   }
-  std::sort(aliased.begin(), aliased.end());
-  kept = candidates;
+  if (cand.empty()) throw Error(ErrorCode::Singular, "every column of the design is zero");
+  const Index k = static_cast<Index>(cand.size()), m = std::min(k, rows);
+
+  // Blocked QR of every candidate; its first i reflectors are those of the first i columns alone.
+  Eigen::MatrixXd ak(rows, k);
+  for (Index i = 0; i < k; ++i) ak.col(i) = a.col(static_cast<Index>(cand[static_cast<std::size_t>(i)]));
+  const Eigen::HouseholderQR<Eigen::Ref<Eigen::MatrixXd>> qr(ak);
+  Index bad = m;
+  for (Index i = 0; i < m; ++i)
+    if (!(std::fabs(ak(i, i)) >= tol * norms(static_cast<Index>(cand[static_cast<std::size_t>(i)])))) {
+      bad = i;
+      break;
+    }
+  if (bad == m) {  // the common case: the first min(rows, k) candidates are kept
+    out.kept.assign(cand.begin(), cand.begin() + m);
+    out.aliased.insert(out.aliased.end(), cand.begin() + m, cand.end());
+    out.packed = ak.leftCols(m);
+    out.hcoeffs = qr.hCoeffs().head(m);
+    std::sort(out.aliased.begin(), out.aliased.end());
+    return out;
+  }
+
+  // Column `bad` is aliased. The candidates after it get the first `bad` reflectors applied, then
+  // are factored one at a time with Eigen's Householder reflectors, each aliased one skipped.
+  const Index cap = std::min(rows, k - 1);
+  out.packed.resize(rows, cap);
+  out.hcoeffs.resize(cap);
+  out.packed.leftCols(bad) = ak.leftCols(bad);
+  out.hcoeffs.head(bad) = qr.hCoeffs().head(bad);
+  out.kept.assign(cand.begin(), cand.begin() + bad);
+  out.aliased.push_back(cand[static_cast<std::size_t>(bad)]);
+  const Index rest = k - bad - 1;
+  Eigen::MatrixXd w(rows, rest);
+  for (Index i = 0; i < rest; ++i) w.col(i) = a.col(static_cast<Index>(cand[static_cast<std::size_t>(bad + 1 + i)]));
+  if (bad > 0 && rest > 0) {  // (an empty w has no data to offset into)
+    HouseholderQ h(out.packed, out.hcoeffs);
+    h.setLength(bad);
+    w.applyOnTheLeft(h.adjoint());
+  }
+  Eigen::VectorXd workspace(std::max<Index>(rest, 1));
+  Index l = bad;  // columns kept so far
+  for (Index j = 0; j < rest; ++j) {
+    const std::size_t col = cand[static_cast<std::size_t>(bad + 1 + j)];
+    poll_cancel();
+    if (l == rows || !(w.col(j).tail(rows - l).norm() >= tol * norms(static_cast<Index>(col)))) {
+      out.aliased.push_back(col);
+      continue;
+    }
+    double tau = 0, beta = 0;
+    w.col(j).tail(rows - l).makeHouseholderInPlace(tau, beta);
+    w(l, j) = beta;
+    if (j + 1 < rest)
+      w.block(l, j + 1, rows - l, rest - j - 1)
+          .applyHouseholderOnTheLeft(w.col(j).tail(rows - l - 1), tau, workspace.data());
+    out.packed.col(l) = w.col(j);
+    out.hcoeffs(l) = tau;
+    out.kept.push_back(col);
+    ++l;
+  }
+  out.packed.conservativeResize(rows, l);
+  out.hcoeffs.conservativeResize(l);
+  std::sort(out.aliased.begin(), out.aliased.end());
+  return out;
 }
 
 }  // namespace detail
@@ -91,7 +163,7 @@ Eigen::VectorXd LeastSquares::rotate(const Eigen::VectorXd& y) const {
                                           " values but the design has " +
                                           std::to_string(design_.rows()) + " rows");
   Eigen::VectorXd w = y;
-  w.applyOnTheLeft(qr_.householderQ().adjoint());
+  w.applyOnTheLeft(HouseholderQ(packed_, hcoeffs_).adjoint());
   return w;
 }
 
@@ -106,14 +178,18 @@ double LeastSquares::rss(const Eigen::VectorXd& y) const {
 Eigen::VectorXd LeastSquares::fitted(const Eigen::VectorXd& y) const {
   Eigen::VectorXd w = rotate(y);
   w.tail(static_cast<Eigen::Index>(n() - rank())).setZero();
-  w.applyOnTheLeft(qr_.householderQ());
+  w.applyOnTheLeft(HouseholderQ(packed_, hcoeffs_));
   return w;
 }
 
 Eigen::VectorXd LeastSquares::residuals(const Eigen::VectorXd& y) const { return y - fitted(y); }
 
 Eigen::VectorXd LeastSquares::coefficients(const Eigen::VectorXd& y) const {
-  const Eigen::VectorXd bk = r_.triangularView<Eigen::Upper>().solve(project(y));
+  // R^-1 = S R_s^-1: solved on the scaled factor, then scaled exactly.
+  const Eigen::Index k = static_cast<Eigen::Index>(rank());
+  const Eigen::VectorXd bk =
+      kscale_.asDiagonal() *
+      packed_.topLeftCorner(k, k).triangularView<Eigen::Upper>().solve(project(y));
   Eigen::VectorXd b = Eigen::VectorXd::Constant(design_.cols(), std::numeric_limits<double>::quiet_NaN());
   for (std::size_t i = 0; i < kept_.size(); ++i) b(static_cast<Eigen::Index>(kept_[i])) = bk(static_cast<Eigen::Index>(i));
   return b;
@@ -132,7 +208,7 @@ Eigen::MatrixXd LeastSquares::unscaled_covariance() const {
 
 Eigen::VectorXd LeastSquares::leverages() const {
   const Eigen::Index n = design_.rows(), k = static_cast<Eigen::Index>(rank());
-  const Eigen::MatrixXd q1 = qr_.householderQ() * Eigen::MatrixXd::Identity(n, k);
+  const Eigen::MatrixXd q1 = HouseholderQ(packed_, hcoeffs_) * Eigen::MatrixXd::Identity(n, k);
   return q1.rowwise().squaredNorm();
 }
 

@@ -5,7 +5,9 @@
 //   G1 = g1 sqrt(n(n-1)) / (n-2)
 //   G2 = (n-1) / ((n-2)(n-3)) * ((n+1) g2 + 6)
 // (Joanes & Gill 1998, the estimators they call G1 and G2.)
+#include <algorithm>
 #include <cmath>
+#include <limits>
 #include <string>
 #include <vector>
 
@@ -55,34 +57,43 @@ Moments sample_moments(const double* x, std::size_t n) {
   m.mean = m.sd = m.skewness = m.skewness_se = m.skewness_z = math::kNaN;
   m.kurtosis = m.kurtosis_se = m.kurtosis_z = math::kNaN;
   if (n == 0) return m;
+  // The sums run on x * c, with c the power of two that brings max |x| into [0.5, 1): exact, and
+  // values near 1e300 or 1e-301 neither overflow nor underflow in the powers. Skewness and
+  // kurtosis do not depend on c; the mean and sd are scaled back exactly.
+  double amax = 0.0;
+  for (std::size_t i = 0; i < n; ++i) amax = std::max(amax, std::fabs(x[i]));
+  int e = 0;
+  if (amax > 0.0) std::frexp(amax, &e);
+  const double c = std::ldexp(1.0, -e), back = std::ldexp(1.0, e);
   // Two passes: the mean, then central sums (accurate when the mean is large against the spread).
   double sum = 0.0;
-  for (std::size_t i = 0; i < n; ++i) sum += x[i];
+  for (std::size_t i = 0; i < n; ++i) sum += x[i] * c;
   const double dn = static_cast<double>(n);
-  m.mean = sum / dn;
+  double mean = sum / dn;
   // One refinement step removes most of the rounding of the first sum (it matters when the mean
   // is large against the spread, where odd central moments are tiny differences).
   double resid = 0.0;
-  for (std::size_t i = 0; i < n; ++i) resid += x[i] - m.mean;
-  m.mean += resid / dn;
+  for (std::size_t i = 0; i < n; ++i) resid += x[i] * c - mean;
+  mean += resid / dn;
   double s2 = 0.0, s3 = 0.0, s4 = 0.0;
   for (std::size_t i = 0; i < n; ++i) {
-    const double d = x[i] - m.mean, d2 = d * d;
+    const double d = x[i] * c - mean, d2 = d * d;
     s2 += d2;
     s3 += d2 * d;
     s4 += d2 * d2;
   }
-  if (n >= 2) m.sd = std::sqrt(s2 / (dn - 1.0));
+  m.mean = mean * back;
+  if (n >= 2) m.sd = std::sqrt(s2 / (dn - 1.0)) * back;
   if (n >= 3)
     m.skewness_se = std::sqrt(6.0 * dn * (dn - 1.0) / ((dn - 2.0) * (dn + 1.0) * (dn + 3.0)));
   if (n >= 4)
     m.kurtosis_se = std::sqrt(24.0 * dn * (dn - 1.0) * (dn - 1.0) /
                               ((dn - 3.0) * (dn - 2.0) * (dn + 3.0) * (dn + 5.0)));
-  // A constant sample (every deviation exactly zero, or zero up to rounding of the mean) has
-  // no shape: leave G1 and G2 NaN.
+  // A constant sample (every deviation exactly zero, or zero up to rounding of the mean: within
+  // 64 units in the last place of the mean) has no shape: leave G1 and G2 NaN.
   const double m2 = s2 / dn;
-  const double scale = std::fabs(m.mean);
-  if (!(m2 > 0.0) || std::sqrt(m2) <= 64.0 * 2.220446049250313e-16 * scale) {
+  constexpr double eps = std::numeric_limits<double>::epsilon();
+  if (!(m2 > 0.0) || std::sqrt(m2) <= 64.0 * eps * std::fabs(mean)) {
     m.sd = n >= 2 ? 0.0 : m.sd;
     return m;
   }

@@ -9,6 +9,7 @@
 // published ones (Royston 1992; the same values appear in the published algorithm, Royston 1995).
 #include <algorithm>
 #include <cmath>
+#include <limits>
 #include <vector>
 
 #include <boost/math/distributions/normal.hpp>
@@ -138,9 +139,17 @@ ShapiroWilk shapiro_wilk(const double* x, std::size_t n) {
   if (n > kMaxN) return skipped(n, NormalitySkip::TooMany);
   std::vector<double> s(x, x + n);
   std::sort(s.begin(), s.end());
+  // W does not depend on units: scale by the power of two that brings max |x| into [0.5, 1)
+  // (exact), so that neither the range nor the sum overflows for values near 1e308.
+  int e = 0;
+  const double scale0 = std::max(std::fabs(s[0]), std::fabs(s[n - 1]));
+  if (scale0 > 0.0) std::frexp(scale0, &e);
+  for (double& v : s) v = std::ldexp(v, -e);
   const double range = s[n - 1] - s[0];
   const double scale = std::max(std::fabs(s[0]), std::fabs(s[n - 1]));
-  if (!(range > 64.0 * 2.220446049250313e-16 * scale)) return skipped(n, NormalitySkip::Constant);
+  // Constant up to rounding: a range within 64 units in the last place of the largest value.
+  if (!(range > 64.0 * std::numeric_limits<double>::epsilon() * scale))
+    return skipped(n, NormalitySkip::Constant);
   // Centre and scale by the range, so neither a large mean nor extreme units lose precision.
   double mean = 0.0;
   for (double v : s) mean += v;

@@ -14,10 +14,11 @@ namespace {
 AfterTransform after(const Transform& t, const double* x, std::size_t n) {
   std::vector<double> z(n);
   const MapReport r = t.apply(x, n, z.data());
-  // Every recommended transform is built to accept every value it was learned from.
-  if (!r.ok()) throw Error(ErrorCode::Internal, "a screen transform rejected its own data: " + t.describe());
+  // Every recommended transform is built to accept every value it was learned from; one that
+  // fails on them meets the ends of double precision (a reflection pivot - x that overflows or
+  // rounds to 0 for values near 1e308): no figures after it, as for an overflowing result.
   AfterTransform a;
-  if (!std::all_of(z.begin(), z.end(), [](double v) { return std::isfinite(v); })) {
+  if (!r.ok() || !std::all_of(z.begin(), z.end(), [](double v) { return std::isfinite(v); })) {
     a.skewness = math::kNaN;
     a.sw.w = a.sw.p_value = math::kNaN;
     a.sw.n = n;

@@ -72,68 +72,93 @@ Transform::Transform(const TransformSpec& spec) : spec_(spec) {
   }
 }
 
-double Transform::apply(double x) const noexcept {
-  if (!std::isfinite(x)) return math::kNaN;
-  const double v = to_v(x);
-  if (!math::in_domain(spec_.family, v, spec_.lambda)) return math::kNaN;
-  return math::forward(spec_.family, v, spec_.lambda);
+namespace {
+
+enum class Outcome { Ok, Outside, Overflow, Boundary };
+
+double spec_to_v(const TransformSpec& s, double x) {
+  return (s.reflect ? s.pivot - x : x) + s.shift;
+}
+double spec_from_v(const TransformSpec& s, double v) {
+  const double u = v - s.shift;
+  return s.reflect ? s.pivot - u : u;
 }
 
-double Transform::invert(double z) const noexcept {
-  if (!std::isfinite(z) || !math::in_range(spec_.family, z, spec_.lambda)) return math::kNaN;
-  return from_v(math::inverse(spec_.family, z, spec_.lambda));
+// x -> z for a finite x. v must be finite too: a shift or a reflection can overflow.
+Outcome eval_apply(const TransformSpec& s, double x, double& z) {
+  const double v = spec_to_v(s, x);
+  if (!std::isfinite(v)) return Outcome::Overflow;
+  if (!math::in_domain(s.family, v, s.lambda)) return Outcome::Outside;
+  z = math::forward(s.family, v, s.lambda);
+  return std::isfinite(z) ? Outcome::Ok : Outcome::Overflow;
 }
 
-double Transform::log_abs_derivative(double x) const noexcept {
-  if (!std::isfinite(x)) return math::kNaN;
-  const double v = to_v(x);
-  if (!math::in_domain(spec_.family, v, spec_.lambda)) return math::kNaN;
-  return math::log_deriv(spec_.family, v, spec_.lambda);
+Outcome eval_invert(const TransformSpec& s, double z, double& x) {
+  if (!math::in_range(s.family, z, s.lambda)) return Outcome::Outside;
+  const double v = math::inverse(s.family, z, s.lambda);
+  if (!std::isfinite(v)) return Outcome::Overflow;
+  x = spec_from_v(s, v);
+  return std::isfinite(x) ? Outcome::Ok : Outcome::Overflow;
 }
 
-// One loop shape for the three vector maps: classify each element, then map the good ones.
-template <class Good, class Map>
-static MapReport map_loop(const double* in, std::size_t n, double* out, Good good, Map map) {
+// A finite v in the domain whose log |f'(v)| is not finite is a point where f' is zero or
+// unbounded (v = 0 for the power family): the boundary, reported as -Inf.
+Outcome eval_log_derivative(const TransformSpec& s, double x, double& d) {
+  const double v = spec_to_v(s, x);
+  if (!std::isfinite(v)) return Outcome::Overflow;
+  if (!math::in_domain(s.family, v, s.lambda)) return Outcome::Outside;
+  d = math::log_deriv(s.family, v, s.lambda);
+  if (std::isfinite(d)) return Outcome::Ok;
+  d = -math::kInf;
+  return Outcome::Boundary;
+}
+
+void count(std::size_t& k, std::vector<std::size_t>& first, std::size_t i) {
+  ++k;
+  note(first, i);
+}
+
+// One loop for the three vector maps: eval classifies each finite element and writes its value.
+template <class Eval>
+MapReport map_loop(const TransformSpec& s, const double* in, std::size_t n, double* out, Eval eval) {
   MapReport r;
   for (std::size_t i = 0; i < n; ++i) {
     const double a = in[i];
-    if (!std::isfinite(a)) {
-      ++r.n_nonfinite;
-      note(r.first_nonfinite, i);
-      out[i] = math::kNaN;
-    } else if (!good(a)) {
-      ++r.n_outside;
-      note(r.first_outside, i);
-      out[i] = math::kNaN;
-    } else {
-      out[i] = map(a);
-    }
+    double v = math::kNaN;
+    const Outcome o = std::isfinite(a) ? eval(s, a, v) : Outcome::Ok;
+    if (!std::isfinite(a)) count(r.n_nonfinite, r.first_nonfinite, i);
+    else if (o == Outcome::Outside) count(r.n_outside, r.first_outside, i);
+    else if (o == Outcome::Overflow) count(r.n_overflow, r.first_overflow, i);
+    else if (o == Outcome::Boundary) count(r.n_boundary, r.first_boundary, i);
+    out[i] = (o == Outcome::Ok || o == Outcome::Boundary) ? v : math::kNaN;
   }
   return r;
 }
 
+template <class Eval>
+double map_one(const TransformSpec& s, double a, Eval eval) noexcept {
+  double v = math::kNaN;
+  if (!std::isfinite(a)) return v;
+  const Outcome o = eval(s, a, v);
+  return (o == Outcome::Ok || o == Outcome::Boundary) ? v : math::kNaN;
+}
+
+}  // namespace
+
+double Transform::apply(double x) const noexcept { return map_one(spec_, x, eval_apply); }
+double Transform::invert(double z) const noexcept { return map_one(spec_, z, eval_invert); }
+double Transform::log_abs_derivative(double x) const noexcept {
+  return map_one(spec_, x, eval_log_derivative);
+}
+
 MapReport Transform::apply(const double* x, std::size_t n, double* out) const {
-  const Family f = spec_.family;
-  const double lam = spec_.lambda;
-  return map_loop(
-      x, n, out, [&](double a) { return math::in_domain(f, to_v(a), lam); },
-      [&](double a) { return math::forward(f, to_v(a), lam); });
+  return map_loop(spec_, x, n, out, eval_apply);
 }
-
 MapReport Transform::invert(const double* z, std::size_t n, double* out) const {
-  const Family f = spec_.family;
-  const double lam = spec_.lambda;
-  return map_loop(
-      z, n, out, [&](double a) { return math::in_range(f, a, lam); },
-      [&](double a) { return from_v(math::inverse(f, a, lam)); });
+  return map_loop(spec_, z, n, out, eval_invert);
 }
-
 MapReport Transform::log_abs_derivative(const double* x, std::size_t n, double* out) const {
-  const Family f = spec_.family;
-  const double lam = spec_.lambda;
-  return map_loop(
-      x, n, out, [&](double a) { return math::in_domain(f, to_v(a), lam); },
-      [&](double a) { return math::log_deriv(f, to_v(a), lam); });
+  return map_loop(spec_, x, n, out, eval_log_derivative);
 }
 
 std::string Transform::describe() const {
@@ -208,6 +233,16 @@ std::string Transform::range_requirement() const {
   return head + " accepts any finite z";
 }
 
+std::string Transform::range_remedy() const {
+  const double lam = spec_.lambda;
+  const bool limit = (spec_.family == Family::BoxCox && lam < 0) ||
+                     (spec_.family == Family::YeoJohnson && (lam < 0 || lam > 2));
+  if (!limit) return "the value lies beyond the transform's range";
+  return "the transform approaches that limit as |v| grows, so a z at the limit comes from "
+         "values too large for lambda's precision (no digits of v are left to recover); "
+         "rescale the variable (divide it by a power of ten) or use a lambda closer to 0";
+}
+
 void Transform::throw_if_failed(const MapReport& r, std::size_t n, const std::string& what,
                                 bool inverse) const {
   if (r.n_nonfinite > 0) {
@@ -220,13 +255,22 @@ void Transform::throw_if_failed(const MapReport& r, std::size_t n, const std::st
   }
   if (r.n_outside > 0) {
     const std::string req = inverse ? range_requirement() : domain_requirement();
-    const std::string remedy =
-        inverse ? "the value lies beyond the transform's range" : domain_remedy();
+    const std::string remedy = inverse ? range_remedy() : domain_remedy();
     throw IndexedError(ErrorCode::Domain,
                        req + "; " + std::to_string(r.n_outside) + " of " + std::to_string(n) +
                            " values of " + what + " are outside, at index " +
                            format_indices(r.first_outside, r.n_outside) + " (0-based): " + remedy,
                        r.n_outside, r.first_outside);
+  }
+  if (r.n_overflow > 0) {
+    throw IndexedError(
+        ErrorCode::Domain,
+        std::to_string(r.n_overflow) + " of " + std::to_string(n) + " values of " + what +
+            (inverse ? " map back" : " map") + " beyond the largest double (about 1.8e308) under " +
+            describe() + ", at index " + format_indices(r.first_overflow, r.n_overflow) +
+            " (0-based): rescale the variable (e.g. divide it by a power of ten)" +
+            (family_has_lambda(spec_.family) ? " or use a lambda closer to 0" : ""),
+        r.n_overflow, r.first_overflow);
   }
 }
 

@@ -483,7 +483,9 @@ static const R_CallMethodDef CallEntries[] = {
     {NULL, NULL, 0}
 };
 
+void rpwb_install_interrupt_check(DllInfo* /*dll*/);
 RcppExport void R_init_powerback(DllInfo *dll) {
     R_registerRoutines(dll, NULL, CallEntries, NULL, NULL);
     R_useDynamicSymbols(dll, FALSE);
+    rpwb_install_interrupt_check(dll);
 }

@@ -11,9 +11,20 @@
 namespace rpwb {
 
 // Turns a failing status into an R error carrying the library's message. Rcpp raises the R
-// error only after the C++ frames have unwound, so no longjmp crosses C++ code.
+// error only after the C++ frames have unwound, so no longjmp crosses C++ code. A computation
+// stopped by the user's interrupt (PWB_ERR_CANCELLED) becomes R's own interrupt, again raised
+// by Rcpp after the unwinding.
 inline void check(pwb_status st) {
+  if (st == PWB_ERR_CANCELLED) throw Rcpp::internal::InterruptedException();
   if (st != PWB_OK) throw Rcpp::exception(pwb_last_error(), false);
+}
+
+// R_CheckUserInterrupt jumps (longjmp) to the top level when the user has pressed Ctrl-C or Esc;
+// run inside R_ToplevelExec the jump ends there instead, and R_ToplevelExec returns FALSE. So this
+// asks R about a pending interrupt without ever jumping over C++ frames. Main R thread only.
+inline void interrupt_probe(void*) { R_CheckUserInterrupt(); }
+inline int interrupt_pending(void*) {
+  return R_ToplevelExec(interrupt_probe, nullptr) == FALSE ? 1 : 0;
 }
 
 inline double na_to_nan(SEXP v) {

@@ -86,6 +86,7 @@ TEST_CASE("a spec is built written read and applied through the ABI", "[capi][sp
   CHECK(ts.family == PWB_LOG);
   CHECK(ts.reflect == 1);
   CHECK(ts.pivot == 101.0);
+  pwb_transform_free(refl.t);  // the failing call below sets refl.t to NULL
   CHECK(pwb_spec_transform(back.s, 2, &refl.t) == PWB_ERR_ARGUMENT);
   CHECK(refl.t == nullptr);
 }
@@ -119,6 +120,7 @@ TEST_CASE("specs go to files and come back", "[capi][spec]") {
   REQUIRE(pwb_spec_read_file(path.c_str(), &back.s) == PWB_OK);
   CHECK(written(back.s) == written(s.s));
   std::remove(path.c_str());
+  pwb_spec_free(back.s);  // a failing call sets the out-pointer to NULL: release what it held
   CHECK(pwb_spec_read_file(path.c_str(), &back.s) == PWB_ERR_ARGUMENT);
   CHECK(back.s == nullptr);
   CHECK_THAT(pwb_last_error(), Contains("capi_spec_roundtrip.pwbspec"));
@@ -173,6 +175,7 @@ TEST_CASE("NULL arguments are argument errors and free accepts NULL", "[capi][sp
   CHECK(pwb_spec_write(nullptr, nullptr, 0, &n) == PWB_ERR_ARGUMENT);
   CHECK(pwb_spec_write_file(s.s, nullptr) == PWB_ERR_ARGUMENT);
   CHECK(pwb_spec_write_file(nullptr, "x") == PWB_ERR_ARGUMENT);
+  pwb_spec_free(s.s);  // the failing reads below set s.s to NULL
   CHECK(pwb_spec_read(nullptr, 3, &s.s) == PWB_ERR_ARGUMENT);
   CHECK(s.s == nullptr);
   CHECK(pwb_spec_read("x", 1, nullptr) == PWB_ERR_ARGUMENT);

@@ -96,7 +96,11 @@ TEST_CASE("domain errors fill NaN, return PWB_ERR_DOMAIN and describe the rows",
   CHECK(std::string(buf) == "log needs v > 0");
   REQUIRE(pwb_transform_describe(h.t, 2, buf, 8, &needed) == PWB_OK);
   CHECK(std::strlen(buf) == 7);  // truncated like snprintf
-  CHECK(pwb_transform_describe(h.t, 4, buf, 8, &needed) == PWB_ERR_ARGUMENT);
+  CHECK(pwb_transform_describe(h.t, 5, buf, 8, &needed) == PWB_ERR_ARGUMENT);
+  CHECK(pwb_transform_describe(h.t, -1, buf, 8, &needed) == PWB_ERR_ARGUMENT);
+  char remedy[256];
+  REQUIRE(pwb_transform_describe(h.t, 4, remedy, sizeof remedy, nullptr) == PWB_OK);
+  CHECK(std::string(remedy) == "the value lies beyond the transform's range");
   char line[64];
   REQUIRE(pwb_transform_describe(h.t, 3, line, sizeof line, nullptr) == PWB_OK);
   CHECK(std::string(line) == "log of x");
@@ -112,8 +116,18 @@ TEST_CASE("NULL pointers, empty arrays and bad structs", "[capi]") {
   s.struct_size = sizeof(s) - 1;
   CHECK(pwb_transform_new(&s, &t) == PWB_ERR_ARGUMENT);
   CHECK_THAT(pwb_last_error(), Contains("struct_size"));
-  s = spec_of(static_cast<pwb_family>(77));
-  CHECK(pwb_transform_new(&s, &t) == PWB_ERR_ARGUMENT);
+  // A C caller may store any int in the enum field; written through its bytes here, since a C++
+  // cast to an enumerator-less value would itself be undefined.
+  for (int bad : {77, -1, 10}) {
+    s = spec_of(PWB_IDENTITY);
+    std::memcpy(&s.family, &bad, sizeof bad);
+    CHECK(pwb_transform_new(&s, &t) == PWB_ERR_ARGUMENT);
+    CHECK(t == nullptr);
+    CHECK_THAT(pwb_last_error(), Contains("unknown family code " + std::to_string(bad)));
+    pwb_family f;
+    std::memcpy(&f, &bad, sizeof bad);
+    CHECK(std::string(pwb_family_name(f)) == "unknown");
+  }
   s = spec_of(PWB_BOX_COX, NAN);
   CHECK(pwb_transform_new(&s, &t) == PWB_ERR_ARGUMENT);
   CHECK_THAT(pwb_last_error(), Contains("lambda"));
@@ -146,4 +160,47 @@ TEST_CASE("a larger struct_size from a newer header is accepted", "[capi]") {
   b.s.family = PWB_ASINH;
   Handle h;
   CHECK(pwb_transform_new(&b.s, &h.t) == PWB_OK);
+}
+
+TEST_CASE("overflow is PWB_ERR_DOMAIN and the power family's zero is a -Inf boundary", "[capi][extremes]") {
+  pwb_transform_spec s = spec_of(PWB_BOX_COX, 2.0);
+  Handle bc;
+  REQUIRE(pwb_transform_new(&s, &bc.t) == PWB_OK);
+  const double x[2] = {3.0, 1e300};
+  double out[2] = {0, 0};
+  CHECK(pwb_transform_apply(bc.t, x, 2, out) == PWB_ERR_DOMAIN);
+  CHECK(out[0] == Approx(4.0));  // (9 - 1) / 2
+  CHECK(std::isnan(out[1]));
+  CHECK_THAT(pwb_last_error(), Contains("largest double") && Contains("index 1"));
+
+  s = spec_of(PWB_IDENTITY);
+  s.shift = 1e308;
+  Handle id;
+  REQUIRE(pwb_transform_new(&s, &id.t) == PWB_OK);
+  const double big[1] = {1e308};
+  CHECK(pwb_transform_apply(id.t, big, 1, out) == PWB_ERR_DOMAIN);
+  CHECK(std::isnan(out[0]));
+
+  s = spec_of(PWB_POWER, 0.5);
+  Handle pw;
+  REQUIRE(pwb_transform_new(&s, &pw.t) == PWB_OK);
+  const double v[3] = {4.0, 0.0, -4.0};
+  double d[3] = {0, 0, 0};
+  CHECK(pwb_transform_log_derivative(pw.t, v, 3, d) == PWB_OK);
+  CHECK(d[1] == -INFINITY);
+  CHECK(d[0] == Approx(std::log(0.5) - 0.5 * std::log(4.0)));  // |f'| = 0.5 |v|^-0.5
+  CHECK(d[2] == Approx(d[0]));
+
+  // Box-Cox lambda = -2 at 1e9: z rounds onto the limit 0.5, and the inverse says why.
+  s = spec_of(PWB_BOX_COX, -2.0);
+  Handle neg;
+  REQUIRE(pwb_transform_new(&s, &neg.t) == PWB_OK);
+  const double far[1] = {1e9};
+  double zf[1], xf[1];
+  REQUIRE(pwb_transform_apply(neg.t, far, 1, zf) == PWB_OK);
+  CHECK(pwb_transform_invert(neg.t, zf, 1, xf) == PWB_ERR_DOMAIN);
+  CHECK_THAT(pwb_last_error(), Contains("precision"));
+  char remedy[256];
+  REQUIRE(pwb_transform_describe(neg.t, 4, remedy, sizeof remedy, nullptr) == PWB_OK);
+  CHECK_THAT(std::string(remedy), Contains("precision") && Contains("rescale"));
 }

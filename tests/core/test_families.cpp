@@ -8,21 +8,13 @@
 #include "fixture_csv.hpp"
 #include "powerback/errors.hpp"
 #include "powerback/transform.hpp"
+#include "test_support.hpp"
 
 using namespace powerback;
 
 namespace {
 
-Transform make(Family f, double lambda = math::kNaN, double shift = 0, bool reflect = false,
-               double pivot = math::kNaN) {
-  TransformSpec s;
-  s.family = f;
-  s.lambda = lambda;
-  s.shift = shift;
-  s.reflect = reflect;
-  s.pivot = pivot;
-  return Transform(s);
-}
+using pwbtest::make;
 
 std::vector<double> logspace(double lo, double hi, int n) {
   std::vector<double> x;

@@ -21,7 +21,8 @@ enum class ErrorCode {
   Convergence,    // an iterative method did not converge
   Parse,          // malformed text input
   Memory,         // an allocation failed or a size would overflow
-  Internal        // a bug: an invariant failed
+  Internal,       // a bug: an invariant failed
+  Cancelled       // the caller's cancellation check asked the computation to stop
 };
 
 class Error : public std::runtime_error {

@@ -91,6 +91,7 @@ inline double power_inverse(double z, double lambda) {
 }
 // |f'(v)| = |lambda| |v|^(lambda - 1)
 inline double power_log_deriv(double v, double lambda) {
+  if (lambda == 1.0) return 0.0;  // f(v) = v: the formula would give 0 * log 0 at v = 0
   return std::log(std::fabs(lambda)) + (lambda - 1.0) * std::log(std::fabs(v));
 }
 

@@ -1,14 +1,23 @@
 // powerback/least_squares.hpp — one factorisation of a linear model's design, reused for many
 // responses (profile likelihoods, leave-one-out, predictions).
 //
-// The design is [1 X] (an intercept column is added unless told otherwise). It is factored once
-// with Eigen's Householder QR in column order. Rank is detected the way R's lm() does it: a
-// column is aliased (dropped, coefficient NA) when its part orthogonal to the columns kept
-// before it, |R_jj|, has norm < tol * its own norm (tol = 1e-7 as in lm). A full-rank design
-// (the common case) costs one factorisation; each aliased column costs one more.
+// The design is [1 X] (an intercept column is added unless told otherwise). Each column is first
+// scaled by a power of two that brings its largest magnitude into [0.5, 1): the scaling is exact,
+// so the results are those of the unscaled design, but columns of magnitude 1e-200 or 1e+200 are
+// factored without their norms underflowing or overflowing (results do not depend on units).
 //
-// References: Golub & Van Loan, Matrix Computations, 4th ed., sec. 5.4 (QR with column pivoting);
-// Seber & Lee, Linear Regression Analysis, 2nd ed., ch. 3 and 10 (hat matrix, leverages).
+// The scaled design is factored by Householder QR in column order, with no pivoting among the
+// kept columns. Rank is decided as R's lm() decides it: a column is aliased (dropped, coefficient
+// NaN as lm's NA) when the norm of its part orthogonal to the columns kept before it, |R_jj|, is
+// below tol * its own norm (tol = 1e-7 as in lm); once as many columns are kept as there are
+// rows, every later column is aliased. The aliased columns are moved out as the factorisation
+// reaches them (lm's limited pivoting), so the whole decision costs one factorisation: Eigen's
+// blocked Householder QR up to the first aliased column, then Eigen's Householder reflectors one
+// column at a time from there on.
+//
+// References: Golub & Van Loan, Matrix Computations, 4th ed., sec. 5.2 (Householder QR) and
+// sec. 5.4 (rank-revealing QR); Seber & Lee, Linear Regression Analysis, 2nd ed., ch. 3 and 10
+// (hat matrix, leverages).
 #pragma once
 
 #include <Eigen/Dense>
@@ -23,10 +32,14 @@ constexpr double kRankTolerance = 1e-7;
 class LeastSquares {
  public:
   // X: n-by-p predictors, column-major, without an intercept column (one is added first when
-  // add_intercept). Throws Error(Argument) for n == 0 or non-finite entries (naming the first
-  // offending row and column, 0-based), Error(Singular) when every column is aliased.
+  // add_intercept). Throws Error(Argument) for n == 0, no columns or a NULL X with p > 0,
+  // Error(NonFinite) for a non-finite entry (naming the first offending row and column,
+  // 0-based), Error(Singular) when every column is aliased, Error(Cancelled) when the thread's
+  // cancellation check (cancel.hpp) says stop during a long rank decision.
   LeastSquares(const double* X, std::size_t n, std::size_t p, bool add_intercept = true,
                double tol = kRankTolerance);
+  // design: the full design (column 0 counts as an intercept when it is all ones). Throws
+  // Error(Argument) for an empty or non-finite design; otherwise as above.
   explicit LeastSquares(const Eigen::MatrixXd& design, double tol = kRankTolerance);
 
   std::size_t n() const { return static_cast<std::size_t>(design_.rows()); }
@@ -36,7 +49,7 @@ class LeastSquares {
   bool has_intercept() const { return intercept_; }
   const std::vector<std::size_t>& kept() const { return kept_; }        // design columns used
   const std::vector<std::size_t>& aliased() const { return aliased_; }  // design columns dropped
-  const Eigen::MatrixXd& design() const { return design_; }
+  const Eigen::MatrixXd& design() const { return design_; }              // unscaled
 
   // Q1' y (rank values): the response's coordinates in the column space.
   Eigen::VectorXd project(const Eigen::VectorXd& y) const;
@@ -58,8 +71,8 @@ class LeastSquares {
   // Q' y (all n values): the first rank() are the coordinates in the column space, the rest
   // span the residual space, so rss(y) is the squared norm of the tail.
   Eigen::VectorXd rotate(const Eigen::VectorXd& y) const;
-  // R (rank x rank, upper triangular, positive diagonal not enforced) of the kept columns, in
-  // kept order (no pivoting among them).
+  // R (rank x rank, upper triangular, positive diagonal not enforced) of the kept columns of the
+  // unscaled design, in kept order (no pivoting among them): R'R = X_k'X_k.
   const Eigen::MatrixXd& r() const { return r_; }
 
  private:
@@ -67,20 +80,33 @@ class LeastSquares {
   Eigen::MatrixXd design_;
   bool intercept_ = true;
   std::vector<std::size_t> kept_, aliased_;
-  Eigen::HouseholderQR<Eigen::MatrixXd> qr_;
+  Eigen::MatrixXd packed_;   // Householder vectors below the diagonal (kept columns), as Eigen packs them
+  Eigen::VectorXd hcoeffs_;  // their coefficients
+  Eigen::VectorXd kscale_;   // the power-of-two scale of each kept column
   Eigen::MatrixXd r_;
   Eigen::MatrixXd r_inv_;  // R^{-1}, rank x rank
 };
 
 namespace detail {
+
+// Powers of two that bring each column's largest magnitude into [0.5, 1) (1 for a zero column).
+// Multiplying by them is exact.
+Eigen::VectorXd column_scales(const Eigen::MatrixXd& a);
+
+// The Householder QR of a matrix's kept columns, packed as Eigen's HouseholderQR packs it.
+struct RankedQR {
+  Eigen::MatrixXd packed;  // rows x rank: R on and above the diagonal, reflectors below
+  Eigen::VectorXd hcoeffs;  // rank reflector coefficients
+  std::vector<std::size_t> kept, aliased;  // ascending column indices of a
+};
+
 // lm's rank rule on the columns of a (the design, or any matrix with the same a'a such as its R):
-// columns of zero norm are aliased; the others are factored in order, and the first whose
-// |R_jj| < tol * norms(j) depends on the columns before it: it is dropped and the rest factored
-// again. On return qr holds the factorisation of the kept columns. Error(Singular) when none is
-// left.
-void apply_rank_rule(const Eigen::MatrixXd& a, const Eigen::VectorXd& norms, double tol,
-                     Eigen::HouseholderQR<Eigen::MatrixXd>& qr, std::vector<std::size_t>& kept,
-                     std::vector<std::size_t>& aliased);
+// columns of zero norm are aliased; the others are factored in order, and each whose |R_jj| <
+// tol * norms(j) depends on the columns kept before it and is aliased, as are all columns after
+// min(rows, columns) kept ones. One factorisation in all. Error(Singular) when none is kept;
+// polls the thread's cancellation check between columns once past the first aliased one.
+RankedQR apply_rank_rule(const Eigen::MatrixXd& a, const Eigen::VectorXd& norms, double tol);
+
 }  // namespace detail
 
 }  // namespace powerback

@@ -7,10 +7,15 @@
 // factorisation runs in cache instead of sweeping the whole matrix once per column). Q is never
 // formed: callers that need projections of one response use R and X'z, or LeastSquares.
 //
+// Each column is scaled by the power of two that brings its largest magnitude into [0.5, 1)
+// before it is factored (exact, so R is that of the unscaled design; no norm underflows or
+// overflows for columns of magnitude 1e-200 or 1e+200). Fewer rows than columns leave R with as
+// many rows as the design: a wide design costs one QR of n x columns.
+//
 // Rank is then decided on R exactly as LeastSquares decides it on the full design (lm's rule): a
 // column is aliased when its part orthogonal to the columns kept before it has norm below
-// tol * its own norm. Both norms are functions of X'X = R'R alone, so R gives the same answer;
-// each aliased column costs one re-factorisation of the small matrix R without it.
+// tol * its own norm. Both norms are functions of X'X = R'R alone, so R gives the same answer,
+// in one more factorisation of the small matrix R (detail::apply_rank_rule).
 //
 // References: Golub & Van Loan, Matrix Computations, 4th ed., sec. 5.2 (Householder QR);
 //   Demmel, Grigori, Hoemmen & Langou (2012),
@@ -47,7 +52,8 @@ constexpr std::size_t kTallBlockRows = 4096;
 // X: n-by-p predictors, column-major, without an intercept column (one is added first when
 // add_intercept). Errors as LeastSquares: Error(Argument) for n == 0 or no columns,
 // Error(NonFinite) naming the first non-finite entry's column and row (0-based),
-// Error(Singular) when every column is aliased. visit (optional) sees every block once, in order.
+// Error(Singular) when every column is aliased, Error(Cancelled) when the thread's cancellation
+// check says stop (polled once per block). visit (optional) sees every block once, in order.
 TallFactor factor_tall(const double* X, std::size_t n, std::size_t p, bool add_intercept = true,
                        double tol = kRankTolerance,
                        const DesignBlockVisitor& visit = {});

@@ -35,9 +35,18 @@ bool family_is_valid(int f) noexcept;
 struct MapReport {
   std::size_t n_nonfinite = 0;  // NaN or +-Inf inputs
   std::size_t n_outside = 0;    // finite inputs outside the domain (apply) or range (invert)
+  // Finite inputs whose result (or v = x + shift, or the value after reflection) is beyond the
+  // largest double: an error, as for values outside the domain.
+  std::size_t n_overflow = 0;
+  // log_abs_derivative only: inputs where f'(v) is zero or unbounded (v = 0 for the power family
+  // with lambda != 1). Not an error: the output there is -Inf, which marks a Jacobian that makes
+  // the likelihood incomparable (a model holding such a value must rank last, never first).
+  std::size_t n_boundary = 0;
   std::vector<std::size_t> first_nonfinite;
   std::vector<std::size_t> first_outside;
-  bool ok() const noexcept { return n_nonfinite == 0 && n_outside == 0; }
+  std::vector<std::size_t> first_overflow;
+  std::vector<std::size_t> first_boundary;
+  bool ok() const noexcept { return n_nonfinite == 0 && n_outside == 0 && n_overflow == 0; }
 };
 
 class Transform {
@@ -48,15 +57,22 @@ class Transform {
 
   const TransformSpec& spec() const noexcept { return spec_; }
 
-  // x -> z. Elements that cannot be mapped become NaN and are counted in the report; the
-  // others are always written. `out` may alias `x`.
+  // x -> z. Elements that cannot be mapped (outside the domain, or overflowing) become NaN and
+  // are counted in the report; the others are always written. `out` may alias `x`.
   MapReport apply(const double* x, std::size_t n, double* out) const;
-  // z -> x, the exact inverse of apply. Same reporting; `out` may alias `z`.
+  // z -> x, the inverse of apply. Same reporting; `out` may alias `z`. The round trip
+  // invert(apply(x)) is exact up to rounding amplified by the condition of the inverse: its
+  // relative error is about 2^-53 * |z| / |v f'(v)| (a few ulps for the log, the power and
+  // Box-Cox near lambda = 1). It grows where f flattens out: Box-Cox with lambda < 0 at large v
+  // has |z| / |v f'(v)| ~ v^-lambda / |lambda|, so lambda = -2 keeps about 1e-4 relative at
+  // v = 1e6, and beyond v ~ 1e8 every z rounds to the limit -1/lambda and no digit of v is
+  // left (the inverse then reports the value as outside the range, saying so).
   MapReport invert(const double* z, std::size_t n, double* out) const;
-  // log |dz/dx| at each x (reflection has |dv/dx| = 1); NaN where apply would fail.
+  // log |dz/dx| at each x (reflection has |dv/dx| = 1); NaN where apply would fail; -Inf where
+  // f'(v) is zero or unbounded (counted in n_boundary, see MapReport).
   MapReport log_abs_derivative(const double* x, std::size_t n, double* out) const;
 
-  // Scalar forms; NaN when the element cannot be mapped.
+  // Scalar forms; NaN when the element cannot be mapped (-Inf at a log-derivative boundary).
   double apply(double x) const noexcept;
   double invert(double z) const noexcept;
   double log_abs_derivative(double x) const noexcept;
@@ -72,10 +88,15 @@ class Transform {
   std::string domain_requirement() const;
   std::string domain_remedy() const;
   std::string range_requirement() const;
+  // What to do about z outside the range: for a family with a finite limit (Box-Cox or
+  // Yeo-Johnson beyond the limit -1/lambda), z at the limit means the values were too large for
+  // lambda's precision.
+  std::string range_remedy() const;
   // One line, e.g. "box-cox(lambda = 0.5) of (x + 1)".
   std::string describe() const;
 
-  // Throws IndexedError for a failed report: "<requirement>; <k> of <n> values of <what> ...".
+  // Throws IndexedError for a failed report: NonFinite first, then Domain for values outside
+  // ("<requirement>; <k> of <n> values of <what> ..."), then Domain for overflow.
   void throw_if_failed(const MapReport& r, std::size_t n, const std::string& what,
                        bool inverse) const;
 

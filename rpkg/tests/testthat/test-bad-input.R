@@ -1,0 +1,153 @@
+# Bad and extreme input, one row per case: the input, and either the error it must raise (a
+# regular expression matched against the message) or a check of the result it must return.
+# Every entry point refuses what it cannot handle with a message naming the problem; extreme
+# but valid input gives the right numbers.
+
+set.seed(20260)
+x_pos <- exp(rnorm(40, 1, 0.5))
+dat <- data.frame(x1 = runif(40, 1, 5), x2 = runif(40, 1, 5))
+dat$y <- exp(0.3 + 0.2 * dat$x1 - 0.1 * dat$x2 + rnorm(40, 0, 0.1))
+
+# A small spec file with a malformed line.
+bad_spec <- tempfile(fileext = ".pwbspec")
+writeLines(c("powerback-spec 1", "transform name=\"a\" family=box-cox lambda=oops"), bad_spec)
+
+# Wide data: more columns than rows, many of them aliased.
+wide <- as.data.frame(matrix(rnorm(30 * 120), 30, 120))
+wide$y <- exp(rnorm(30))
+
+cases <- list(
+  # NA, NaN, Inf
+  # NA and NaN are missing values: dropped as na.omit drops them, and counted.
+  list(what = "NA in a sample", expr = quote(estimate_lambda(c(x_pos[1:9], NA))),
+       check = function(r) {
+         expect_identical(r$n, 9L)
+         expect_identical(r$lambda, estimate_lambda(x_pos[1:9])$lambda)
+       }),
+  list(what = "NaN in a sample", expr = quote(estimate_lambda(c(x_pos[1:9], NaN))),
+       check = function(r) expect_identical(r$n, 9L)),
+  list(what = "Inf in a sample", expr = quote(estimate_lambda(c(x_pos[1:9], Inf))),
+       error = "infinite|Inf|non-finite"),
+  list(what = "Inf in a transform input",
+       expr = quote(apply_transform(new_transform("log"), c(1, Inf))), error = "infinite.*row 2"),
+  # y <= 0
+  list(what = "zero and negative values for Box-Cox",
+       expr = quote(estimate_lambda(c(x_pos[1:8], 0, -1))),
+       error = "2 values <= 0|> 0.*rows? 9, 10|yeo-johnson"),
+  list(what = "a value <= 0 for the log",
+       expr = quote(apply_transform(new_transform("log"), c(2, 0, 3))), error = "v > 0.*row 2"),
+  # constant and collinear columns
+  list(what = "a constant sample", expr = quote(estimate_lambda(rep(3, 10))),
+       error = "constant|identical"),
+  list(what = "a collinear predictor is aliased, as lm drops it",
+       expr = quote(lm_transformed(y ~ x1 + x2 + x3, transform(dat, x3 = x1 + 2 * x2),
+                                   response = "none")),
+       check = function(f) {
+         b <- coef(f)
+         ref <- coef(lm(y ~ x1 + x2 + x3, transform(dat, x3 = x1 + 2 * x2)))  # base R lm
+         expect_true(is.na(b[["x3"]]))
+         expect_equal(unname(b[1:3]), unname(ref[1:3]), tolerance = 1e-10)  # two QRs: rounding
+       }),
+  # n <= p + 1
+  list(what = "too few rows for the predictors",
+       expr = quote(estimate_response_lambda(y ~ x1 + x2, data = dat[1:3, ])),
+       error = "rank|observations|rows"),
+  # malformed specs
+  list(what = "a malformed spec file", expr = quote(read_transforms(bad_spec)),
+       error = "line 2"),
+  list(what = "an unknown family", expr = quote(new_transform("cube-root")),
+       error = "unknown family|family"),
+  # non-numeric columns
+  list(what = "a character response",
+       expr = quote(lm_transformed(y ~ x1, transform(dat, y = as.character(y)), response = "none")),
+       error = "numeric"),
+  list(what = "a character sample", expr = quote(estimate_lambda(as.character(x_pos))),
+       error = "numeric"),
+  # unseen factor levels
+  list(what = "a factor level the fit never saw",
+       expr = quote(predict(lm_transformed(y ~ x1 + g, transform(dat, g = factor(rep(c("a", "b"), 20))),
+                                           response = "none"),
+                            newdata = data.frame(x1 = 2, g = "c"))),
+       error = "level|c"),
+  # empty and one-row data
+  list(what = "an empty sample", expr = quote(estimate_lambda(numeric(0))),
+       error = "at least|fewer|empty|values"),
+  list(what = "one-row data", expr = quote(lm_transformed(y ~ x1, dat[1, ], response = "none")),
+       error = "row|degrees of freedom|observations"),
+  # offsets are refused where the lambda is estimated
+  list(what = "an offset when estimating the response lambda",
+       expr = quote(estimate_response_lambda(y ~ x1 + offset(x2), data = dat)),
+       error = "offset"),
+  # wide data: one factorisation, lm's aliased columns
+  list(what = "more columns than rows",
+       expr = quote(lm_transformed(y ~ ., wide[, c(1:40, 121)], response = "none")),
+       error = "degrees of freedom|residual"),
+  list(what = "wide data with spare rows: the columns lm keeps",
+       expr = quote(lm_transformed(y ~ ., wide[, c(1:20, 121)], response = "none")),
+       check = function(f) {
+         ref <- coef(lm(y ~ ., wide[, c(1:20, 121)]))  # base R lm
+         expect_equal(is.na(unname(coef(f))), is.na(unname(ref)))
+         expect_equal(unname(coef(f)), unname(ref), tolerance = 1e-8)  # 21 columns, 30 rows
+       }),
+  # predictors in extreme units
+  list(what = "predictors of magnitude 1e-200 are not dropped",
+       expr = quote(lm_transformed(y ~ x1 + x2, transform(dat, x1 = x1 * 1e-200, x2 = x2 * 1e200),
+                                   response = "none")),
+       check = function(f) {
+         ref <- coef(lm(y ~ x1 + x2, dat))  # base R lm in ordinary units
+         b <- coef(f)
+         expect_false(anyNA(b))
+         # exact power-of-two scaling inside; 1e-10 covers the rounding of x * 1e-200
+         expect_equal(b[["x1"]] * 1e-200, ref[["x1"]], tolerance = 1e-10)
+         expect_equal(b[["x2"]] * 1e200, ref[["x2"]], tolerance = 1e-10)
+       }),
+  # skewness of values near the ends of the double range
+  list(what = "values near 1e300 are not 'all identical'",
+       expr = quote(screen_skew(data.frame(v = x_pos * 1e300))),
+       check = function(s) {
+         out <- capture.output(print(s))
+         expect_false(any(grepl("identical", out)))
+       }),
+  list(what = "values near 1e-301 are not 'all identical'",
+       expr = quote(screen_skew(data.frame(v = x_pos * 1e-301))),
+       check = function(s) {
+         out <- capture.output(print(s))
+         expect_false(any(grepl("identical", out)))
+       }),
+  # a power response with lambda in (0, 1] and a zero y: the Jacobian is degenerate there, so
+  # the log-likelihood is -Inf and AIC ranks the model last, never first
+  list(what = "a square-root-power response with a zero y",
+       expr = quote(lm_transformed(y ~ x, data.frame(y = c(0, 1, 4, 9, 16, 25, 37), x = 1:7),
+                                   response = new_transform("power", lambda = 0.5))),
+       check = function(f) {
+         expect_identical(as.numeric(logLik(f)), -Inf)
+         expect_identical(AIC(f), Inf)
+       }),
+  # overflow of finite input
+  list(what = "Box-Cox lambda = 2 at 1e300 overflows",
+       expr = quote(apply_transform(new_transform("box-cox", lambda = 2), c(3, 1e300))),
+       error = "row 2"),
+  list(what = "an identity shift that overflows",
+       expr = quote(apply_transform(new_transform("identity", shift = 1e308), 1e308)),
+       error = "row 1"),
+  # the round trip for negative lambda at large values
+  list(what = "the round trip of Box-Cox lambda = -2 at 1e6 keeps 1e-4",
+       expr = quote(invert_transform(new_transform("box-cox", lambda = -2),
+                                     apply_transform(new_transform("box-cox", lambda = -2), 1e6))),
+       check = function(v) expect_equal(v, 1e6, tolerance = 1e-4)),  # x^2/2 * 2^-53 ~ 6e-5
+  list(what = "Box-Cox lambda = -2 at 1e9: no digits left to invert",
+       expr = quote(invert_transform(new_transform("box-cox", lambda = -2),
+                                     apply_transform(new_transform("box-cox", lambda = -2), 1e9))),
+       error = "z < 0.5.*row 1")
+)
+
+for (cs in cases) {
+  test_that(paste("bad input:", cs$what), {
+    if (!is.null(cs$error)) {
+      expect_error(eval(cs$expr), cs$error)
+    } else {
+      res <- eval(cs$expr)
+      cs$check(res)
+    }
+  })
+}
