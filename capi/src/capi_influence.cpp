@@ -35,9 +35,11 @@ pwb_status pwb_lambda_influence(const double* y, const double* X, size_t n, size
       // 0.1 callers' struct ends before the appended weights, which are then absent.
       capi::need_struct(opt->struct_size, offsetof(pwb_influence_options, weights),
                         "pwb_influence_options");
-      if (opt->family != PWB_BOX_COX && opt->family != PWB_YEO_JOHNSON)
+      // The family is read as an int: a caller's out-of-range value is never loaded as an enum.
+      const int f = capi::enum_value(opt->family);
+      if (f != PWB_BOX_COX && f != PWB_YEO_JOHNSON)
         throw Error(ErrorCode::Argument, "lambda influence needs family PWB_BOX_COX or PWB_YEO_JOHNSON");
-      fam = static_cast<Family>(opt->family);
+      fam = static_cast<Family>(f);
       o.lower = opt->lower;
       o.upper = opt->upper;
       o.level = opt->level;

@@ -188,9 +188,7 @@ SummaryChecks FitCheckPass::finish() const {
   if (s.scale > 1e-10 * std::max(1.0, std::fabs(s.centre))) {
     const Eigen::MatrixXd a = s.r_reset.leftCols(kb + 2);
     const Eigen::VectorXd norms = a.colwise().norm().transpose();
-    Eigen::HouseholderQR<Eigen::MatrixXd> qr;
-    std::vector<std::size_t> kept, aliased;
-    detail::apply_rank_rule(a, norms, kRankTolerance, qr, kept, aliased);
+    const std::vector<std::size_t> kept = detail::apply_rank_rule(a, norms, kRankTolerance).kept;
     const double q = static_cast<double>(kept.size()) - static_cast<double>(k);
     const double df2 = n - static_cast<double>(kept.size());
     if (q >= 1.0 && df2 >= 1.0) {

@@ -98,8 +98,9 @@ summary_detail::FitParts summary_detail::fit_parts(const FitSummary::State& s) {
   const Eigen::Index c = static_cast<Eigen::Index>(s.p + 1);
   const Eigen::MatrixXd design = s.r.leftCols(c);
   const Eigen::VectorXd norms = design.colwise().norm().transpose();
-  Eigen::HouseholderQR<Eigen::MatrixXd> qr;
-  detail::apply_rank_rule(design, norms, kRankTolerance, qr, f.kept, f.aliased);
+  detail::RankedQR rq = detail::apply_rank_rule(design, norms, kRankTolerance);
+  f.kept = std::move(rq.kept);
+  f.aliased = std::move(rq.aliased);
   const Eigen::Index k = static_cast<Eigen::Index>(f.kept.size());
   if (static_cast<std::uint64_t>(k) >= s.n)
     throw Error(ErrorCode::Singular,

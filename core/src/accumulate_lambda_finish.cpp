@@ -21,10 +21,11 @@ Finished prepare_finish(const LambdaSummary::State& s) {
                                   "): no power can be estimated; leave it untransformed");
   Finished f;
   const Eigen::VectorXd norms = s.r.colwise().norm().transpose();
-  Eigen::HouseholderQR<Eigen::MatrixXd> qr;
-  detail::apply_rank_rule(s.r, norms, kRankTolerance, qr, f.kept, f.aliased);
+  detail::RankedQR rq = detail::apply_rank_rule(s.r, norms, kRankTolerance);
+  f.kept = std::move(rq.kept);
+  f.aliased = std::move(rq.aliased);
   const Eigen::Index k = static_cast<Eigen::Index>(f.kept.size());
-  f.rk = qr.matrixQR().topLeftCorner(k, k).triangularView<Eigen::Upper>();
+  f.rk = rq.packed.topLeftCorner(k, k).triangularView<Eigen::Upper>();
   if (s.n <= f.kept.size() + 1)
     throw Error(ErrorCode::Singular,
                 "y has " + std::to_string(s.n) + " observations but the design has rank " +

@@ -100,8 +100,9 @@ BackValue invert_bounded(const Transform& t, double z) {
   if (std::isnan(z)) return b;
   const TransformSpec& s = t.spec();
   if (std::isfinite(z) && math::in_range(s.family, z, s.lambda)) {
-    b.value = t.invert(z);
-    // Overflow to +-Inf of a finite z (e.g. exp(800)) is the range limit in floating point.
+    // Not t.invert(), which reports an overflowing inverse as an error (NaN): here overflow to
+    // +-Inf of a finite z (e.g. exp(800)) is the range limit in floating point, flagged bounded.
+    b.value = x_of_v(s, math::inverse(s.family, z, s.lambda));
     b.bounded = !std::isfinite(b.value);
     return b;
   }
