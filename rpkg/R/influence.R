@@ -56,7 +56,9 @@ lambda_influence <- function(object, data = NULL, family = c("box-cox", "yeo-joh
     fr$yname <- object$yname
     rows <- seq_len(nrow(object$data))
     if (!is.null(object$lm$na.action)) rows <- rows[-as.integer(object$lm$na.action)]
-    fr$labels <- if (.row_names_info(object$data) > 0L) rownames(object$data)[rows] else rows
+    rn <- rownames(object$data)
+    own <- .row_names_info(object$data) > 0L && !identical(rn, as.character(seq_along(rn)))
+    fr$labels <- if (own) rn[rows] else rows
   } else {
     fr <- pwb_weighted_frame(object, data, substitute(weights), substitute(subset), parent.frame(),
                              "lambda_influence")

@@ -56,7 +56,8 @@ test_that("predictors = \"ml\" are Box-Tidwell powers for linearity", {
   bt <- box_tidwell(y ~ size + temp, d2, vars = pos)
   m <- lm_transformed(y ~ size + temp, d, response = new_transform("log"), predictors = "ml")
   keep <- names(bt$transforms)[vapply(bt$transforms, function(t)
-    !(t$family == "power" && isTRUE(all.equal(t$lambda, 1))), logical(1))]
+    !(t$family == "identity" || t$family == "power" && isTRUE(all.equal(t$lambda, 1))),
+    logical(1))]
   expect_identical(names(m$predictors), keep)
   for (v in keep) expect_identical(unclass(m$predictors[[v]]), unclass(bt$transforms[[v]]))
   expect_true("size" %in% names(m$predictors))  # the true relation is linear in log(size)
