@@ -181,8 +181,10 @@ SummaryChecks FitCheckPass::finish() const {
     const double rss = s.r_bp(kb, kb) * s.r_bp(kb, kb);
     out.bp_df = static_cast<double>(k) - 1.0;
     out.bp_statistic = n * (1.0 - rss / tss);
-    const boost::math::chi_squared cs(out.bp_df);
-    out.bp_p = boost::math::cdf(boost::math::complement(cs, std::max(out.bp_statistic, 0.0)));
+    if (std::isfinite(out.bp_statistic)) {  // else p stays NaN (sums that overflowed)
+      const boost::math::chi_squared cs(out.bp_df);
+      out.bp_p = boost::math::cdf(boost::math::complement(cs, std::max(out.bp_statistic, 0.0)));
+    }
   }
   // RESET: the rank of [X_kept g^2 g^3] by lm's rule, then the RSS of z on it.
   if (s.scale > 1e-10 * std::max(1.0, std::fabs(s.centre))) {
@@ -200,7 +202,7 @@ SummaryChecks FitCheckPass::finish() const {
       const double rss1 = q2.matrixQR()(k1, k1) * q2.matrixQR()(k1, k1);
       out.reset_df1 = q;
       out.reset_df2 = df2;
-      if (rss1 > 0.0) {
+      if (rss1 > 0.0 && std::isfinite(s.rss0 - rss1)) {
         out.reset_f = ((s.rss0 - rss1) / q) / (rss1 / df2);
         const boost::math::fisher_f fd(q, df2);
         out.reset_p = boost::math::cdf(boost::math::complement(fd, std::max(out.reset_f, 0.0)));

@@ -4,6 +4,7 @@
 #include <algorithm>
 #include <boost/math/distributions/normal.hpp>
 #include <boost/math/quadrature/gauss_kronrod.hpp>
+#include <boost/math/policies/error_handling.hpp>
 #include <boost/math/quadrature/tanh_sinh.hpp>
 #include <cmath>
 #include <string>
@@ -181,6 +182,10 @@ double mills_ratio_large(double k) {
 using GK = boost::math::quadrature::gauss_kronrod<double, 61>;
 constexpr double kRelTol = 1e-13;
 constexpr double kWindow = 40.0;  // standard units beyond which the normal weight is < e^-800
+// Bisection depth of the adaptive Gauss-Kronrod rule per piece: at most 2^12 subintervals of 61
+// points, which smooth integrands never approach, and which bounds the cost of a pathological one
+// (a back-transform growing like sinh across a wide window) to milliseconds.
+constexpr unsigned kMaxDepth = 12;
 
 // Integral of f over [a, b] split at the interior points of `cuts` (sorted, clipped).
 template <class F>
@@ -191,7 +196,7 @@ double integrate_pieces(F f, double a, double b, std::vector<double> cuts) {
   double sum = 0.0;
   for (std::size_t i = 0; i + 1 < cuts.size(); ++i) {
     const double lo = std::max(a, cuts[i]), hi = std::min(b, cuts[i + 1]);
-    if (hi > lo) sum += GK::integrate(f, lo, hi, 20, kRelTol);
+    if (hi > lo) sum += GK::integrate(f, lo, hi, kMaxDepth, kRelTol);
   }
   return sum;
 }
@@ -270,15 +275,21 @@ BackValue normal_mean(const Transform& t, double mu, double sigma, double* cut_m
   const double peak = std::max(0.0, -kappa);
   const double lo = std::max(0.0, peak - kWindow - reach), hi = peak + kWindow + reach;
   double ev = 0.0;
-  double start = lo;
-  if (lo == 0.0) {
-    // Next to the limit the integrand may have an integrable singularity (p in (-1, 0)) or a
-    // kink: tanh-sinh handles endpoint behaviour of that kind.
-    start = std::min(1.0, hi);
-    boost::math::quadrature::tanh_sinh<double> ts;
-    ev += ts.integrate(f, 0.0, start, kRelTol);
+  try {
+    double start = lo;
+    if (lo == 0.0) {
+      // Next to the limit the integrand may have an integrable singularity (p in (-1, 0)) or a
+      // kink: tanh-sinh handles endpoint behaviour of that kind.
+      start = std::min(1.0, hi);
+      boost::math::quadrature::tanh_sinh<double> ts;
+      ev += ts.integrate(f, 0.0, start, kRelTol);
+    }
+    ev += integrate_pieces(f, start, hi, {peak - reach, peak, peak + reach});
+  } catch (const boost::math::evaluation_error&) {
+    // The quadrature met a point where the back-transform overflows: in floating point the mean
+    // is the overflow limit, reported as bounded like any other overflow.
+    ev = math::kInf;
   }
-  ev += integrate_pieces(f, start, hi, {peak - reach, peak, peak + reach});
   b.value = x_of_v(s, ev);
   b.bounded = !std::isfinite(ev);
   return b;

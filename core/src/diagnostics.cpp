@@ -38,6 +38,8 @@ void breusch_pagan(const Model& m, ResidualChecks& out) {
   if (df < 1.0) return;
   out.bp_statistic = static_cast<double>(m.n()) * (1.0 - rss / tss);
   out.bp_df = df;
+  // Residuals too large to square (or an aux fit that overflowed) give no statistic: p stays NaN.
+  if (!std::isfinite(out.bp_statistic)) return;
   const boost::math::chi_squared cs(df);
   out.bp_p = boost::math::cdf(boost::math::complement(cs, std::max(out.bp_statistic, 0.0)));
 }
@@ -71,6 +73,7 @@ void reset(const Model& m, ResidualChecks& out) {
   out.reset_df2 = df2;
   if (!(rss1 > 0.0)) return;
   out.reset_f = ((m.rss() - rss1) / q) / (rss1 / df2);
+  if (!std::isfinite(out.reset_f)) return;
   const boost::math::fisher_f fd(q, df2);
   out.reset_p = boost::math::cdf(boost::math::complement(fd, std::max(out.reset_f, 0.0)));
 }
