@@ -175,10 +175,6 @@ pwb_log_type <- function(tr) {
     tr$shift == 0 && !isTRUE(tr$reflect)
 }
 
-pwb_transform_label <- function(tr, v) {
-  if (is.null(tr) || identical(tr$family, "identity") && tr$shift == 0 && !isTRUE(tr$reflect)) v
-  else gsub("\\bx\\b", v, format(tr)[1L])
-}
 
 # The design column a contrast moves by one, alone (NA when it moves several).
 pwb_unit_column <- function(d) {

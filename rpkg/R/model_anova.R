@@ -62,8 +62,7 @@ anova.pwb_model <- function(object, ...) {
                     `Pr(>F)` = c(stats::pf(fval[keep], df[keep], dfr, lower.tail = FALSE), NA),
                     check.names = FALSE, row.names = c(labels[keep], "Residuals"))
   structure(tab, heading = c("Analysis of Variance Table (transformed scale)\n",
-                             paste0("Response: ", object$yname, " transformed by ",
-                                    format(object$response))),
+                             paste0("Response: ", format(object$response, name = object$yname))),
             class = c("anova", "data.frame"))
 }
 

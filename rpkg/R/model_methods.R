@@ -56,11 +56,11 @@ NULL
 #' @export
 print.pwb_model <- function(x, ...) {
   cat("<pwb_model> linear model on the transformed scale\n")
-  cat("  response ", x$yname, ": ", format(x$response), "\n", sep = "")
+  cat("  response ", x$yname, ": ", format(x$response, name = x$yname), "\n", sep = "")
   pwb_lambda_warnings(x$response_lambda)
   if (length(x$predictors)) {
     for (v in names(x$predictors))
-      cat("  predictor ", v, ": ", format(x$predictors[[v]]), "\n", sep = "")
+      cat("  predictor ", v, ": ", format(x$predictors[[v]], name = v), "\n", sep = "")
   } else {
     cat("  predictors: untransformed\n")
   }
@@ -96,13 +96,13 @@ summary.pwb_model <- function(object, ...) {
 #' @export
 print.summary.pwb_model <- function(x, digits = max(3L, getOption("digits") - 3L), ...) {
   cat("Transforms:\n")
-  cat("  response ", x$yname, ": ", format(x$response), "\n", sep = "")
+  cat("  response ", x$yname, ": ", format(x$response, name = x$yname), "\n", sep = "")
   if (!is.null(x$response_lambda))
     cat(sprintf("    estimated lambda %.4g, interval [%.4g, %.4g]\n", x$response_lambda$lambda,
                 x$response_lambda$conf_int[1L], x$response_lambda$conf_int[2L]))
   pwb_lambda_warnings(x$response_lambda)
   for (v in names(x$predictors))
-    cat("  predictor ", v, ": ", format(x$predictors[[v]]), "\n", sep = "")
+    cat("  predictor ", v, ": ", format(x$predictors[[v]], name = v), "\n", sep = "")
   cat("\nFit on the transformed scale", if (isTRUE(x$weighted)) " (weighted)", ": ",
       deparse1(x$formula), "\n", sep = "")
   if (any(x$aliased))

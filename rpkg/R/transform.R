@@ -148,6 +148,7 @@ print.pwb_transform <- function(x, ...) {
 # "log of Volume", "yeo-johnson(lambda = 0.3) of (rain - 2)": the library's description with
 # the variable's name in place of its generic x.
 pwb_transform_label <- function(tr, name = "x") {
+  if (is.null(tr)) return(name)
   txt <- rpwb_transform_describe(tr, 3L)
   cut <- regexpr(" of ", txt, fixed = TRUE)
   if (cut < 0L) return(txt)
