@@ -97,7 +97,7 @@ test_that("print and summary show the transforms and the original-scale fit", {
   d <- pwb_sim_cost(40, 6)
   m <- lm_transformed(cost ~ area + age, d, response = new_transform("log"),
                       predictors = list(area = new_transform("log")))
-  expect_output(print(m), "response cost: log of x")
+  expect_output(print(m), "response cost: log of cost")
   expect_output(print(m), "predictor area: log")
   s <- summary(m)
   expect_s3_class(s, "summary.pwb_model")
