@@ -138,7 +138,42 @@ cases <- list(
   list(what = "Box-Cox lambda = -2 at 1e9: no digits left to invert",
        expr = quote(invert_transform(new_transform("box-cox", lambda = -2),
                                      apply_transform(new_transform("box-cox", lambda = -2), 1e9))),
-       error = "z < 0.5.*row 1")
+       error = "z < 0.5.*row 1"),
+  # offsets are refused by every entry point, never silently ignored
+  list(what = "an offset in lm_transformed with response = \"none\"",
+       expr = quote(lm_transformed(y ~ x1 + offset(log(x2)), dat, response = "none")),
+       error = "offsets are not supported"),
+  list(what = "residual checks of an lm with an offset",
+       expr = quote(residual_checks(lm(y ~ x1 + offset(log(x2)), dat))), error = "offset"),
+  list(what = "an offset in compare_transforms",
+       expr = quote(compare_transforms(y ~ x1 + offset(log(x2)), dat, seed = 1)),
+       error = "offsets are not supported"),
+  # a perfect fit has no maximum-likelihood power
+  list(what = "a response computed exactly from its predictor",
+       expr = quote(estimate_response_lambda(y ~ x1, transform(dat, y = 2 + 3 * x1))),
+       error = "no power can be estimated"),
+  # at_bound only at the range's ends, however wide the range
+  list(what = "an interior power in a wide range is not at a bound",
+       expr = quote(estimate_lambda(x_pos, range = c(-90, 90))),
+       check = function(r) expect_false(r$at_bound)),
+  list(what = "a search range of +-1e300",
+       expr = quote(estimate_lambda(x_pos, range = c(-1e300, 1e300))), error = "range"),
+  list(what = "a variable the data lack", expr = quote(estimate_response_lambda(y ~ zz, dat)),
+       error = "zz"),
+  # new data: empty, and a numeric column passed as text
+  list(what = "empty new data",
+       expr = quote(predict(lm_transformed(y ~ x1, dat, response = "none"), dat[0, ])),
+       check = function(p) {
+         expect_identical(nrow(p), 0L)
+         expect_true(all(c("fit", "lwr", "upr") %in% names(p)))
+       }),
+  list(what = "a numeric predictor passed as text in new data",
+       expr = quote(predict(lm_transformed(y ~ x1, dat, response = "none"),
+                            transform(dat, x1 = as.character(x1)))),
+       error = "x1"),
+  list(what = "a matrix keeps its dimensions through a transform",
+       expr = quote(apply_transform(new_transform("log"), matrix(1:4, 2))),
+       check = function(v) expect_identical(dim(v), c(2L, 2L)))
 )
 
 for (cs in cases) {
