@@ -19,7 +19,11 @@ export MAKEFLAGS="-j$jobs"
 
 mkdir -p "$build"
 echo "== C++ core and C ABI (cmake + ctest)"
-cmake -S "$root" -B "$build" -DCMAKE_BUILD_TYPE=RelWithDebInfo -DPWB_WARNINGS_AS_ERRORS=ON >"$build/cmake.log" 2>&1 \
+# ccache, where the machine has it, makes the three builds below (plain, sanitized, fuzz) cheap to
+# repeat; without it the compilers run directly.
+launcher=()
+if command -v ccache >/dev/null; then launcher=(-DCMAKE_CXX_COMPILER_LAUNCHER=ccache -DCMAKE_C_COMPILER_LAUNCHER=ccache); fi
+cmake -S "$root" -B "$build" -DCMAKE_BUILD_TYPE=RelWithDebInfo -DPWB_WARNINGS_AS_ERRORS=ON "${launcher[@]}" >"$build/cmake.log" 2>&1 \
   || { cat "$build/cmake.log"; exit 1; }
 cmake --build "$build" -j "$jobs" >"$build/build.log" 2>&1 || { tail -n 60 "$build/build.log"; exit 1; }
 set +e
@@ -31,8 +35,6 @@ set -e
 # second tree (only the test programs are built; the R package and install tests are not).
 echo "== Sanitizers: ctest of the C++ and C tests under -DPWB_SANITIZE=address,undefined"
 asan=${PWB_ASAN_BUILD_DIR:-$root/build-asan}
-launcher=()
-if command -v ccache >/dev/null; then launcher=(-DCMAKE_CXX_COMPILER_LAUNCHER=ccache -DCMAKE_C_COMPILER_LAUNCHER=ccache); fi
 mkdir -p "$asan"
 san_rc=0
 cmake -S "$root" -B "$asan" -DCMAKE_BUILD_TYPE=RelWithDebInfo -DPWB_WARNINGS_AS_ERRORS=ON \
