@@ -37,7 +37,9 @@ echo "== Sanitizers: ctest of the C++ and C tests under -DPWB_SANITIZE=address,u
 asan=${PWB_ASAN_BUILD_DIR:-$root/build-asan}
 mkdir -p "$asan"
 san_rc=0
-cmake -S "$root" -B "$asan" -DCMAKE_BUILD_TYPE=RelWithDebInfo -DPWB_WARNINGS_AS_ERRORS=ON \
+# Warnings are gated by the plain build above; under the sanitizers GCC 12 raises false
+# -Wmaybe-uninitialized warnings inside libstdc++'s <regex> (used by Catch2), so not as errors here.
+cmake -S "$root" -B "$asan" -DCMAKE_BUILD_TYPE=RelWithDebInfo -DPWB_WARNINGS_AS_ERRORS=OFF \
   -DPWB_SANITIZE=address,undefined "${launcher[@]}" >"$asan/cmake.log" 2>&1 || { cat "$asan/cmake.log"; san_rc=1; }
 if [ "$san_rc" -eq 0 ]; then
   cmake --build "$asan" -j "$jobs" --target pwb_core_tests pwb_capi_tests pwb_c99_header_check \
