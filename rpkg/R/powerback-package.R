@@ -51,7 +51,7 @@
 #' \method{coef}{pwb_box_tidwell}(object, ...)
 #' \method{print}{pwb_influence}(x, n = 5L, ...)
 #' \method{plot}{pwb_influence}(x, ...)
-#' \method{print}{summary.pwb_model}(x, ...)
+#' \method{print}{summary.pwb_model}(x, digits = max(3L, getOption("digits") - 3L), ...)
 #' @name pwb_result_methods
 #' @aliases print.pwb_box_tidwell coef.pwb_box_tidwell print.pwb_influence plot.pwb_influence
 #'   print.summary.pwb_model
