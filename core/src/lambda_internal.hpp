@@ -10,6 +10,7 @@
 #include <vector>
 
 #include "powerback/lambda.hpp"
+#include "powerback/tall_qr.hpp"
 
 namespace powerback {
 namespace detail {
@@ -110,6 +111,19 @@ class LambdaProfile {
   // the profile: lambdas the bins do not cover are evaluated from X's rows.
   LambdaProfile(const double* y, const double* X, std::size_t n, std::size_t p, Family family,
                 const std::string& what, const double* weights = nullptr);
+  // Response, with the design's factorisation left to the caller, so that many responses
+  // share one (lambda_many.cpp): y is checked and prepared here; then factor_design() on any
+  // one of the profiles (they share X and the weights) with a visitor that passes every block
+  // to each profile's add_design_rows(), and adopt_design() on each with the result. The
+  // streamed constructor above is exactly this sequence for one response.
+  struct DeferDesign {};
+  LambdaProfile(const double* y, const double* X, std::size_t n, std::size_t p, Family family,
+                const std::string& what, const double* weights, DeferDesign);
+  TallFactor factor_design(const DesignBlockVisitor& gather) const;
+  void add_design_rows(std::size_t r0, const Eigen::Ref<const Eigen::MatrixXd>& block) {
+    if (binned_) binned_->add_rows(r0, block);
+  }
+  void adopt_design(const TallFactor& f, const std::string& what);
   ~LambdaProfile();
   // The binned sums refer to this object's members: neither copied nor moved.
   LambdaProfile(const LambdaProfile&) = delete;
@@ -140,7 +154,6 @@ class LambdaProfile {
   void select_rows(const double* v, std::size_t n, const double* weights, const std::string& what);
   void prepare(const double* v);
   void check_rank(std::size_t n, std::size_t rank, const std::string& what) const;
-  void factor_streamed(const double* X, std::size_t n, std::size_t p, const std::string& what);
   // log RSS at each lambda directly (see the class comment); exact-fit error when an RSS is 0.
   void log_rss_direct(const double* lambdas, std::size_t m, double* out,
                       double* log_tss = nullptr) const;
@@ -168,6 +181,14 @@ class LambdaProfile {
   double pos_min_ = 0.0, pos_max_ = 0.0, neg_min_ = 0.0, neg_max_ = 0.0;  // ranges of t per sign
   std::unique_ptr<BinnedProfile> binned_;  // fast path for large n (see BinnedProfile)
 };
+
+// The estimate (and, for m >= 2, its profile curve on profile_grid(estimate, m)) from a prepared
+// profile, as the public estimators compute it (lambda_search.cpp); the options are checked
+// first.
+LambdaEstimate estimate_on_profile(const LambdaProfile& prof, const LambdaOptions& opt,
+                                   std::size_t m = 0, std::vector<double>* grid = nullptr,
+                                   std::vector<double>* loglik = nullptr);
+void check_lambda_options(const LambdaOptions& opt);
 
 // The binned fast path is tried from this many observations on, for |k| up to kBinnedKValid
 // (which covers lambda in [-3, 3] for both families, Yeo-Johnson's 2 - lambda included).

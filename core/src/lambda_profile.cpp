@@ -183,20 +183,26 @@ LambdaProfile::LambdaProfile(const double* y, const double* X, std::size_t n, st
     : family_(family), X_(X), p_(p), response_(true) {
   select_rows(y, n, weights, what);
   make_binned(p + 1);
-  factor_streamed(X, n, p, what);
-  if (!binned_) return;
-  binned_->set_design(kept_, r_);
-  if (!binned_->useful()) binned_.reset();
-}
-
-void LambdaProfile::factor_streamed(const double* X, std::size_t n, std::size_t p,
-                                    const std::string& what) {
-  require(X != nullptr || p == 0, "X is NULL but p > 0");
   DesignBlockVisitor gather;
   if (binned_)
     gather = [this](std::size_t r0, const Eigen::Ref<const Eigen::MatrixXd>& block) {
       binned_->add_rows(r0, block);
     };
+  adopt_design(factor_design(gather), what);
+}
+
+LambdaProfile::LambdaProfile(const double* y, const double* X, std::size_t n, std::size_t p,
+                             Family family, const std::string& what, const double* weights,
+                             DeferDesign)
+    : family_(family), X_(X), p_(p), response_(true) {
+  select_rows(y, n, weights, what);
+  make_binned(p + 1);
+}
+
+TallFactor LambdaProfile::factor_design(const DesignBlockVisitor& gather) const {
+  const double* X = X_;
+  const std::size_t n = n_all_, p = p_;
+  require(X != nullptr || p == 0, "X is NULL but p > 0");
   TallFactor f;
   if (w_.size() > 0) {
     // Weighted: the used rows scaled by sqrt(w), the intercept column sqrt(w) itself (what a
@@ -224,10 +230,17 @@ void LambdaProfile::factor_streamed(const double* X, std::size_t n, std::size_t 
       throw;
     }
   }
+  return f;
+}
+
+void LambdaProfile::adopt_design(const TallFactor& f, const std::string& what) {
   check_rank(static_cast<std::size_t>(t_.size()), f.rank(), what);
   kept_ = f.kept;
   aliased_ = f.aliased;
   r_ = f.r;
+  if (!binned_) return;
+  binned_->set_design(kept_, r_);
+  if (!binned_->useful()) binned_.reset();
 }
 
 LambdaProfile::~LambdaProfile() = default;

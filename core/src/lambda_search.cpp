@@ -215,4 +215,18 @@ LambdaEstimate estimate_response_lambda_curve(const double* y, const double* X, 
   return est;
 }
 
+namespace detail {
+
+void check_lambda_options(const LambdaOptions& opt) { check_options(opt); }
+
+LambdaEstimate estimate_on_profile(const LambdaProfile& prof, const LambdaOptions& opt,
+                                   std::size_t m, std::vector<double>* grid,
+                                   std::vector<double>* loglik) {
+  check_options(opt);
+  const LambdaEstimate est = prof.response() ? with_design(search(prof, opt), prof) : search(prof, opt);
+  if (m >= 2) curve_of(prof, est, m, grid, loglik);
+  return est;
+}
+
+}  // namespace detail
 }  // namespace powerback
