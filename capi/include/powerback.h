@@ -331,6 +331,39 @@ typedef enum pwb_lambda_input {
  * DOMAIN for Box-Cox's y <= 0, ARGUMENT for negative weights). Never fails; per thread. */
 PWB_API size_t pwb_lambda_error_rows(size_t *rows, size_t cap, int *input);
 
+/* Response lambdas of q responses against ONE shared design, each as
+ * pwb_estimate_response_lambda_curve would give it alone (the same numbers to rounding), with the
+ * design [1 X] read and factored once: one blocked pass over X's rows builds its R and decides
+ * its rank while every response's binned sums are gathered; then each response is searched on
+ * its own. Y: n-by-q, column-major (column j is response j); X: n-by-p as for
+ * pwb_estimate_response_lambda; opt as there (the weights are shared by every response). All
+ * inputs are read during the call only.
+ * out: caller-owned array of q pwb_lambda_result. Set each element's struct_size (e.g. with
+ *   pwb_lambda_result_init on each); the array's stride is taken as out[0].struct_size, so every
+ *   element must carry the same value (at least sizeof(pwb_lambda_result) of this header).
+ * status_out: caller-owned array of q pwb_status, or NULL: PWB_OK where out[j] was written, else
+ *   the status of response j's failure.
+ * n_grid: 0 for no profile curves (grid_out and loglik_out may then be NULL), else >= 2 and
+ *   grid_out, loglik_out caller-owned arrays of q * n_grid doubles: response j's curve (as
+ *   pwb_estimate_response_lambda_curve's) at offsets j * n_grid; NaN for a failed response.
+ * Failures of one response (PWB_ERR_DOMAIN for values <= 0 under Box-Cox, PWB_ERR_NONFINITE,
+ *   PWB_ERR_ARGUMENT for a constant column or fewer than 3 usable values, PWB_ERR_SINGULAR for an
+ *   exact fit) do not stop the others: every other response is written, and the call returns the
+ *   status of the FIRST failing response, whose message (naming it "Y column j (0-based)") is
+ *   this thread's pwb_last_error() text and whose rows are in pwb_lambda_error_rows(). For the
+ *   message of a later failing response, call pwb_estimate_response_lambda on that column.
+ * Failures of the shared inputs (NULL pointers, q == 0, n_grid == 1, bad options or weights,
+ *   non-finite X, n <= rank + 1, an element's struct_size too small or unequal) stop the call:
+ *   nothing is written to out, every status_out[j] (when given) is set to the returned status.
+ * Returns PWB_OK when every response was estimated. Thread-safe (no shared state; the error
+ * text and rows are per thread). */
+PWB_API pwb_status pwb_estimate_response_lambdas(const double *Y, size_t n, size_t q,
+                                                 const double *X, size_t p, pwb_family family,
+                                                 const pwb_lambda_options *opt,
+                                                 pwb_lambda_result *out, pwb_status *status_out,
+                                                 size_t n_grid, double *grid_out,
+                                                 double *loglik_out);
+
 /* @@PWB_SECTION_ESTIMATION@@ (declarations of this section go above this line) */
 
 

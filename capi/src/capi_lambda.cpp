@@ -3,6 +3,7 @@
 #include <vector>
 
 #include "capi_internal.hpp"
+#include "capi_lambda_guard.hpp"
 #include "capi_lambda_result.hpp"
 #include "capi_sizes.hpp"
 #include "powerback/lambda.hpp"
@@ -226,3 +227,7 @@ size_t pwb_lambda_error_rows(size_t* rows, size_t cap, int* input) {
 }
 
 }  // extern "C"
+
+pwb_status powerback::capi::lambda_guarded_call(const std::function<void()>& body) noexcept {
+  return lambda_guarded(body);
+}
