@@ -77,6 +77,10 @@ rpwb_lambda_profile <- function(y, X, family, grid, weights = NULL) {
     .Call(`_powerback_rpwb_lambda_profile`, y, X, family, grid, weights)
 }
 
+rpwb_estimate_response_lambdas <- function(Y, X, family, lower, upper, level, n_grid, weights = NULL, skip = 0L) {
+    .Call(`_powerback_rpwb_estimate_response_lambdas`, Y, X, family, lower, upper, level, n_grid, weights, skip)
+}
+
 rpwb_model_new <- function(y, X, intercept, response, estimated, weights) {
     .Call(`_powerback_rpwb_model_new`, y, X, intercept, response, estimated, weights)
 }

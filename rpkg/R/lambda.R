@@ -60,6 +60,16 @@
 #'   `loglik` of about 101 points spanning the interval), `variable` (the variable's name),
 #'   `predictors` (`NULL`, or the right-hand side of the model), `rank` and `aliased` (response
 #'   case) and `na_action`. Methods: print, plot, coef, confint, [as_transform()].
+#'
+#'   With a matrix response (`cbind(y1, y2, ...) ~ x`, or a numeric matrix column of `data`),
+#'   `estimate_response_lambda()` returns a `pwb_lambda_set` instead: a data frame with one row
+#'   per response (`response`, `lambda`, `conf_low`, `conf_high`, `convenient`, `at_bound`,
+#'   `converged`, `n`; see [print.pwb_lambda_set()]), each response estimated against the same
+#'   design with one factorisation of it, and equal to a separate call on that response over the
+#'   same rows. Rows with a missing value in any response are handled by `na.action`, as
+#'   [stats::lm()] handles a matrix response. [response_fits()] gives each response's full
+#'   `pwb_lambda` (with its profile). A column that Box-Cox cannot take (a value \eqn{\le 0}) is
+#'   an error naming the column and its rows.
 #' @seealso [as_transform()], [new_transform()], [lm_transformed()]
 #' @examples
 #' river <- river_data()
@@ -71,6 +81,9 @@
 #'
 #' # the response given predictors (a factor and a log-transformed flow)
 #' estimate_response_lambda(sediment_t_day ~ log(flow_m3s) + rain72_mm + season, river)
+#'
+#' # several responses against the same predictors, one factorisation of the design
+#' estimate_response_lambda(cbind(Ozone, Wind) ~ Temp + Month, datasets::airquality)
 #' @export
 estimate_lambda <- function(x, family = c("box-cox", "yeo-johnson"), range = c(-3, 3),
                             level = 0.95, weights = NULL) {
@@ -123,6 +136,8 @@ estimate_response_lambda <- function(object, data = NULL, family = c("box-cox", 
   y <- stats::model.response(mf)
   if (is.null(y))
     stop("the model needs a response on the left of `~`", call. = FALSE)
+  if (is.matrix(y) && is.numeric(y))  # many responses, one design: lambda_many.R
+    return(pwb_lambda_set_estimate(mf, y, family, range, level))
   if (!is.numeric(y) || is.matrix(y))
     stop(sprintf(paste0("the response `%s` is %s, not a numeric vector: convert it (e.g. ",
                         "as.numeric() on a column of numbers stored as text) or choose a numeric ",

@@ -46,7 +46,8 @@
 #' [predict.pwb_model()]); and these results inform, but do not replace, domain standards and
 #' professional judgement.
 #'
-#' @param formula a two-sided formula of raw variables; its left side must be a variable name.
+#' @param formula a two-sided formula of raw variables; its left side must be a variable name,
+#'   or `cbind(y1, y2, ...)` of variable names for one model per response (see Value).
 #'   A fitted `lm` is accepted too: its formula, data, weights, subset and `na.action` are
 #'   reused (arguments given here override its `na.action`).
 #' @param data a data frame holding the variables of the formula; when missing, the variables
@@ -72,6 +73,13 @@
 #'   `df_residual`, `rank`, `loglik`, `loglik_df`, `nobs`, `na.action`, `xlevels`,
 #'   `contrasts` and the live core model (`handle`). `$residuals`, `$fitted` (transformed
 #'   scale), `$leverages`, `$y` (raw response) and `$lm` are read from the core model on request.
+#'
+#'   With `cbind(y1, y2, ...)` on the left, a `pwb_model_set` (see [print.pwb_model_set()]): a
+#'   named list of one `pwb_model` per response, each equal to a separate `lm_transformed()` of
+#'   that response with the same arguments over the same rows (a row with a missing value in any
+#'   response is left out of every model through `na.action`, as [stats::lm()] treats a matrix
+#'   response); `data` must then be a data frame. Each model's `call` names its own response
+#'   (re-running it does not drop the rows missing only in the other responses).
 #' @seealso [predict.pwb_model()], [pwb_model_methods], [anova.pwb_model()],
 #'   [transformed_lm()], [residual_checks()], [plot.pwb_model()]
 #' @examples
@@ -92,6 +100,8 @@
 lm_transformed <- function(formula, data, response = "estimate", predictors = NULL,
                            family = "box-cox", level = 0.95, na.action = NULL, weights = NULL,
                            subset = NULL, range = c(-3, 3)) {
+  if (pwb_is_cbind_formula(formula))  # several responses: model_many.R
+    return(pwb_model_set_fit(formula, match.call(), parent.frame()))
   call <- match.call()
   pwb_check_level(level)
   family <- match.arg(family, c("box-cox", "yeo-johnson"))

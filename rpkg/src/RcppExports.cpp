@@ -289,6 +289,25 @@ BEGIN_RCPP
     return rcpp_result_gen;
 END_RCPP
 }
+// rpwb_estimate_response_lambdas
+Rcpp::List rpwb_estimate_response_lambdas(Rcpp::NumericMatrix Y, Rcpp::NumericMatrix X, std::string family, double lower, double upper, double level, int n_grid, Rcpp::Nullable<Rcpp::NumericVector> weights, int skip);
+RcppExport SEXP _powerback_rpwb_estimate_response_lambdas(SEXP YSEXP, SEXP XSEXP, SEXP familySEXP, SEXP lowerSEXP, SEXP upperSEXP, SEXP levelSEXP, SEXP n_gridSEXP, SEXP weightsSEXP, SEXP skipSEXP) {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< Rcpp::NumericMatrix >::type Y(YSEXP);
+    Rcpp::traits::input_parameter< Rcpp::NumericMatrix >::type X(XSEXP);
+    Rcpp::traits::input_parameter< std::string >::type family(familySEXP);
+    Rcpp::traits::input_parameter< double >::type lower(lowerSEXP);
+    Rcpp::traits::input_parameter< double >::type upper(upperSEXP);
+    Rcpp::traits::input_parameter< double >::type level(levelSEXP);
+    Rcpp::traits::input_parameter< int >::type n_grid(n_gridSEXP);
+    Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::NumericVector> >::type weights(weightsSEXP);
+    Rcpp::traits::input_parameter< int >::type skip(skipSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_estimate_response_lambdas(Y, X, family, lower, upper, level, n_grid, weights, skip));
+    return rcpp_result_gen;
+END_RCPP
+}
 // rpwb_model_new
 SEXP rpwb_model_new(Rcpp::NumericVector y, Rcpp::NumericMatrix X, bool intercept, Rcpp::Nullable<Rcpp::List> response, int estimated, Rcpp::Nullable<Rcpp::NumericVector> weights);
 RcppExport SEXP _powerback_rpwb_model_new(SEXP ySEXP, SEXP XSEXP, SEXP interceptSEXP, SEXP responseSEXP, SEXP estimatedSEXP, SEXP weightsSEXP) {
@@ -468,6 +487,7 @@ static const R_CallMethodDef CallEntries[] = {
     {"_powerback_rpwb_estimate_lambda", (DL_FUNC) &_powerback_rpwb_estimate_lambda, 7},
     {"_powerback_rpwb_estimate_response_lambda", (DL_FUNC) &_powerback_rpwb_estimate_response_lambda, 9},
     {"_powerback_rpwb_lambda_profile", (DL_FUNC) &_powerback_rpwb_lambda_profile, 5},
+    {"_powerback_rpwb_estimate_response_lambdas", (DL_FUNC) &_powerback_rpwb_estimate_response_lambdas, 9},
     {"_powerback_rpwb_model_new", (DL_FUNC) &_powerback_rpwb_model_new, 6},
     {"_powerback_rpwb_model_is_live", (DL_FUNC) &_powerback_rpwb_model_is_live, 1},
     {"_powerback_rpwb_model_summary", (DL_FUNC) &_powerback_rpwb_model_summary, 1},
