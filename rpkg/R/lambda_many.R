@@ -28,7 +28,7 @@ pwb_lambda_set_estimate <- function(mf, y, family, range, level) {
   resp <- pwb_response_names(lhs, y)
   w <- stats::model.weights(mf)
   mm <- stats::model.matrix(mt, mf)
-  ym <- matrix(as.double(y), nrow = nrow(y))
+  ym <- if (is.double(y)) y else matrix(as.double(y), nrow = nrow(y))  # no copy when double
   res <- rpwb_estimate_response_lambdas(ym, mm, family, range[1L], range[2L], level, 101L,
                                         if (is.null(w)) NULL else as.double(w), 1L)
   if (!is.null(res$error)) {
@@ -158,7 +158,7 @@ print.pwb_lambda_set <- function(x, digits = 3, ...) {
   flags <- ifelse(open, trimws(paste(flags, "open interval")), flags)
   tab <- data.frame(response = resp, lambda = f(x$lambda),
                     interval = sprintf("[%s, %s]", f(x$conf_low), f(x$conf_high)),
-                    convenient = format(x$convenient), flags = flags,
+                    convenient = f(x$convenient), flags = flags,
                     stringsAsFactors = FALSE, check.names = FALSE)
   names(tab)[3L] <- sprintf("%g%% interval", 100 * level)
   if (!any(nzchar(flags))) tab$flags <- NULL

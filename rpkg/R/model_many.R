@@ -84,12 +84,11 @@ print.pwb_model_set <- function(x, ...) {
   pwb_cat_wrap(sprintf("<pwb_model_set> %d linear %s on transformed scales: %s", length(fits),
                        pwb_plural(length(fits), "model"),
                        deparse1(attr(x, "formula"))))
-  lab <- function(m) pwb_transform_label(m$response, m$yname)
   f <- function(v) pwb_format_num(v, 3L)
   tab <- data.frame(
     response = names(fits),
-    transform = vapply(fits, lab, character(1)),
-    lambda = vapply(fits, function(m) {
+    transform = vapply(fits, function(m) pwb_model_set_transform(m$response), character(1)),
+    estimated = vapply(fits, function(m) {
       l <- m$response_lambda
       if (is.null(l)) "fixed" else sprintf("%s [%s, %s]", f(l$lambda), f(l$conf_int[1L]),
                                          f(l$conf_int[2L]))
@@ -99,8 +98,6 @@ print.pwb_model_set <- function(x, ...) {
     loglik = vapply(fits, function(m) format(as.numeric(stats::logLik(m)), digits = 6),
                     character(1)),
     stringsAsFactors = FALSE, check.names = FALSE)
-  tab$transform <- ifelse(nchar(tab$transform) > 22L, paste0(substr(tab$transform, 1L, 21L), "~"),
-                          tab$transform)
   tab$response <- ifelse(nchar(tab$response) > 14L, paste0(substr(tab$response, 1L, 13L), "~"),
                          tab$response)
   print(tab, right = FALSE, row.names = FALSE)
@@ -134,4 +131,15 @@ print.summary.pwb_model_set <- function(x, ...) {
 `[.pwb_model_set` <- function(x, i) {
   structure(unclass(x)[i], class = "pwb_model_set", call = attr(x, "call"),
             formula = attr(x, "formula"))
+}
+
+# A short label of a response transform for the set's table: "box-cox 0.333", "log", "none",
+# with a shift or reflection noted.
+pwb_model_set_transform <- function(tr) {
+  if (is.null(tr) || identical(tr$family, "identity")) return("none")
+  lab <- tr$family
+  if (!is.null(tr$lambda) && !is.na(tr$lambda)) lab <- paste(lab, pwb_format_num(tr$lambda, 3L))
+  if (isTRUE(tr$reflect)) lab <- paste(lab, "reflected")
+  if (!is.null(tr$shift) && tr$shift != 0) lab <- paste0(lab, " +", format(tr$shift, digits = 3))
+  if (nchar(lab) > 20L) paste0(substr(lab, 1L, 19L), "~") else lab
 }
