@@ -31,6 +31,20 @@ for (r in seq_len(reps)) {
   gc()
   t_many <- min(t_many, system.time(many <- estimate_response_lambda(f_many, d))[["elapsed"]])
 }
+# The same through the glue alone (model frame and matrix built beforehand): the library's
+# share of each call.
+mf <- stats::model.frame(f_many, d)
+ym <- stats::model.response(mf)
+mm <- stats::model.matrix(attr(mf, "terms"), mf)
+glue <- get("rpwb_estimate_response_lambdas", envir = asNamespace("powerback"))
+glue_one <- get("rpwb_estimate_response_lambda", envir = asNamespace("powerback"))
+t_lib_one <- t_lib_many <- Inf
+for (r in seq_len(reps)) {
+  t_lib_one <- min(t_lib_one, system.time(glue_one(ym[, 1], mm, "box-cox", -3, 3, 0.95, 101L,
+                                                   NULL, 1L))[["elapsed"]])
+  t_lib_many <- min(t_lib_many, system.time(glue(ym, mm, "box-cox", -3, 3, 0.95, 101L, NULL,
+                                                 1L))[["elapsed"]])
+}
 gc()
 t_sep <- system.time(sep <- lapply(seq_len(q), function(j)
   estimate_response_lambda(stats::as.formula(paste0("y", j, " ~ ", rhs)), d)))[["elapsed"]]
@@ -41,3 +55,5 @@ cat(sprintf("n=%g p=%d q=%d\n", n, p, q))
 cat(sprintf("single_seconds=%.3f\nmany_seconds=%.3f\nseparate_seconds=%.3f\n", t_one, t_many, t_sep))
 cat(sprintf("ratio_many_over_single=%.2f  (target <= 3)\n", t_many / t_one))
 cat(sprintf("ratio_separate_over_many=%.2f\n", t_sep / t_many))
+cat(sprintf("library_single_seconds=%.3f\nlibrary_many_seconds=%.3f\n", t_lib_one, t_lib_many))
+cat(sprintf("library_ratio_many_over_single=%.2f\n", t_lib_many / t_lib_one))

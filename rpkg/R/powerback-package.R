@@ -24,6 +24,10 @@
 #' the median of the response (percent changes and elasticities for a log response, changes
 #' between stated values otherwise), with confidence intervals.
 #'
+#' Many responses: [estimate_response_lambda()] and [lm_transformed()] take `cbind(y1, y2, ...)`
+#' on the left of the formula (one factorisation of the shared design for the powers; one model
+#' per response); [response_fits()] gives each response's own result.
+#'
 #' @useDynLib powerback, .registration = TRUE
 #' @importFrom Rcpp evalCpp
 #' @importFrom stats coef confint predict residuals fitted logLik model.frame model.matrix
