@@ -65,6 +65,14 @@ test_that("each response's lambda equals a separate single-response call", {
               estimate_response_lambda(y4 ~ x1, s$data, family = "yeo-johnson"))
   from_lm <- estimate_response_lambda(stats::lm(cbind(y1, y5) ~ x1 + x2, s$data))
   same_lambda(response_fits(from_lm, "y5"), response_fits(set, "y5"))
+  # a numeric matrix variable on the left: its column names name the responses
+  resp <- as.matrix(s$data[, c("y2", "y3")])
+  x1 <- s$data$x1
+  x2 <- s$data$x2
+  mat <- estimate_response_lambda(resp ~ x1 + x2)
+  expect_identical(mat$response, c("y2", "y3"))
+  close_to(mat$lambda, set$lambda[2:3])
+  expect_identical(response_fits(set, 2:3), fits[2:3])
 })
 
 test_that("airquality: rows missing in any response leave every response (na.action)", {
