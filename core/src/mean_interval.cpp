@@ -182,53 +182,100 @@ struct Welford {
   double variance() const { return n > 1 ? m2 / (n - 1) : math::kNaN; }
 };
 
-// S^2 of each output (smearing): the sample variance over residuals i of the output's average
-// of T^{-1}(mu_k + e_i).
-std::vector<double> residual_variances(const Model& model, const detail::MeanEvaluator& ev,
-                                       const Grouping& g, const std::vector<double>& mu,
-                                       const std::vector<char>& missing) {
+// The residual parts of the smearing mean's delta variance, per output k with rows K. With
+// r_i the smearing residuals, D_i the rows of the fitted (weighted) design and
+// u_i = (1/|K|) sum_{j in K} T^{-1}(mu_j + r_i):
+//   s2[k]   sample variance of u_i over i;
+//   cov[k]  sample covariance of u_i with r_i;
+//   w.row(k) (1/(n |K|)) sum_i sum_{j in K} (T^{-1})'(mu_j + r_i) D_i, the part of the gradient
+//            that flows through the residuals r_i = z_i - D_i'b.
+struct ResidualTerms {
+  std::vector<double> s2, cov;
+  Eigen::MatrixXd w;
+};
+
+ResidualTerms residual_terms(const Model& model, const detail::MeanEvaluator& ev, const Grouping& g,
+                             const std::vector<double>& mu, const std::vector<char>& missing,
+                             const std::vector<double>& mean_slope) {
   const Transform& t = model.response();
   const Eigen::VectorXd& e = model.smearing_residuals();
-  const std::size_t G = g.rows.size();
-  std::vector<double> out(G, math::kNaN);
+  const Eigen::MatrixXd& D = model.least_squares().design();
+  const std::size_t G = g.rows.size(), n = static_cast<std::size_t>(e.size());
+  const double sign = t.spec().reflect ? -1.0 : 1.0, nd = static_cast<double>(n);
+  ResidualTerms out;
+  out.s2.assign(G, math::kNaN);
+  out.cov.assign(G, math::kNaN);
+  out.w = Eigen::MatrixXd::Zero(static_cast<Eigen::Index>(G), D.cols());
+  const Eigen::RowVectorXd dbar = D.colwise().mean();
   if (t.spec().family == Family::Identity) {
     Welford w;
     for (Eigen::Index i = 0; i < e.size(); ++i) w.add(e(i));
-    std::fill(out.begin(), out.end(), w.variance());
+    std::fill(out.s2.begin(), out.s2.end(), w.variance());
+    std::fill(out.cov.begin(), out.cov.end(), sign * w.variance());
+    for (std::size_t k = 0; k < G; ++k) out.w.row(static_cast<Eigen::Index>(k)) = sign * dbar;
     return out;
   }
   const double a = ev.exp_scale();
   if (a != 0.0) {
-    // u_i = (mean_k exp(a mu_k)) exp(a e_i) on the v scale (shift and reflection do not change
-    // a variance): sd(u) = exp(log mean_k exp(a mu_k) + a e_max) sd(exp(a (e_i - e_max))).
+    // u_i = sign Q_k exp(a r_i) + const with Q_k = mean_{j in K} exp(a mu_j), written with
+    // exp(a (r_i - r_max)) so that no term overflows unless the mean does.
     const double top = e.maxCoeff();
     Welford w;
-    for (Eigen::Index i = 0; i < e.size(); ++i) w.add(std::exp(a * (e(i) - top)));
-    const double sd = std::sqrt(w.variance());
+    double emean = 0, rmean = e.mean(), c = 0;
+    Eigen::RowVectorXd ed = Eigen::RowVectorXd::Zero(D.cols());
+    for (Eigen::Index i = 0; i < e.size(); ++i) {
+      const double ex = std::exp(a * (e(i) - top));
+      w.add(ex);
+      emean += ex / nd;
+      ed += ex * D.row(i) / nd;
+    }
+    for (Eigen::Index i = 0; i < e.size(); ++i) c += (std::exp(a * (e(i) - top)) - emean) * (e(i) - rmean);
+    c /= nd - 1;
     for (std::size_t k = 0; k < G; ++k) {
       double mx = -math::kInf;
       for (std::size_t r : g.rows[k]) mx = std::max(mx, a * mu[r]);
       double s = 0;
       for (std::size_t r : g.rows[k]) s += std::exp(a * mu[r] - mx);
-      const double lse = mx + std::log(s / static_cast<double>(g.rows[k].size()));
-      const double v = std::exp(lse + a * top) * sd;
-      out[k] = v * v;
+      const double scale = std::exp(mx + std::log(s / static_cast<double>(g.rows[k].size())) + a * top);
+      out.s2[k] = scale * scale * w.variance();
+      out.cov[k] = sign * scale * c;
+      out.w.row(static_cast<Eigen::Index>(k)) = sign * a * scale * ed;
     }
     return out;
   }
-  const std::vector<double> sample = residual_sample(e, mu.size());
+  // Other families: sums over residuals and rows, directly below kMeanDirectPairs pairs; above,
+  // over residual quantiles, with the gradient part taken as mean slope x mean design row.
+  const bool direct = mu.empty() || n <= kMeanDirectPairs / mu.size();
+  std::vector<double> sample;
+  if (!direct) sample = residual_sample(e, mu.size());
+  const double rmean = e.mean();
   for (std::size_t k = 0; k < G; ++k) {
     bool skip = false;
     for (std::size_t r : g.rows[k]) skip = skip || missing[r];
     if (skip) continue;
-    Welford w;
     const double inv = 1.0 / static_cast<double>(g.rows[k].size());
-    for (double ei : sample) {
-      double u = 0;
-      for (std::size_t r : g.rows[k]) u += invert_bounded(t, mu[r] + ei).value;
-      w.add(u * inv);
+    const std::size_t count = direct ? n : sample.size();
+    Welford w;
+    double c = 0;
+    std::vector<double> us(count);
+    Eigen::RowVectorXd wk = Eigen::RowVectorXd::Zero(D.cols());
+    for (std::size_t i = 0; i < count; ++i) {
+      const double ei = direct ? e(static_cast<Eigen::Index>(i)) : sample[i];
+      double u = 0, slope = 0;
+      for (std::size_t r : g.rows[k]) {
+        const BackValue x = invert_bounded(t, mu[r] + ei);
+        u += x.value;
+        // dx/dz = sign / f'(v) = sign exp(-log |dz/dx|); 0 where x sits at the range limit.
+        if (direct && !x.bounded) slope += sign * std::exp(-t.log_abs_derivative(x.value));
+      }
+      us[i] = u * inv;
+      w.add(us[i]);
+      if (direct) wk += (slope * inv / nd) * D.row(static_cast<Eigen::Index>(i));
     }
-    out[k] = w.variance();
+    for (std::size_t i = 0; i < count; ++i) c += (us[i] - w.mean) * ((direct ? e(static_cast<Eigen::Index>(i)) : sample[i]) - rmean);
+    out.s2[k] = w.variance();
+    out.cov[k] = c / (static_cast<double>(count) - 1);
+    out.w.row(static_cast<Eigen::Index>(k)) = direct ? wk : Eigen::RowVectorXd(mean_slope[k] * dbar);
     poll_cancel();
   }
   return out;
@@ -295,7 +342,7 @@ MeanIntervals mean_intervals(const Model& model, const double* Xnew, std::size_t
   out.flags.assign(G, 0u);
   out.rows.resize(G);
   Eigen::MatrixXd grad = Eigen::MatrixXd::Zero(static_cast<Eigen::Index>(G), rows.cols());
-  std::vector<double> d_s2(G, 0.0);
+  std::vector<double> d_s2(G, 0.0), slope(G, 0.0);
   for (std::size_t k = 0; k < G; ++k) {
     out.rows[k] = g.rows[k].size();
     double sum = 0;
@@ -309,27 +356,41 @@ MeanIntervals mean_intervals(const Model& model, const double* Xnew, std::size_t
       sum += d.mean;
       grad.row(static_cast<Eigen::Index>(k)) += d.d_mu * rows.row(static_cast<Eigen::Index>(r));
       d_s2[k] += d.d_sigma2;
+      slope[k] += d.d_mu;
     }
     const double inv = 1.0 / static_cast<double>(g.rows[k].size());
     grad.row(static_cast<Eigen::Index>(k)) *= inv;
     d_s2[k] *= inv;
+    slope[k] *= inv;
     if (!(out.flags[k] & kPredMissing)) out.fit[k] = sum * inv;
   }
   if (G == 0) return out;
   if (opt.method == MeanIntervalMethod::Bootstrap)
     return detail::bootstrap_mean_intervals(model, rows, missing, g, out, opt);
 
-  const Eigen::VectorXd vf = model.least_squares().variance_factor(grad);
-  std::vector<double> s2;
-  if (opt.mean_method == MeanMethod::Smearing) s2 = residual_variances(model, ev, g, mu, missing);
+  const LeastSquares& ls = model.least_squares();
   const double n_res = static_cast<double>(e.size());
   const double df = static_cast<double>(model.df_residual());
   const double z = detail::z_quantile(opt.level);
+  ResidualTerms rt;
+  Eigen::VectorXd one_proj;
+  if (opt.mean_method == MeanMethod::Smearing) {
+    rt = residual_terms(model, ev, g, mu, missing, slope);
+    grad -= rt.w;
+    // (D'D)^{-1} D' 1: the sum over i of the weights c_i with which the coefficients' error
+    // g'(D'D)^{-1} D' eps loads each error; 0 for an unweighted model with an intercept.
+    one_proj = detail::usable_coefficients(ls.coefficients(Eigen::VectorXd::Ones(static_cast<Eigen::Index>(ls.n()))));
+  }
+  const Eigen::VectorXd vf = ls.variance_factor(grad);
   for (std::size_t k = 0; k < G; ++k) {
     if (out.flags[k] & kPredMissing) continue;
     double var = sigma * sigma * vf(static_cast<Eigen::Index>(k));
-    if (opt.mean_method == MeanMethod::Smearing) var += s2[k] / n_res;
-    else var += d_s2[k] * d_s2[k] * 2.0 * sigma * sigma * sigma * sigma / df;
+    if (opt.mean_method == MeanMethod::Smearing) {
+      const double csum = grad.row(static_cast<Eigen::Index>(k)).dot(one_proj);
+      var += rt.s2[k] / n_res + 2.0 * csum * rt.cov[k] / n_res;
+    } else {
+      var += d_s2[k] * d_s2[k] * 2.0 * sigma * sigma * sigma * sigma / df;
+    }
     const double se = std::sqrt(var), M = out.fit[k];
     out.se[k] = se;
     if (M > 0.0 && std::isfinite(M)) {

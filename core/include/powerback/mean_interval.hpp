@@ -13,13 +13,20 @@
 // A group G of rows gets M = (1/|G|) sum_{k in G} m_k.
 //
 // Delta method (a first-order expansion in the estimated quantities):
-//   smearing: var M = sigma^2 gbar' (X'WX)^{-1} gbar + S^2 / n, where
-//     gbar = (1/|G|) sum_k m'(mu_k) x_k, m'(mu) = (1/n) sum_i (T^{-1})'(mu + e_i),
-//     S^2 = the sample variance (divisor n - 1) over i of u_i = (1/|G|) sum_k T^{-1}(mu_k + e_i),
-//     the residuals being treated as a sample of the error distribution (Duan 1983, sec. 5
-//     gives this first-order variance for one row);
-//   normal:   var M = sigma^2 gbar' (X'WX)^{-1} gbar + (dM/dsigma^2)^2 * 2 sigma^4 / df,
-//     var(sigma^2-hat) = 2 sigma^4 / df under normal errors, sigma-hat independent of b.
+//   smearing: the residuals r_i = z_i - D_i'b (D the fitted design, sqrt(w) [1 X] when weighted)
+//     depend on b too, so M = (1/n) sum_i u_i(b), u_i = (1/|G|) sum_k T^{-1}(x_k'b + r_i(b)),
+//     moves with b along
+//       g = (1/|G|) sum_k m'(mu_k) x_k - (1/(n |G|)) sum_i sum_k (T^{-1})'(mu_k + r_i) D_i,
+//     (for one row at the mean design row of an intercept model g is 0: an intercept error
+//     shifts the fit and every residual in opposite directions). With the errors eps_i,
+//     M - M0 ~ (1/n) sum_i (u_i - M0) + g'(D'D)^{-1} D' eps, whose variance is
+//       var M = sigma^2 g'(D'D)^{-1} g + S^2 / n + (2 / n) (g'(D'D)^{-1} D' 1) C,
+//     S^2 the sample variance (divisor n - 1) of u_i over i and C its sample covariance with
+//     r_i; the last term is 0 for an unweighted model with an intercept (D'1 is then D e_1).
+//     Duan (1983, sec. 5) treats the one-row case.
+//   normal:   var M = sigma^2 gbar' (X'WX)^{-1} gbar + (dM/dsigma^2)^2 * 2 sigma^4 / df, with
+//     gbar = (1/|G|) sum_k m'(mu_k) x_k and var(sigma^2-hat) = 2 sigma^4 / df under normal
+//     errors, sigma-hat independent of b.
 // For the log family on an intercept-only model the normal-theory interval below is the "Cox
 // method" interval for a lognormal mean: log-scale mean + s^2/2 -+ z sqrt(s^2/n + s^4/(2(n-1))),
 // exponentiated (Zhou & Gao 1997, Statistics in Medicine 16, 783-790).
@@ -35,12 +42,17 @@
 // (smearing.hpp) with step h = 1e-4 max(1, |mu|) (truncation h^4, rounding ~1e-12 / h: a
 // relative error near 1e-8, far below what an interval needs). The normal-theory mean's
 // derivatives in mu and sigma are exact for the exponential families and the identity and by
-// the same five-point differences of normal_mean otherwise. S^2 is exact and linear for the
-// identity and exponential families (u_i is then affine in T^{-1}(e_i)). For the other families
-// it is summed over residuals and rows directly when n x (new rows) <= kMeanDirectPairs; above
-// that it is summed over q evenly spaced order statistics of the residuals (the (j + 1/2)/q
-// quantiles, q = max(kMeanMinQuantiles, kMeanDirectPairs / rows), at most n), an approximation of
-// the variance term whose relative error is O(1/q) for smooth inverses.
+// the same five-point differences of normal_mean otherwise. The residual parts of the smearing
+// variance (S^2, C and the residual part of g) are exact and linear for the identity and the
+// exponential families (u_i is then affine in T^{-1}(r_i), and the residual part of g is
+// exp(a mu) times a fixed vector). For the other families they are summed over residuals and
+// rows directly when n x (new rows) <= kMeanDirectPairs. Above that, S^2 and C are summed over q
+// evenly spaced order statistics of the residuals (the (j + 1/2)/q quantiles,
+// q = max(kMeanMinQuantiles, kMeanDirectPairs / rows), at most n), an approximation whose
+// relative error is O(1/q) for smooth inverses, and the residual part of g is taken as
+// mean_k m'(mu_k) times the mean design row, which drops the sample covariance between
+// (T^{-1})'(mu + r_i) and D_i (zero in expectation when the errors are independent of the
+// predictors, as the model assumes).
 //
 // Bootstrap (percentile): the residuals are resampled, not the cases, so that the design, its
 // factorisation and its rank stay fixed (a case resample can lose a factor level and change the
