@@ -77,6 +77,10 @@ rpwb_lambda_profile <- function(y, X, family, grid, weights = NULL) {
     .Call(`_powerback_rpwb_lambda_profile`, y, X, family, grid, weights)
 }
 
+rpwb_model_mean_interval <- function(handle, Xnew, group, n_groups, level, mean_method, method, replicates, seed) {
+    .Call(`_powerback_rpwb_model_mean_interval`, handle, Xnew, group, n_groups, level, mean_method, method, replicates, seed)
+}
+
 rpwb_model_new <- function(y, X, intercept, response, estimated, weights) {
     .Call(`_powerback_rpwb_model_new`, y, X, intercept, response, estimated, weights)
 }
