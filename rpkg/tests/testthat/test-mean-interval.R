@@ -21,7 +21,7 @@ test_that("delta intervals cover a known lognormal mean at the nominal rate", {
     g <- mean_ci(m, at, mean_method = "normal")
     hit[r, ] <- c(s$lwr <= truth && truth <= s$upr, g$lwr <= truth && truth <= g$upr)
   }
-  expect_equal(colMeans(hit), c(0.95, 0.95), tolerance = 0.02, scale = 1)
+  expect_lt(max(abs(colMeans(hit) - 0.95)), 0.02)
 })
 
 test_that("bootstrap intervals cover a known lognormal mean within their stated band", {
@@ -38,7 +38,7 @@ test_that("bootstrap intervals cover a known lognormal mean within their stated 
     b <- mean_ci(m, at, mean_interval = "bootstrap", R = 499, seed = r)
     hit[r] <- b$lwr <= truth && truth <= b$upr
   }
-  expect_equal(mean(hit), 0.95, tolerance = 0.046, scale = 1)
+  expect_lt(abs(mean(hit) - 0.95), 0.046)
 })
 
 test_that("normal-theory log mean on an intercept-only model is the Cox interval", {
