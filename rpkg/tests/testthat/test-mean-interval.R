@@ -164,3 +164,22 @@ test_that("bad requests for mean intervals say what to do", {
   expect_error(mean_ci(m, at, by = factor(1:3)), "`by` has 3 values but `newdata` has 2 rows")
   expect_error(mean_ci(m, at, mean_interval = "bootstrap", seed = -1), "`seed`")
 })
+
+test_that("bootstrap group means and the training rows work like the delta ones", {
+  river <- river_data()
+  m <- lm_transformed(sediment_t_day ~ flow_m3s + season, river, response = new_transform("log"),
+                      predictors = list(flow_m3s = new_transform("log")))
+  new <- river_data("new")
+  d <- mean_ci(m, new, by = "season")
+  b <- mean_ci(m, new, by = "season", mean_interval = "bootstrap", R = 199, seed = 3)
+  expect_equal(b$fit, d$fit)
+  expect_identical(b, mean_ci(m, new, by = "season", mean_interval = "bootstrap", R = 199,
+                              seed = 3))
+  # Bootstrap and delta estimate the same spread: 199 replicates put ~5% Monte Carlo error on a
+  # bootstrap interval's width, and first-order methods differ a few percent more; 25%.
+  expect_equal(b$upr - b$lwr, d$upr - d$lwr, tolerance = 0.25)
+  # Without newdata: the training rows, one interval each, aligned with the fitted rows.
+  tr <- mean_ci(m)
+  expect_equal(nrow(tr), nrow(river))
+  expect_equal(tr$fit, predict(m, center = "mean")$fit, tolerance = 1e-13)
+})
