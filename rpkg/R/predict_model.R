@@ -36,7 +36,7 @@
 #'   averages) and the sampling error of the residual average (smearing) or of
 #'   \eqn{\hat\sigma^2} (normal theory, variance \eqn{2\sigma^4/df}); normal quantiles. For a
 #'   log response on an intercept-only model the normal-theory interval is the "Cox method"
-#'   interval for a lognormal mean (Zhou and Gao, 1997, Statistics in Medicine 16, 783-790).
+#'   interval for a lognormal mean (Zhou and Gao, 1997, Statistics in Medicine).
 #' * `"bootstrap"`: `R` refits on residuals resampled with the given `seed` (the design and the
 #'   transforms fixed), and the percentile interval of the recomputed means. Residuals rather
 #'   than cases are resampled so that the design keeps its rank and factor levels; this assumes

@@ -33,7 +33,7 @@ void fit(Handles& h, pwb_family f, std::size_t p) {
 }  // namespace
 
 TEST_CASE("the normal-theory log mean of an intercept-only model is the Cox interval", "[capi][mean_interval]") {
-  // Cox method for a lognormal mean (Zhou & Gao 1997, Statistics in Medicine 16, 783-790;
+  // Cox method for a lognormal mean (Zhou & Gao 1997, Statistics in Medicine;
   // formula from memory): ybar + s^2/2 -+ z sqrt(s^2/n + s^4/(2(n-1))) on the log scale. The
   // same arithmetic on both sides: 1e-12 relative.
   Handles h;

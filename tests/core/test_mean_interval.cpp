@@ -57,7 +57,7 @@ MeanIntervalOptions delta(MeanMethod mm) {
 }  // namespace
 
 TEST_CASE("normal-theory log mean on an intercept-only model is the Cox interval", "[mean_interval]") {
-  // Cox method for a lognormal mean (Zhou & Gao 1997, Statistics in Medicine 16, 783-790;
+  // Cox method for a lognormal mean (Zhou & Gao 1997, Statistics in Medicine;
   // formula from memory): ybar + s^2/2 -+ z sqrt(s^2/n + s^4/(2(n-1))) on the log scale,
   // exponentiated, with the normal quantile z. Same data, same formula: equal to rounding
   // (1e-12 relative allows for the few dozen operations of each side).

@@ -23,13 +23,12 @@
 //       var M = sigma^2 g'(D'D)^{-1} g + S^2 / n + (2 / n) (g'(D'D)^{-1} D' 1) C,
 //     S^2 the sample variance (divisor n - 1) of u_i over i and C its sample covariance with
 //     r_i; the last term is 0 for an unweighted model with an intercept (D'1 is then D e_1).
-//     Duan (1983, sec. 5) treats the one-row case.
 //   normal:   var M = sigma^2 gbar' (X'WX)^{-1} gbar + (dM/dsigma^2)^2 * 2 sigma^4 / df, with
 //     gbar = (1/|G|) sum_k m'(mu_k) x_k and var(sigma^2-hat) = 2 sigma^4 / df under normal
 //     errors, sigma-hat independent of b.
 // For the log family on an intercept-only model the normal-theory interval below is the "Cox
 // method" interval for a lognormal mean: log-scale mean + s^2/2 -+ z sqrt(s^2/n + s^4/(2(n-1))),
-// exponentiated (Zhou & Gao 1997, Statistics in Medicine 16, 783-790).
+// exponentiated (Zhou & Gao 1997, Statistics in Medicine; formula from memory).
 // Quantiles are standard normal (z), not Student t: the delta variance mixes the coefficients'
 // and sigma's uncertainty and has no exact t distribution; z is the first-order choice and the
 // one the Cox interval uses.
@@ -59,19 +58,23 @@
 // model) and so that the errors are treated as exchangeable, which is the assumption the
 // smearing estimate itself makes. The resampled residuals are the modified residuals
 // e_i sqrt(n / df), centred (Davison & Hinkley 1997, Bootstrap Methods and their Application,
-// sec. 6.2.3, from memory), in the weighted least-squares space (sqrt(w) e). Each replicate
+// ch. 6, from memory), in the weighted least-squares space (sqrt(w) e). Each replicate
 // z* = fitted + e* is refitted on the same design with the transform FIXED, and the mean (and
 // each group's mean) recomputed with the replicate's residuals or sigma. The interval is the
 // (1 -+ level)/2 quantiles of the replicates (R's quantile type 7: linear interpolation between
 // order statistics). Random indices come from std::mt19937_64 seeded with the caller's seed,
-// mapped to 0..n-1 by rejection of the incomplete top block (no standard distribution object,
-// whose output differs between library implementations), so a seed gives the same interval on
-// every platform. Memory: replicates x outputs doubles, at most kMeanBootstrapMaxValues.
+// mapped to 0..n-1 by x mod n after rejecting the 2^64 mod n smallest outputs (no standard
+// distribution object, whose output differs between library implementations), so a seed gives
+// the same interval on every platform. Memory: replicates x outputs doubles, at most
+// kMeanBootstrapMaxValues. Cost per replicate: one solve on the stored factorisation (O(n p)),
+// the smearing structure of the replicate's residuals (O(n log n) for families without a closed
+// form) and one mean per new row (a quadrature each for the normal-theory mean of those
+// families, which makes that combination the slowest).
 //
 // References
 //   Duan, N. (1983). Smearing estimate: a nonparametric retransformation method. JASA 78, 605-610.
 //   Zhou, X.-H. & Gao, S. (1997). Confidence intervals for the log-normal mean. Statistics in
-//     Medicine 16, 783-790 (the Cox method).
+//     Medicine (the Cox method; cited from memory).
 //   Davison, A. C. & Hinkley, D. V. (1997). Bootstrap Methods and their Application, ch. 5-6.
 #pragma once
 
@@ -133,8 +136,8 @@ struct MeanDerivatives {
 MeanDerivatives mean_derivatives(const Model& model, double mu, MeanMethod method);
 
 // A uniform index in [0, n) from a 64-bit Mersenne twister (whose output sequence the C++
-// standard fixes), by rejection of the values below 2^64 mod n so that the rest is a whole
-// multiple of n: the same sequence on every platform. n >= 1.
+// standard fixes): x mod n after rejecting the values below 2^64 mod n, so that the values kept
+// are a whole multiple of n in number: the same sequence on every platform. n >= 1.
 std::size_t uniform_index(std::mt19937_64& rng, std::size_t n);
 
 }  // namespace powerback

@@ -42,7 +42,7 @@ test_that("bootstrap intervals cover a known lognormal mean within their stated 
 })
 
 test_that("normal-theory log mean on an intercept-only model is the Cox interval", {
-  # Cox method for a lognormal mean (Zhou & Gao 1997, Statistics in Medicine 16, 783-790;
+  # Cox method for a lognormal mean (Zhou & Gao 1997, Statistics in Medicine;
   # formula from memory): mean(log y) + s^2/2 -+ qnorm(0.975) sqrt(s^2/n + s^4/(2(n-1))),
   # exponentiated. Same arithmetic both sides: 1e-12 relative.
   y <- datasets::trees$Volume
