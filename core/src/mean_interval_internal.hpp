@@ -51,6 +51,22 @@ Grouping make_grouping(std::size_t m, const std::size_t* group, std::size_t n_gr
 // The model's coefficients with aliased ones set to 0 (they contribute nothing to a fit).
 Eigen::VectorXd usable_coefficients(const Eigen::VectorXd& coef);
 
+// The residual parts of the smearing mean's delta variance, per output k with rows K. With
+// r_i the smearing residuals, D_i the rows of the fitted (weighted) design and
+// u_i = (1/|K|) sum_{j in K} T^{-1}(mu_j + r_i):
+//   s2[k]    sample variance of u_i over i;
+//   cov[k]   sample covariance of u_i with r_i;
+//   w.row(k) (1/(n |K|)) sum_i sum_{j in K} (T^{-1})'(mu_j + r_i) D_i, the part of the gradient
+//            that flows through the residuals r_i = z_i - D_i'b.
+// mean_slope[k]: mean over K of dm/dmu (used for w past kMeanDirectPairs).
+struct ResidualTerms {
+  std::vector<double> s2, cov;
+  Eigen::MatrixXd w;
+};
+ResidualTerms residual_terms(const Model& model, const MeanEvaluator& ev, const Grouping& g,
+                             const std::vector<double>& mu, const std::vector<char>& missing,
+                             const std::vector<double>& mean_slope);
+
 // Standard normal quantile for a two-sided interval at `level`.
 double z_quantile(double level);
 
