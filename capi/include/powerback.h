@@ -687,6 +687,65 @@ PWB_API pwb_status pwb_model_residual_checks_with_note(const pwb_model *m,
                                                        struct pwb_residual_checks *out,
                                                        char *buf, size_t cap, size_t *needed);
 
+/* Confidence intervals for the original-scale MEAN of y (not the median) at new rows, or for the
+ * average of those means over groups of rows (e.g. one station and season). The mean is the
+ * smearing or the normal-theory mean of pwb_predict_options (a back-transformed fit T^{-1}(x'b)
+ * is a median and needs this correction to estimate a mean). Two methods:
+ *   PWB_MEAN_INTERVAL_DELTA: first-order variance of the mean estimate, counting the
+ *     coefficients' error (including its effect on the residuals the smearing mean averages), the
+ *     residual average (smearing) or sigma-hat (normal theory, var sigma^2-hat = 2 sigma^4 / df);
+ *     standard normal quantiles; formed on log(mean) and exponentiated when the mean is positive
+ *     (else mean -+ z se, flag PWB_MEAN_LINEAR_SCALE). For the log family on an intercept-only
+ *     model the normal-theory interval is the Cox interval for a lognormal mean.
+ *   PWB_MEAN_INTERVAL_BOOTSTRAP: `replicates` residual-bootstrap refits on the fixed design
+ *     (modified residuals e sqrt(n/df), centred), percentile interval (R's quantile type 7);
+ *     deterministic for a given seed on every platform.
+ * Both treat the response transform as KNOWN: when lambda was estimated from the same data its
+ * uncertainty is not included. See core/include/powerback/mean_interval.hpp for the formulas,
+ * the cost and the accuracy. */
+typedef enum pwb_mean_interval_method {
+  PWB_MEAN_INTERVAL_DELTA = 0,
+  PWB_MEAN_INTERVAL_BOOTSTRAP
+} pwb_mean_interval_method;
+
+typedef struct pwb_mean_interval_options {
+  size_t struct_size;              /* sizeof(pwb_mean_interval_options) */
+  double level;                    /* interval level in (0, 1); default 0.95 */
+  pwb_mean_method mean_method;     /* default PWB_MEAN_SMEARING */
+  pwb_mean_interval_method method; /* default PWB_MEAN_INTERVAL_DELTA */
+  size_t replicates;               /* bootstrap replicates, at least 10; default 999 */
+  unsigned long long seed;         /* bootstrap seed; default 1 */
+  const size_t *group;             /* NULL (each row is an output; default) or `rows` group ids
+                                      in 0..n_groups-1, each used at least once; read only
+                                      during the call */
+  size_t n_groups;                 /* number of groups when group is not NULL; default 0 */
+} pwb_mean_interval_options;
+
+/* Sets struct_size and the defaults above. NULL is ignored. */
+PWB_API void pwb_mean_interval_options_init(pwb_mean_interval_options *opt);
+
+/* Flags of a mean interval (bits of flags[k], besides PWB_PRED_BOUNDED and PWB_PRED_MISSING,
+ * which mark an output with a row at a range limit or with a missing predictor; a missing row
+ * makes its whole output NaN). */
+#define PWB_MEAN_LINEAR_SCALE 4u     /* the interval is mean -+ z se (mean not positive) */
+#define PWB_MEAN_REPLICATE_FAILED 8u /* bootstrap: a replicate's mean was not finite; interval
+                                        NaN */
+
+/* Intervals for the original-scale mean. Xnew: rows-by-p, column-major, the fit's p predictor
+ * columns (NULL allowed when rows or p is 0). `outputs` must be opt->n_groups when opt->group is
+ * not NULL, else rows. Writes fit[k] (the mean estimate) always and, when the pointers are not
+ * NULL, se[k] (delta: its standard error; bootstrap: the replicates' SD), lwr[k], upr[k] and
+ * flags[k]; every array is caller-owned with `outputs` elements. opt may be NULL (defaults).
+ * Errors: PWB_ERR_ARGUMENT for a NULL m or fit, p other than the fit's, a level outside (0, 1),
+ * unknown enum values, a struct_size too small, a group id out of range or a group without
+ * rows, a wrong `outputs`, fewer than 10 replicates or more than 2^26 replicates x outputs;
+ * PWB_ERR_CANCELLED when the interrupt check stops the bootstrap. Thread-safe for one m. */
+PWB_API pwb_status pwb_model_predict_mean_interval(const pwb_model *m, const double *Xnew,
+                                                   size_t rows, size_t p,
+                                                   const pwb_mean_interval_options *opt,
+                                                   double *fit, double *se, double *lwr,
+                                                   double *upr, unsigned *flags, size_t outputs);
+
 /* @@PWB_SECTION_MODEL@@ (declarations of this section go above this line) */
 
 /* ------------------------------------------------------------------------------------------ */

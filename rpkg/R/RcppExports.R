@@ -81,6 +81,10 @@ rpwb_estimate_response_lambdas <- function(Y, X, family, lower, upper, level, n_
     .Call(`_powerback_rpwb_estimate_response_lambdas`, Y, X, family, lower, upper, level, n_grid, weights, skip)
 }
 
+rpwb_model_mean_interval <- function(handle, Xnew, group, n_groups, level, mean_method, method, replicates, seed) {
+    .Call(`_powerback_rpwb_model_mean_interval`, handle, Xnew, group, n_groups, level, mean_method, method, replicates, seed)
+}
+
 rpwb_model_new <- function(y, X, intercept, response, estimated, weights) {
     .Call(`_powerback_rpwb_model_new`, y, X, intercept, response, estimated, weights)
 }

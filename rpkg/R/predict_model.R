@@ -20,9 +20,35 @@
 #' smearing mean or the median there.
 #'
 #' Intervals are computed on the transformed scale with Student t quantiles and their endpoints
-#' mapped back (swapped when the transform reflects). Whatever `center` is, a confidence
-#' interval covers the median of the response at those predictor values, and a prediction
-#' interval covers a new observation; neither is an interval for the mean.
+#' mapped back (swapped when the transform reflects). With `center = "median"` a confidence
+#' interval covers the median of the response at those predictor values. A prediction interval
+#' covers a new observation whatever `center` is (with `center = "mean"` only the `fit` column
+#' changes to the mean estimate; the interval stays the one for a new observation, not for the
+#' mean).
+#'
+#' **Intervals for the mean.** With `interval = "confidence", center = "mean"` the interval
+#' covers the original-scale MEAN of the response at each new row (or, with `by`, the average of
+#' those means over each group of rows, such as the mean load per station and season). A
+#' back-transformed fit is a median, and the mean needs a correction (`mean_method`); its
+#' interval comes from `mean_interval`:
+#' * `"delta"`: a first-order (delta-method) standard error of the mean estimate that counts
+#'   the error of the coefficients (including their effect on the residuals the smearing mean
+#'   averages) and the sampling error of the residual average (smearing) or of
+#'   \eqn{\hat\sigma^2} (normal theory, variance \eqn{2\sigma^4/df}); normal quantiles. For a
+#'   log response on an intercept-only model the normal-theory interval is the "Cox method"
+#'   interval for a lognormal mean (Zhou and Gao, 1997, Statistics in Medicine).
+#' * `"bootstrap"`: `R` refits on residuals resampled with the given `seed` (the design and the
+#'   transforms fixed), and the percentile interval of the recomputed means. Residuals rather
+#'   than cases are resampled so that the design keeps its rank and factor levels; this assumes
+#'   exchangeable errors, as the smearing mean does. The same seed gives the same interval on
+#'   every platform; `seed = NULL` draws one from R's random stream (so `set.seed()` applies).
+#'
+#' The interval is formed on the log of the mean and exponentiated when the mean is positive,
+#' which keeps both endpoints positive. Both methods treat the response and predictor
+#' transforms as known: when a power was estimated from the same data, its uncertainty is not
+#' included and the interval is too narrow by that much. A mean on the original scale is what a
+#' load, a total or a budget needs; the median describes a typical value. These results inform,
+#' and do not replace, the domain's standards and judgement.
 #'
 #' Where the inverse has a limited range (for example Box-Cox with a power other than 0 needs
 #' `1 + lambda * z > 0`) a value beyond the limit is set to the limit in original units (such as
@@ -47,6 +73,15 @@
 #' @param mean_method `"smearing"` or `"normal"`, used when `center = "mean"`.
 #' @param invalid what to do with new predictor values outside a transform's domain:
 #'   `"error"` (name the rows) or `"na"` (return those rows as `NA` with `invalid = TRUE`).
+#' @param mean_interval how an interval for the mean is computed (`interval = "confidence",
+#'   center = "mean"`): `"delta"` or `"bootstrap"` (see Details).
+#' @param R the number of bootstrap replicates (a whole number, at least 10).
+#' @param seed `NULL` or a whole number seeding the bootstrap.
+#' @param by groups of rows whose mean is wanted (`interval = "confidence", center = "mean"`
+#'   only): a character vector naming variables of `newdata`, or a factor (or a list of
+#'   vectors) with one value per row. The result then has one row per group: the group
+#'   columns, `fit`, `lwr`, `upr`, `n` (rows in the group) and `bounded`. A group with a row
+#'   whose predictors are missing is `NA`.
 #' @param scale the older name of `type`: `"original"` is `type = "response"`,
 #'   `"transformed"` is `type = "transformed"`.
 #' @param ... unused.
@@ -54,7 +89,9 @@
 #'   `interval = "none"`), `bounded` and `invalid` (logical), and with `center = "mean",
 #'   mean_method = "normal"` also `cut_mass` (the normal mass beyond the inverse's range limit).
 #'   Rows with missing predictor values are `NA`, in place. With `se.fit = TRUE`, a list of `fit`
-#'   (that data frame), `se.fit`, `df` and `residual.scale`.
+#'   (that data frame), `se.fit`, `df` and `residual.scale`; for an interval for the mean,
+#'   `se.fit` holds the mean's standard error (delta) or the bootstrap replicates' standard
+#'   deviation. With `by`, one row per group (see `by`).
 #' @examples
 #' river <- river_data()
 #' m <- lm_transformed(sediment_t_day ~ flow_m3s + rain72_mm + season, river,
@@ -66,13 +103,19 @@
 #' predict(m, new, center = "mean")
 #' predict(m, new, center = "mean", mean_method = "normal")
 #' predict(m, new, type = "transformed", se.fit = TRUE)
+#' # intervals for the mean, per row and per season
+#' predict(m, new, interval = "confidence", center = "mean")
+#' predict(m, river_data("new"), interval = "confidence", center = "mean", by = "season")
+#' predict(m, new, interval = "confidence", center = "mean", mean_interval = "bootstrap",
+#'         R = 199, seed = 1)
 #' @export
 predict.pwb_model <- function(object, newdata, se.fit = FALSE,
                               interval = c("none", "confidence", "prediction"),
                               level = 0.95, type = c("response", "transformed"),
                               center = c("median", "mean"),
                               mean_method = c("smearing", "normal"), invalid = c("error", "na"),
-                              scale = NULL, ...) {
+                              scale = NULL, mean_interval = c("delta", "bootstrap"), R = 999,
+                              seed = NULL, by = NULL, ...) {
   interval <- match.arg(interval)
   type <- match.arg(type)
   if (!is.null(scale)) {
@@ -85,6 +128,13 @@ predict.pwb_model <- function(object, newdata, se.fit = FALSE,
   pwb_check_level(level)
   if (!is.logical(se.fit) || length(se.fit) != 1L || is.na(se.fit))
     stop("`se.fit` must be TRUE or FALSE", call. = FALSE)
+  mean_interval <- match.arg(mean_interval)
+  if (interval == "confidence" && center == "mean")
+    return(pwb_predict_mean_interval(object, if (missing(newdata)) NULL else newdata, level,
+                                     type, mean_method, mean_interval, R, seed, by, invalid,
+                                     se.fit))
+  if (!is.null(by))
+    stop("`by` needs interval = \"confidence\" and center = \"mean\"", call. = FALSE)
   bad <- integer()
   if (missing(newdata) || is.null(newdata)) {
     Xnew <- NULL

@@ -308,6 +308,25 @@ BEGIN_RCPP
     return rcpp_result_gen;
 END_RCPP
 }
+// rpwb_model_mean_interval
+Rcpp::List rpwb_model_mean_interval(SEXP handle, Rcpp::NumericMatrix Xnew, Rcpp::Nullable<Rcpp::IntegerVector> group, int n_groups, double level, int mean_method, int method, int replicates, double seed);
+RcppExport SEXP _powerback_rpwb_model_mean_interval(SEXP handleSEXP, SEXP XnewSEXP, SEXP groupSEXP, SEXP n_groupsSEXP, SEXP levelSEXP, SEXP mean_methodSEXP, SEXP methodSEXP, SEXP replicatesSEXP, SEXP seedSEXP) {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< SEXP >::type handle(handleSEXP);
+    Rcpp::traits::input_parameter< Rcpp::NumericMatrix >::type Xnew(XnewSEXP);
+    Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::IntegerVector> >::type group(groupSEXP);
+    Rcpp::traits::input_parameter< int >::type n_groups(n_groupsSEXP);
+    Rcpp::traits::input_parameter< double >::type level(levelSEXP);
+    Rcpp::traits::input_parameter< int >::type mean_method(mean_methodSEXP);
+    Rcpp::traits::input_parameter< int >::type method(methodSEXP);
+    Rcpp::traits::input_parameter< int >::type replicates(replicatesSEXP);
+    Rcpp::traits::input_parameter< double >::type seed(seedSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_model_mean_interval(handle, Xnew, group, n_groups, level, mean_method, method, replicates, seed));
+    return rcpp_result_gen;
+END_RCPP
+}
 // rpwb_model_new
 SEXP rpwb_model_new(Rcpp::NumericVector y, Rcpp::NumericMatrix X, bool intercept, Rcpp::Nullable<Rcpp::List> response, int estimated, Rcpp::Nullable<Rcpp::NumericVector> weights);
 RcppExport SEXP _powerback_rpwb_model_new(SEXP ySEXP, SEXP XSEXP, SEXP interceptSEXP, SEXP responseSEXP, SEXP estimatedSEXP, SEXP weightsSEXP) {
@@ -488,6 +507,7 @@ static const R_CallMethodDef CallEntries[] = {
     {"_powerback_rpwb_estimate_response_lambda", (DL_FUNC) &_powerback_rpwb_estimate_response_lambda, 9},
     {"_powerback_rpwb_lambda_profile", (DL_FUNC) &_powerback_rpwb_lambda_profile, 5},
     {"_powerback_rpwb_estimate_response_lambdas", (DL_FUNC) &_powerback_rpwb_estimate_response_lambdas, 9},
+    {"_powerback_rpwb_model_mean_interval", (DL_FUNC) &_powerback_rpwb_model_mean_interval, 9},
     {"_powerback_rpwb_model_new", (DL_FUNC) &_powerback_rpwb_model_new, 6},
     {"_powerback_rpwb_model_is_live", (DL_FUNC) &_powerback_rpwb_model_is_live, 1},
     {"_powerback_rpwb_model_summary", (DL_FUNC) &_powerback_rpwb_model_summary, 1},
