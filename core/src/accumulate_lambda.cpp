@@ -100,13 +100,7 @@ void LambdaSummary::add(const double* y, const double* X, std::size_t rows, std:
                         const double* w) {
   State& s = *s_;
   if (rows == 0) return;
-  require(y != nullptr, "y is NULL");
-  require(s.p == 0 || X != nullptr, "the predictor matrix is NULL");
-  require(s.p == 0 || ld >= rows, "the leading dimension of X (" + std::to_string(ld) +
-                                      ") is smaller than the rows (" + std::to_string(rows) + ")");
-  summary_detail::check_weights(w, rows);
-  summary_detail::check_lambda_response(y, rows, s.family);
-  if (s.p) summary_detail::check_predictors(X, rows, ld, s.p);
+  summary_detail::check_chunk(y, X, rows, ld, s.p, w, &s.family);
 
   constexpr int K = State::K, KC = State::KC, S = State::S;
   const std::size_t L = s.L, p = s.p;

@@ -76,6 +76,10 @@ class ByteReader {
 void check_weights(const double* w, std::size_t rows);
 void check_predictors(const double* X, std::size_t rows, std::size_t ld, std::size_t p);
 void check_lambda_response(const double* y, std::size_t rows, Family family);
+// Every summary's add(): the pointers and leading dimension, then the weights, then (lambda
+// summaries, family given) the response's domain, then the p predictor columns.
+void check_chunk(const double* y, const double* X, std::size_t rows, std::size_t ld, std::size_t p,
+                 const double* w, const Family* lambda_family = nullptr);
 
 // r (c x c upper) := R of [r; block]; block is factored in place (its contents are destroyed).
 void stack_r(Eigen::MatrixXd& r, Eigen::MatrixXd& work, Eigen::Index rows);
