@@ -86,8 +86,8 @@ void stack_r(Eigen::MatrixXd& r, Eigen::MatrixXd& work, Eigen::Index rows);
 // R of [a; b] (both c x c upper).
 Eigen::MatrixXd merge_r(const Eigen::MatrixXd& a, const Eigen::MatrixXd& b);
 
-// Maximum and interval of the profile f over [opt.lower, opt.upper] (Brent's minimiser, then a
-// bracketing TOMS 748 root search per side), as lambda_search does for the one-pass profile.
+// Maximum and interval of the profile f over [opt.lower, opt.upper]: the maximiser and the interval
+// search shared with the in-memory path (lambda_maximise.hpp).
 LambdaEstimate search_profile(const std::function<double(double)>& f, const LambdaOptions& opt);
 void check_lambda_options(const LambdaOptions& opt);
 
