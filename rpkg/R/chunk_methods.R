@@ -98,7 +98,7 @@ predict.pwb_chunked_fit <- function(object, newdata, interval = c("none", "confi
   center <- match.arg(center)
   mean_method <- match.arg(mean_method)
   pwb_check_level(level)
-  if (!is.data.frame(newdata)) stop("`newdata` must be a data frame", call. = FALSE)
+  pwb_check_data_frame(newdata, "newdata")
   d <- object$design
   tt <- stats::delete.response(d$terms)
   for (v in names(d$xlevels)) {

@@ -151,11 +151,6 @@ effect_table <- function(model, values = NULL, at = NULL, per = c("auto", "unit"
             response = pwb_transform_label(model$response, model$yname), held = held)
 }
 
-pwb_check_named_list <- function(x, what) {
-  if (!is.null(x) && (!is.list(x) || is.null(names(x)) || any(!nzchar(names(x)))))
-    stop(sprintf("`%s` must be a named list, e.g. list(flow = c(10, 20))", what), call. = FALSE)
-}
-
 # One row of held values: medians of numeric variables, reference levels of factors, or `at`.
 pwb_effect_base <- function(model, at) {
   xlev <- model$xlevels
