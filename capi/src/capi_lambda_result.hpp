@@ -19,14 +19,20 @@ void put_lambda_estimate(const LambdaEstimate& e, T* out) {
   out->at_bound = e.at_bound ? 1 : 0;
 }
 
+// The search's outcome, by pwb_lambda_result's names: convenient, converged, low_open, high_open.
+template <class T>
+void put_lambda_outcome(const LambdaEstimate& e, T* out) {
+  out->convenient = e.convenient;
+  out->converged = e.converged ? 1 : 0;
+  out->low_open = e.low_open ? 1 : 0;
+  out->high_open = e.high_open ? 1 : 0;
+}
+
 // Every field of pwb_lambda_result (struct_size left as the caller set it).
 inline void write_lambda_result(const LambdaEstimate& e, pwb_lambda_result* out) {
   put_lambda_estimate(e, out);
-  out->convenient = e.convenient;
-  out->converged = e.converged ? 1 : 0;
+  put_lambda_outcome(e, out);
   out->n = e.n;
-  out->low_open = e.low_open ? 1 : 0;
-  out->high_open = e.high_open ? 1 : 0;
   out->rank = e.rank;
   out->n_aliased = e.aliased.size();
 }
