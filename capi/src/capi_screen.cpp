@@ -3,6 +3,7 @@
 
 #include "capi_internal.hpp"
 #include "capi_lambda_result.hpp"
+#include "capi_moments.hpp"
 #include "capi_transform_handle.hpp"
 #include "powerback/family_math.hpp"
 #include "powerback/ladder.hpp"
@@ -102,14 +103,7 @@ pwb_status pwb_screen_variable(const double* x, size_t n, const pwb_screen_optio
     out->struct_size = keep;
     out->n = s.n;
     out->usable = s.usable ? 1 : 0;
-    out->mean = s.moments.mean;
-    out->sd = s.moments.sd;
-    out->skewness = s.moments.skewness;
-    out->skewness_se = s.moments.skewness_se;
-    out->skewness_z = s.moments.skewness_z;
-    out->kurtosis = s.moments.kurtosis;
-    out->kurtosis_se = s.moments.kurtosis_se;
-    out->kurtosis_z = s.moments.kurtosis_z;
+    capi::put_moments(s.moments, out);
     std::strncpy(out->note, s.note.c_str(), sizeof out->note - 1);
     out->note[sizeof out->note - 1] = '\0';
     if (!s.usable) return;
