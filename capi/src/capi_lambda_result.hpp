@@ -1,9 +1,11 @@
-// One copy of a core lambda estimate into the C ABI's structs, for every entry point that
-// returns one (the lambda estimators, the screen's ML column, the influence summary).
+// One copy of each core result that several C ABI structs report: a lambda estimate (the lambda
+// estimators, the summaries, the screen's ML column, the influence summary) and sample moments
+// (pwb_moments and the screen).
 #pragma once
 
 #include "powerback.h"
 #include "powerback/lambda.hpp"
+#include "powerback/normality.hpp"
 
 namespace powerback {
 namespace capi {
@@ -43,6 +45,19 @@ inline pwb_lambda_result lambda_result_of(const LambdaEstimate& e) {
   pwb_lambda_result_init(&r);
   write_lambda_result(e, &r);
   return r;
+}
+
+// The moments by the names pwb_moments gives them (n left to the caller: its type differs).
+template <class T>
+void put_moments(const Moments& m, T* out) {
+  out->mean = m.mean;
+  out->sd = m.sd;
+  out->skewness = m.skewness;
+  out->skewness_se = m.skewness_se;
+  out->skewness_z = m.skewness_z;
+  out->kurtosis = m.kurtosis;
+  out->kurtosis_se = m.kurtosis_se;
+  out->kurtosis_z = m.kurtosis_z;
 }
 
 }  // namespace capi

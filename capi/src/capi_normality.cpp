@@ -1,6 +1,6 @@
 // The C ABI of the normality statistics: Shapiro-Wilk and the sample moments.
 #include "capi_internal.hpp"
-#include "capi_moments.hpp"
+#include "capi_lambda_result.hpp"
 #include "powerback/family_math.hpp"
 #include "powerback/normality.hpp"
 

@@ -3,7 +3,6 @@
 
 #include "capi_internal.hpp"
 #include "capi_lambda_result.hpp"
-#include "capi_moments.hpp"
 #include "capi_transform_handle.hpp"
 #include "powerback/family_math.hpp"
 #include "powerback/ladder.hpp"
