@@ -32,7 +32,7 @@
 #' d
 #' @export
 chunk_design <- function(formula, data, levels = NULL, weights = NULL, na.action = c("na.omit", "na.fail")) {
-  na.action <- match.arg(na.action)
+  na.action <- pwb_match_choice(na.action, "na.action")
   pwb_check_response_formula(formula)
   pwb_check_data_frame(data)
   if (!is.null(weights) && !(is.character(weights) && length(weights) == 1L && weights %in% names(data)))

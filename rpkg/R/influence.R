@@ -45,7 +45,7 @@
 #' @export
 lambda_influence <- function(object, data = NULL, family = c("box-cox", "yeo-johnson"),
                              range = c(-3, 3), level = 0.95, weights = NULL, subset = NULL) {
-  family <- match.arg(family)
+  family <- pwb_match_choice(family, "family")
   pwb_check_level(level)
   pwb_check_range(range)
   if (inherits(object, "pwb_model")) {
