@@ -137,11 +137,7 @@ void FitCheckPass::merge(const FitCheckPass& other) {
   const State& o = *other.s_;
   require(s.p == o.p && s.kept == o.kept && s.coef == o.coef && s.h == o.h,
           "check passes merge only when made from the same fitted summary");
-  if (&other == this) {
-    const FitCheckPass copy(other);
-    merge(copy);
-    return;
-  }
+  if (summary_detail::merged_self(*this, other)) return;
   s.n += o.n;
   s.e1.add(o.e1);
   s.e2.add(o.e2);

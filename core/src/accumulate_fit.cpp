@@ -76,11 +76,7 @@ void FitSummary::merge(const FitSummary& other) {
   require(s.p == o.p && s.estimated == o.estimated && a.family == b.family && same(a.lambda, b.lambda) &&
               a.shift == b.shift && a.reflect == b.reflect && same(a.pivot, b.pivot),
           "fit summaries merge only with the same response transform, predictors and estimated parameters");
-  if (&other == this) {
-    const FitSummary copy(other);
-    merge(copy);
-    return;
-  }
+  if (summary_detail::merged_self(*this, other)) return;
   s.n += o.n;
   s.jacobian.add(o.jacobian);
   s.log_w.add(o.log_w);

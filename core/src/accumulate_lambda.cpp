@@ -188,11 +188,7 @@ void LambdaSummary::merge(const LambdaSummary& other) {
           std::string("summaries merge only with the same family and predictors; got ") +
               family_name(s.family) + " with " + std::to_string(s.p) + " predictors and " +
               family_name(o.family) + " with " + std::to_string(o.p));
-  if (&other == this) {
-    const LambdaSummary copy(other);
-    merge(copy);
-    return;
-  }
+  if (summary_detail::merged_self(*this, other)) return;
   for (std::size_t b = 0; b < o.bins(); ++b) {
     const std::size_t nb = s.bin(o.group[b], o.key[b]);
     for (std::size_t l = 0; l < s.L; ++l) {

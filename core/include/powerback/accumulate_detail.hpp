@@ -81,6 +81,16 @@ void check_lambda_response(const double* y, std::size_t rows, Family family);
 void check_chunk(const double* y, const double* X, std::size_t rows, std::size_t ld, std::size_t p,
                  const double* w, const Family* lambda_family = nullptr);
 
+// Merging a summary into itself doubles it: merges a copy instead when other is self. True when
+// it did (the caller's merge is then done).
+template <class T>
+bool merged_self(T& self, const T& other) {
+  if (&other != &self) return false;
+  const T copy(other);
+  self.merge(copy);
+  return true;
+}
+
 // r (c x c upper) := R of [r; block]; block is factored in place (its contents are destroyed).
 void stack_r(Eigen::MatrixXd& r, Eigen::MatrixXd& work, Eigen::Index rows);
 // R of [a; b] (both c x c upper).
