@@ -4,6 +4,7 @@
 #include <vector>
 
 #include "capi_internal.hpp"
+#include "capi_lambda_result.hpp"
 #include "capi_sizes.hpp"
 #include "capi_transform_handle.hpp"
 #include "powerback/accumulate.hpp"
@@ -64,24 +65,9 @@ void write_bytes(const std::vector<unsigned char>& b, unsigned char* buf, std::s
   for (std::size_t i = 0; i < b.size(); ++i) buf[i] = b[i];
 }
 
-void write_result(const LambdaEstimate& e, pwb_lambda_result* out) {
-  out->lambda = e.lambda;
-  out->conf_low = e.conf_low;
-  out->conf_high = e.conf_high;
-  out->convenient = e.convenient;
-  out->loglik = e.loglik;
-  out->at_bound = e.at_bound ? 1 : 0;
-  out->converged = e.converged ? 1 : 0;
-  out->n = e.n;
-  out->low_open = e.low_open ? 1 : 0;
-  out->high_open = e.high_open ? 1 : 0;
-  out->rank = e.rank;
-  out->n_aliased = e.aliased.size();
-}
-
 void write_finish(const SummaryLambdaResult& r, pwb_lambda_result* out, std::size_t n_grid, double* grid_out,
                   double* loglik_out, pwb_summary_pass_info* info) {
-  write_result(r.estimate, out);
+  capi::write_lambda_result(r.estimate, out);
   for (std::size_t i = 0; i < n_grid; ++i) {
     grid_out[i] = i < r.grid.size() ? r.grid[i] : math::kNaN;
     loglik_out[i] = i < r.loglik.size() ? r.loglik[i] : math::kNaN;
@@ -100,6 +86,32 @@ void make_handle(H** out, Make&& make) {
   capi::need(out, "out");
   *out = nullptr;
   *out = new H{make()};
+}
+
+// The merge, serialize and deserialize entry points, alike for the four kinds of handle.
+template <class H>
+pwb_status merge_handles(H* into, const H* from) {
+  return capi::guarded([&] {
+    capi::need(into, "into");
+    capi::need(from, "from");
+    into->impl.merge(from->impl);
+  });
+}
+
+template <class H>
+pwb_status serialize_handle(const H* h, const char* name, unsigned char* buf, std::size_t cap,
+                            std::size_t* needed) {
+  return capi::guarded([&] {
+    capi::need(h, name);
+    write_bytes(h->impl.serialize(), buf, cap, needed);
+  });
+}
+
+template <class H>
+pwb_status deserialize_handle(const unsigned char* buf, std::size_t len, H** out) {
+  return capi::guarded([&] {
+    make_handle(out, [&] { return decltype(H::impl)::deserialize(buf, len); });
+  });
 }
 
 }  // namespace
@@ -135,25 +147,16 @@ pwb_status pwb_lambda_summary_add(pwb_lambda_summary* s, const double* y, const 
 }
 
 pwb_status pwb_lambda_summary_merge(pwb_lambda_summary* into, const pwb_lambda_summary* from) {
-  return capi::guarded([&] {
-    capi::need(into, "into");
-    capi::need(from, "from");
-    into->impl.merge(from->impl);
-  });
+  return merge_handles(into, from);
 }
 
 pwb_status pwb_lambda_summary_serialize(const pwb_lambda_summary* s, unsigned char* buf, size_t cap,
                                         size_t* needed) {
-  return capi::guarded([&] {
-    capi::need(s, "s");
-    write_bytes(s->impl.serialize(), buf, cap, needed);
-  });
+  return serialize_handle(s, "s", buf, cap, needed);
 }
 
 pwb_status pwb_lambda_summary_deserialize(const unsigned char* buf, size_t len, pwb_lambda_summary** out) {
-  return capi::guarded([&] {
-    make_handle(out, [&] { return LambdaSummary::deserialize(buf, len); });
-  });
+  return deserialize_handle(buf, len, out);
 }
 
 pwb_status pwb_lambda_summary_count(const pwb_lambda_summary* s, size_t* n, size_t* bins) {
@@ -205,25 +208,16 @@ pwb_status pwb_lambda_pass_add(pwb_lambda_pass* pass, const double* y, const dou
 }
 
 pwb_status pwb_lambda_pass_merge(pwb_lambda_pass* into, const pwb_lambda_pass* from) {
-  return capi::guarded([&] {
-    capi::need(into, "into");
-    capi::need(from, "from");
-    into->impl.merge(from->impl);
-  });
+  return merge_handles(into, from);
 }
 
 pwb_status pwb_lambda_pass_serialize(const pwb_lambda_pass* pass, unsigned char* buf, size_t cap,
                                      size_t* needed) {
-  return capi::guarded([&] {
-    capi::need(pass, "pass");
-    write_bytes(pass->impl.serialize(), buf, cap, needed);
-  });
+  return serialize_handle(pass, "pass", buf, cap, needed);
 }
 
 pwb_status pwb_lambda_pass_deserialize(const unsigned char* buf, size_t len, pwb_lambda_pass** out) {
-  return capi::guarded([&] {
-    make_handle(out, [&] { return LambdaGridPass::deserialize(buf, len); });
-  });
+  return deserialize_handle(buf, len, out);
 }
 
 pwb_status pwb_lambda_pass_grid_size(const pwb_lambda_pass* pass, size_t* n_grid) {
@@ -274,24 +268,15 @@ pwb_status pwb_fit_summary_add(pwb_fit_summary* s, const double* y, const double
 }
 
 pwb_status pwb_fit_summary_merge(pwb_fit_summary* into, const pwb_fit_summary* from) {
-  return capi::guarded([&] {
-    capi::need(into, "into");
-    capi::need(from, "from");
-    into->impl.merge(from->impl);
-  });
+  return merge_handles(into, from);
 }
 
 pwb_status pwb_fit_summary_serialize(const pwb_fit_summary* s, unsigned char* buf, size_t cap, size_t* needed) {
-  return capi::guarded([&] {
-    capi::need(s, "s");
-    write_bytes(s->impl.serialize(), buf, cap, needed);
-  });
+  return serialize_handle(s, "s", buf, cap, needed);
 }
 
 pwb_status pwb_fit_summary_deserialize(const unsigned char* buf, size_t len, pwb_fit_summary** out) {
-  return capi::guarded([&] {
-    make_handle(out, [&] { return FitSummary::deserialize(buf, len); });
-  });
+  return deserialize_handle(buf, len, out);
 }
 
 pwb_status pwb_fit_summary_finish(const pwb_fit_summary* s, pwb_model_info* info, double* coef, double* se,
@@ -349,24 +334,15 @@ pwb_status pwb_fit_checks_add(pwb_fit_checks* c, const double* y, const double* 
 }
 
 pwb_status pwb_fit_checks_merge(pwb_fit_checks* into, const pwb_fit_checks* from) {
-  return capi::guarded([&] {
-    capi::need(into, "into");
-    capi::need(from, "from");
-    into->impl.merge(from->impl);
-  });
+  return merge_handles(into, from);
 }
 
 pwb_status pwb_fit_checks_serialize(const pwb_fit_checks* c, unsigned char* buf, size_t cap, size_t* needed) {
-  return capi::guarded([&] {
-    capi::need(c, "c");
-    write_bytes(c->impl.serialize(), buf, cap, needed);
-  });
+  return serialize_handle(c, "c", buf, cap, needed);
 }
 
 pwb_status pwb_fit_checks_deserialize(const unsigned char* buf, size_t len, pwb_fit_checks** out) {
-  return capi::guarded([&] {
-    make_handle(out, [&] { return FitCheckPass::deserialize(buf, len); });
-  });
+  return deserialize_handle(buf, len, out);
 }
 
 pwb_status pwb_fit_checks_finish(const pwb_fit_checks* c, pwb_residual_checks* out) {

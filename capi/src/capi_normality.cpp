@@ -1,5 +1,6 @@
 // The C ABI of the normality statistics: Shapiro-Wilk and the sample moments.
 #include "capi_internal.hpp"
+#include "capi_lambda_result.hpp"
 #include "powerback/family_math.hpp"
 #include "powerback/normality.hpp"
 
@@ -44,14 +45,7 @@ pwb_status pwb_sample_moments(const double* x, size_t n, pwb_moments* out) {
     capi::need_array(x, n, "x");
     const Moments m = sample_moments(x, n);
     out->n = m.n;
-    out->mean = m.mean;
-    out->sd = m.sd;
-    out->skewness = m.skewness;
-    out->skewness_se = m.skewness_se;
-    out->skewness_z = m.skewness_z;
-    out->kurtosis = m.kurtosis;
-    out->kurtosis_se = m.kurtosis_se;
-    out->kurtosis_z = m.kurtosis_z;
+    capi::put_moments(m, out);
   });
 }
 

@@ -2,6 +2,8 @@
 #include <cstring>
 
 #include "capi_internal.hpp"
+#include "capi_lambda_result.hpp"
+#include "capi_transform_handle.hpp"
 #include "powerback/family_math.hpp"
 #include "powerback/ladder.hpp"
 #include "powerback/screen.hpp"
@@ -10,16 +12,17 @@ using namespace powerback;
 
 namespace {
 
-void spec_to_c(const TransformSpec& s, pwb_transform_spec* out) {
+void identity_spec(pwb_transform_spec* out) {
   out->struct_size = sizeof(pwb_transform_spec);
-  out->family = static_cast<pwb_family>(s.family);
-  out->lambda = s.lambda;
-  out->shift = s.shift;
-  out->reflect = s.reflect ? 1 : 0;
-  out->pivot = s.pivot;
+  capi::write_spec(TransformSpec{}, out);
 }
 
-void identity_spec(pwb_transform_spec* out) { spec_to_c(TransformSpec{}, out); }
+// The screen's ML estimate fields under pwb_lambda_result's names, so that the one copy of an
+// estimate (capi_lambda_result.hpp) fills them.
+struct MlFields {
+  double &lambda, &conf_low, &conf_high, &loglik, &convenient;
+  int &at_bound, &converged, &low_open, &high_open;
+};
 
 }  // namespace
 
@@ -42,7 +45,7 @@ pwb_status pwb_ladder_recommend(const double* x, size_t n, pwb_transform_spec* s
     if (info) capi::need_struct(info->struct_size, sizeof(pwb_ladder_info), "pwb_ladder_info");
     capi::need_array(x, n, "x");
     const LadderAdvice a = ladder_recommend(x, n);
-    spec_to_c(a.spec, spec);
+    capi::write_spec(a.spec, spec);
     if (info) {
       info->step = static_cast<pwb_ladder_step>(a.step);
       info->skewed = a.skewed ? 1 : 0;
@@ -99,21 +102,14 @@ pwb_status pwb_screen_variable(const double* x, size_t n, const pwb_screen_optio
     out->struct_size = keep;
     out->n = s.n;
     out->usable = s.usable ? 1 : 0;
-    out->mean = s.moments.mean;
-    out->sd = s.moments.sd;
-    out->skewness = s.moments.skewness;
-    out->skewness_se = s.moments.skewness_se;
-    out->skewness_z = s.moments.skewness_z;
-    out->kurtosis = s.moments.kurtosis;
-    out->kurtosis_se = s.moments.kurtosis_se;
-    out->kurtosis_z = s.moments.kurtosis_z;
+    capi::put_moments(s.moments, out);
     std::strncpy(out->note, s.note.c_str(), sizeof out->note - 1);
     out->note[sizeof out->note - 1] = '\0';
     if (!s.usable) return;
     out->sw_w = s.sw.w;
     out->sw_p = s.sw.p_value;
     out->sw_note = normality_skip_text(s.sw.skip);
-    spec_to_c(s.ladder.spec, &out->ladder);
+    capi::write_spec(s.ladder.spec, &out->ladder);
     out->ladder_step = static_cast<pwb_ladder_step>(s.ladder.step);
     out->ladder_by_size = s.ladder.by_size ? 1 : 0;
     out->ladder_skewness = s.after_ladder.skewness;
@@ -122,16 +118,12 @@ pwb_status pwb_screen_variable(const double* x, size_t n, const pwb_screen_optio
     out->ladder_sw_note = normality_skip_text(s.after_ladder.sw.skip);
     out->ml_done = s.ml_done ? 1 : 0;
     if (!s.ml_done) return;
-    spec_to_c(s.ml_spec, &out->ml);
-    out->ml_lambda = s.ml.lambda;
-    out->ml_conf_low = s.ml.conf_low;
-    out->ml_conf_high = s.ml.conf_high;
-    out->ml_convenient = s.ml.convenient;
-    out->ml_loglik = s.ml.loglik;
-    out->ml_at_bound = s.ml.at_bound ? 1 : 0;
-    out->ml_converged = s.ml.converged ? 1 : 0;
-    out->ml_low_open = s.ml.low_open ? 1 : 0;
-    out->ml_high_open = s.ml.high_open ? 1 : 0;
+    capi::write_spec(s.ml_spec, &out->ml);
+    MlFields ml{out->ml_lambda,     out->ml_conf_low,  out->ml_conf_high,
+                out->ml_loglik,     out->ml_convenient, out->ml_at_bound,
+                out->ml_converged,  out->ml_low_open,   out->ml_high_open};
+    capi::put_lambda_estimate(s.ml, &ml);
+    capi::put_lambda_outcome(s.ml, &ml);
     out->ml_skewness = s.after_ml.skewness;
     out->ml_sw_w = s.after_ml.sw.w;
     out->ml_sw_p = s.after_ml.sw.p_value;

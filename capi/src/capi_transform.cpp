@@ -61,12 +61,7 @@ pwb_status pwb_transform_get_spec(const pwb_transform* t, pwb_transform_spec* sp
   return capi::guarded([&] {
     capi::need(t, "t");
     capi::need_sized(spec, "spec", "pwb_transform_spec");
-    const TransformSpec& s = t->impl.spec();
-    spec->family = static_cast<pwb_family>(s.family);
-    spec->lambda = s.lambda;
-    spec->shift = s.shift;
-    spec->reflect = s.reflect ? 1 : 0;
-    spec->pivot = s.pivot;
+    capi::write_spec(t->impl.spec(), spec);
   });
 }
 

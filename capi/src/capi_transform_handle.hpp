@@ -18,6 +18,15 @@ inline const Transform& transform_of(const pwb_transform* t, const char* what) {
   return t->impl;
 }
 
+// The C form of a transform's constants (struct_size left as it is).
+inline void write_spec(const TransformSpec& s, pwb_transform_spec* out) {
+  out->family = static_cast<pwb_family>(s.family);
+  out->lambda = s.lambda;
+  out->shift = s.shift;
+  out->reflect = s.reflect ? 1 : 0;
+  out->pivot = s.pivot;
+}
+
 // A new handle owning a copy of t (the caller frees it with pwb_transform_free).
 inline pwb_transform* new_transform_handle(const Transform& t) { return new pwb_transform{t}; }
 

@@ -82,11 +82,7 @@ std::size_t FitCheckPass::n() const { return static_cast<std::size_t>(s_->n); }
 void FitCheckPass::add(const double* y, const double* X, std::size_t rows, std::size_t ld, const double* w) {
   State& s = *s_;
   if (rows == 0) return;
-  require(y != nullptr, "y is NULL");
-  require(s.p == 0 || X != nullptr, "the predictor matrix is NULL");
-  require(s.p == 0 || ld >= rows, "the leading dimension of X is smaller than the rows");
-  summary_detail::check_weights(w, rows);
-  if (s.p) summary_detail::check_predictors(X, rows, ld, s.p);
+  summary_detail::check_chunk(y, X, rows, ld, s.p, w);
   std::vector<double> z(rows);
   s.response.throw_if_failed(s.response.apply(y, rows, z.data()), rows, "y", false);
   const std::size_t k = s.kept.size();
@@ -141,11 +137,7 @@ void FitCheckPass::merge(const FitCheckPass& other) {
   const State& o = *other.s_;
   require(s.p == o.p && s.kept == o.kept && s.coef == o.coef && s.h == o.h,
           "check passes merge only when made from the same fitted summary");
-  if (&other == this) {
-    const FitCheckPass copy(other);
-    merge(copy);
-    return;
-  }
+  if (summary_detail::merged_self(*this, other)) return;
   s.n += o.n;
   s.e1.add(o.e1);
   s.e2.add(o.e2);

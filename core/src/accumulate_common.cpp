@@ -44,6 +44,22 @@ const char* kind_name(Kind k) {
 
 std::string plural_rows(std::size_t k) { return std::to_string(k) + (k == 1 ? " row" : " rows"); }
 
+// The rows of [0, rows) where bad(i) holds: their count and the first kMaxReportedIndices.
+struct BadRows {
+  std::size_t count = 0;
+  std::vector<std::size_t> first;
+};
+template <class Bad>
+BadRows find_bad_rows(std::size_t rows, Bad bad) {
+  BadRows out;
+  for (std::size_t i = 0; i < rows; ++i)
+    if (bad(i)) {
+      ++out.count;
+      if (out.first.size() < kMaxReportedIndices) out.first.push_back(i);
+    }
+  return out;
+}
+
 }  // namespace
 
 ByteWriter::ByteWriter(Kind kind) {
@@ -140,18 +156,12 @@ void ByteReader::done() {
 
 void check_weights(const double* w, std::size_t rows) {
   if (!w) return;
-  std::size_t bad = 0;
-  std::vector<std::size_t> first;
-  for (std::size_t i = 0; i < rows; ++i)
-    if (!(std::isfinite(w[i]) && w[i] >= 0.0)) {
-      ++bad;
-      if (first.size() < kMaxReportedIndices) first.push_back(i);
-    }
-  if (bad)
+  const BadRows bad = find_bad_rows(rows, [&](std::size_t i) { return !(std::isfinite(w[i]) && w[i] >= 0.0); });
+  if (bad.count)
     throw IndexedError(ErrorCode::Argument,
-                       "the weights must be finite and >= 0; " + plural_rows(bad) + " are not, at " +
-                           format_indices(first, bad) + " (0-based in this chunk): fix or drop them",
-                       bad, first);
+                       "the weights must be finite and >= 0; " + plural_rows(bad.count) + " are not, at " +
+                           format_indices(bad.first, bad.count) + " (0-based in this chunk): fix or drop them",
+                       bad.count, bad.first);
 }
 
 void check_predictors(const double* X, std::size_t rows, std::size_t ld, std::size_t p) {
@@ -164,31 +174,34 @@ void check_predictors(const double* X, std::size_t rows, std::size_t ld, std::si
 }
 
 void check_lambda_response(const double* y, std::size_t rows, Family family) {
-  std::size_t bad = 0;
-  std::vector<std::size_t> first;
-  for (std::size_t i = 0; i < rows; ++i)
-    if (!std::isfinite(y[i])) {
-      ++bad;
-      if (first.size() < kMaxReportedIndices) first.push_back(i);
-    }
-  if (bad)
+  const auto values = [](std::size_t k) { return std::to_string(k) + " value" + (k == 1 ? "" : "s"); };
+  const BadRows nonfinite = find_bad_rows(rows, [&](std::size_t i) { return !std::isfinite(y[i]); });
+  if (nonfinite.count)
     throw IndexedError(ErrorCode::NonFinite,
-                       "y has " + std::to_string(bad) + " non-finite value" + (bad == 1 ? "" : "s") +
-                           " (NaN or Inf) at rows " + format_indices(first, bad) +
+                       "y has " + std::to_string(nonfinite.count) + " non-finite value" +
+                           (nonfinite.count == 1 ? "" : "s") + " (NaN or Inf) at rows " +
+                           format_indices(nonfinite.first, nonfinite.count) +
                            " (0-based in this chunk): remove or impute them first",
-                       bad, first);
+                       nonfinite.count, nonfinite.first);
   if (family != Family::BoxCox) return;
-  for (std::size_t i = 0; i < rows; ++i)
-    if (!(y[i] > 0.0)) {
-      ++bad;
-      if (first.size() < kMaxReportedIndices) first.push_back(i);
-    }
-  if (bad)
+  const BadRows low = find_bad_rows(rows, [&](std::size_t i) { return !(y[i] > 0.0); });
+  if (low.count)
     throw IndexedError(ErrorCode::Domain,
-                       "Box-Cox needs y > 0; " + std::to_string(bad) + " value" + (bad == 1 ? "" : "s") +
-                           " <= 0 at rows " + format_indices(first, bad) +
+                       "Box-Cox needs y > 0; " + values(low.count) + " <= 0 at rows " +
+                           format_indices(low.first, low.count) +
                            " (0-based in this chunk): use Yeo-Johnson or a shift that makes every value > 0",
-                       bad, first);
+                       low.count, low.first);
+}
+
+void check_chunk(const double* y, const double* X, std::size_t rows, std::size_t ld, std::size_t p,
+                 const double* w, const Family* lambda_family) {
+  require(y != nullptr, "y is NULL");
+  require(p == 0 || X != nullptr, "the predictor matrix is NULL");
+  require(p == 0 || ld >= rows, "the leading dimension of X (" + std::to_string(ld) +
+                                    ") is smaller than the rows (" + std::to_string(rows) + ")");
+  check_weights(w, rows);
+  if (lambda_family) check_lambda_response(y, rows, *lambda_family);
+  if (p) check_predictors(X, rows, ld, p);
 }
 
 void stack_r(Eigen::MatrixXd& r, Eigen::MatrixXd& work, Eigen::Index rows) {

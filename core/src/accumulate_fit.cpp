@@ -41,11 +41,7 @@ const Transform& FitSummary::response() const { return s_->response; }
 void FitSummary::add(const double* y, const double* X, std::size_t rows, std::size_t ld, const double* w) {
   State& s = *s_;
   if (rows == 0) return;
-  require(y != nullptr, "y is NULL");
-  require(s.p == 0 || X != nullptr, "the predictor matrix is NULL");
-  require(s.p == 0 || ld >= rows, "the leading dimension of X is smaller than the rows");
-  summary_detail::check_weights(w, rows);
-  if (s.p) summary_detail::check_predictors(X, rows, ld, s.p);
+  summary_detail::check_chunk(y, X, rows, ld, s.p, w);
   std::vector<double> z(rows), jac(rows);
   s.response.throw_if_failed(s.response.apply(y, rows, z.data()), rows, "y", false);
   s.response.throw_if_failed(s.response.log_abs_derivative(y, rows, jac.data()), rows, "y", false);
@@ -80,11 +76,7 @@ void FitSummary::merge(const FitSummary& other) {
   require(s.p == o.p && s.estimated == o.estimated && a.family == b.family && same(a.lambda, b.lambda) &&
               a.shift == b.shift && a.reflect == b.reflect && same(a.pivot, b.pivot),
           "fit summaries merge only with the same response transform, predictors and estimated parameters");
-  if (&other == this) {
-    const FitSummary copy(other);
-    merge(copy);
-    return;
-  }
+  if (summary_detail::merged_self(*this, other)) return;
   s.n += o.n;
   s.jacobian.add(o.jacobian);
   s.log_w.add(o.log_w);

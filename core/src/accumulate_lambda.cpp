@@ -100,13 +100,7 @@ void LambdaSummary::add(const double* y, const double* X, std::size_t rows, std:
                         const double* w) {
   State& s = *s_;
   if (rows == 0) return;
-  require(y != nullptr, "y is NULL");
-  require(s.p == 0 || X != nullptr, "the predictor matrix is NULL");
-  require(s.p == 0 || ld >= rows, "the leading dimension of X (" + std::to_string(ld) +
-                                      ") is smaller than the rows (" + std::to_string(rows) + ")");
-  summary_detail::check_weights(w, rows);
-  summary_detail::check_lambda_response(y, rows, s.family);
-  if (s.p) summary_detail::check_predictors(X, rows, ld, s.p);
+  summary_detail::check_chunk(y, X, rows, ld, s.p, w, &s.family);
 
   constexpr int K = State::K, KC = State::KC, S = State::S;
   const std::size_t L = s.L, p = s.p;
@@ -194,11 +188,7 @@ void LambdaSummary::merge(const LambdaSummary& other) {
           std::string("summaries merge only with the same family and predictors; got ") +
               family_name(s.family) + " with " + std::to_string(s.p) + " predictors and " +
               family_name(o.family) + " with " + std::to_string(o.p));
-  if (&other == this) {
-    const LambdaSummary copy(other);
-    merge(copy);
-    return;
-  }
+  if (summary_detail::merged_self(*this, other)) return;
   for (std::size_t b = 0; b < o.bins(); ++b) {
     const std::size_t nb = s.bin(o.group[b], o.key[b]);
     for (std::size_t l = 0; l < s.L; ++l) {

@@ -6,6 +6,7 @@
 
 #include "powerback/accumulate_detail.hpp"
 #include "powerback/least_squares.hpp"
+#include "lambda_internal.hpp"
 
 namespace powerback {
 namespace summary_detail {
@@ -120,20 +121,11 @@ class BinnedEvaluator {
     CompensatedSum sum;
     double n = 0.0;
     for (std::size_t b = 0; b < bins; ++b) {
-      const double k = second_[b] ? k2 : lambda, c = centre_[b], kc = k * c;
-      double A, B;
-      if (!scaled) {
-        A = k == 0.0 ? c : std::expm1(kc) / k;
-        B = std::exp(kc);
-      } else {
-        B = std::exp(kc - m);
-        A = k == 0.0 ? c * em : (B - em) / k;
-      }
-      const double* r1 = &s1_[b * K];
-      double e1 = r1[K - 1];
-      for (int j = K - 2; j >= 0; --j) e1 = e1 * k + r1[j];
-      a_[b] = sign_[b] * A;
-      bb_[b] = sign_[b] * B;
+      const double k = second_[b] ? k2 : lambda;
+      const detail::BinTerms ab = detail::bin_terms(k, centre_[b], scaled, m, em);
+      const double e1 = detail::power_sum(&s1_[b * K], 0, K - 1, k);
+      a_[b] = sign_[b] * ab.a;
+      bb_[b] = sign_[b] * ab.b;
       e1_[b] = e1;
       sum.add(count_[b] * a_[b] + bb_[b] * e1);
       n += count_[b];
@@ -142,9 +134,7 @@ class BinnedEvaluator {
     CompensatedSum tss;
     for (std::size_t b = 0; b < bins; ++b) {
       const double k = second_[b] ? k2 : lambda;
-      const double* r2 = &s2_[b * K];
-      double e2 = r2[K - 1];
-      for (int j = K - 2; j >= 1; --j) e2 = e2 * k + r2[j];
+      const double e2 = detail::power_sum(&s2_[b * K], 1, K - 1, k);
       const double da = a_[b] - wbar;
       tss.add(count_[b] * da * da + 2.0 * da * bb_[b] * e1_[b] + bb_[b] * bb_[b] * e2);
     }
@@ -158,9 +148,7 @@ class BinnedEvaluator {
         const double k = second_[b] ? k2 : lambda;
         for (std::size_t c = 1; c < kk; ++c) {
           const double* x = &xm_[(b * kk + c) * S];
-          double e = x[KC];
-          for (int j = KC - 1; j >= 1; --j) e = e * k + x[j];
-          v[c].add(a_[b] * x[0] + bb_[b] * e);
+          v[c].add(a_[b] * x[0] + bb_[b] * detail::power_sum(x, 1, KC, k));
         }
       }
       Eigen::VectorXd vv(static_cast<Eigen::Index>(kk));

@@ -86,12 +86,7 @@ void LambdaGridPass::add(const double* y, const double* X, std::size_t rows, std
                          const double* w) {
   State& s = *s_;
   if (rows == 0) return;
-  require(y != nullptr, "y is NULL");
-  require(s.p == 0 || X != nullptr, "the predictor matrix is NULL");
-  require(s.p == 0 || ld >= rows, "the leading dimension of X is smaller than the rows");
-  summary_detail::check_weights(w, rows);
-  summary_detail::check_lambda_response(y, rows, s.family);
-  if (s.p) summary_detail::check_predictors(X, rows, ld, s.p);
+  summary_detail::check_chunk(y, X, rows, ld, s.p, w, &s.family);
   const std::size_t k = s.kept.size(), m = s.grid.size();
   const Eigen::Index width = static_cast<Eigen::Index>(k + m);
   const bool yj = s.family == Family::YeoJohnson;

@@ -182,20 +182,11 @@ bool BinnedProfile::log_rss(double lambda, double* out) const {
   double sum = 0.0, n = 0.0;
   for (std::size_t b = 0; b < bins_; ++b) {
     if (count_[b] == 0.0) continue;
-    const double k = second_[b] ? k2 : lambda, c = centre_[b], kc = k * c;
-    double A, B;
-    if (!scaled) {
-      A = k == 0.0 ? c : std::expm1(kc) / k;
-      B = std::exp(kc);
-    } else {
-      B = std::exp(kc - m);
-      A = k == 0.0 ? c * em : (B - em) / k;
-    }
-    const double* r1 = &s1_[b * K];
-    double e1 = r1[K - 1];
-    for (int j = K - 2; j >= 0; --j) e1 = e1 * k + r1[j];
-    a_[b] = sign_[b] * A;
-    b_[b] = sign_[b] * B;
+    const double k = second_[b] ? k2 : lambda;
+    const BinTerms ab = bin_terms(k, centre_[b], scaled, m, em);
+    const double e1 = power_sum(&s1_[b * K], 0, K - 1, k);
+    a_[b] = sign_[b] * ab.a;
+    b_[b] = sign_[b] * ab.b;
     e1_[b] = e1;
     sum += count_[b] * a_[b] + b_[b] * e1;
     n += count_[b];
@@ -205,9 +196,7 @@ bool BinnedProfile::log_rss(double lambda, double* out) const {
   for (std::size_t b = 0; b < bins_; ++b) {
     if (count_[b] == 0.0) continue;
     const double k = second_[b] ? k2 : lambda;
-    const double* r2 = &s2_[b * K];
-    double e2 = r2[K - 1];
-    for (int j = K - 2; j >= 1; --j) e2 = e2 * k + r2[j];
+    const double e2 = power_sum(&s2_[b * K], 1, K - 1, k);
     const double da = a_[b] - wbar;
     tss += count_[b] * da * da + 2.0 * da * b_[b] * e1_[b] + b_[b] * b_[b] * e2;
   }
@@ -225,9 +214,7 @@ bool BinnedProfile::log_rss(double lambda, double* out) const {
       const double* xm = &xm_[b * columns_ * kColumnSlot];
       for (Eigen::Index c = 1; c < kk; ++c) {
         const double* s = xm + kept_[static_cast<std::size_t>(c)] * kColumnSlot;  // sum x, then the terms
-        double e = s[KC];
-        for (int j = KC - 1; j >= 1; --j) e = e * k + s[j];
-        v_(c) += ab * s[0] + bb * e;
+        v_(c) += ab * s[0] + bb * power_sum(s, 1, KC, k);
       }
     }
     const Eigen::VectorXd u = r_.transpose().triangularView<Eigen::Lower>().solve(v_);

@@ -4,6 +4,7 @@
 #pragma once
 
 #include <Eigen/Dense>
+#include <cmath>
 #include <cstddef>
 #include <memory>
 #include <string>
@@ -37,6 +38,25 @@ namespace detail {
 // With precision weights every sum is weighted: counts become sums of w, the power sums sums of
 // w delta^m, and the column sums (of the design scaled by sqrt(w), as factored) gain one more
 // factor sqrt(w), so the same formulas give the weighted sums of squares.
+// The binned series' pieces, shared by BinnedProfile and the chunked summaries
+// (accumulate_lambda_finish.cpp). Within a bin centred at c, expm1(k t) / k = A + B e with
+// A = expm1(k c) / k and B = exp(k c); when scaled, both are divided by exp(m) (em = exp(-m)).
+struct BinTerms {
+  double a, b;
+};
+inline BinTerms bin_terms(double k, double c, bool scaled, double m, double em) {
+  const double kc = k * c;
+  if (!scaled) return {k == 0.0 ? c : std::expm1(kc) / k, std::exp(kc)};
+  const double b = std::exp(kc - m);
+  return {k == 0.0 ? c * em : (b - em) / k, b};
+}
+// sum over j in [first, last] of s[j] k^(j - first), by Horner's rule.
+inline double power_sum(const double* s, int first, int last, double k) {
+  double e = s[last];
+  for (int j = last - 1; j >= first; --j) e = e * k + s[j];
+  return e;
+}
+
 class BinnedProfile {
  public:
   static constexpr int kTerms = 10;        // power sums of delta: the series of e and e^2

@@ -59,11 +59,9 @@
 #' @export
 box_tidwell <- function(object, data = NULL, vars = NULL, weights = NULL, subset = NULL,
                         max_iter = 50L, tol = 1e-6, level = 0.95) {
-  pwb_cmp_check_level(level)
-  if (!is.numeric(max_iter) || length(max_iter) != 1L || is.na(max_iter) || max_iter < 1)
-    stop("`max_iter` must be a whole number >= 1", call. = FALSE)
-  if (!is.numeric(tol) || length(tol) != 1L || is.na(tol) || tol <= 0)
-    stop("`tol` must be a positive number", call. = FALSE)
+  pwb_check_level(level)
+  max_iter <- pwb_check_whole(max_iter, "max_iter", 1L)
+  pwb_check_positive(tol, "tol")
   fr <- pwb_weighted_frame(object, data, substitute(weights), substitute(subset), parent.frame(),
                            "box_tidwell")
   X <- fr$X

@@ -32,13 +32,9 @@
 #' d
 #' @export
 chunk_design <- function(formula, data, levels = NULL, weights = NULL, na.action = c("na.omit", "na.fail")) {
-  na.action <- match.arg(na.action)
-  if (!inherits(formula, "formula") || length(formula) != 3L)
-    stop("`formula` must be a two-sided formula such as load ~ flow + season", call. = FALSE)
-  if (!is.symbol(formula[[2L]]))
-    stop(sprintf("the left side of the formula must be a column name, not `%s`", deparse1(formula[[2L]])),
-         call. = FALSE)
-  if (!is.data.frame(data)) stop("`data` must be a data frame (one chunk of the data)", call. = FALSE)
+  na.action <- pwb_match_choice(na.action, "na.action")
+  pwb_check_response_formula(formula)
+  pwb_check_data_frame(data)
   if (!is.null(weights) && !(is.character(weights) && length(weights) == 1L && weights %in% names(data)))
     stop("`weights` must be the name of a column of `data`", call. = FALSE)
   yname <- as.character(formula[[2L]])

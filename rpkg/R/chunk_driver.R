@@ -54,7 +54,7 @@
 fit_chunked <- function(formula, chunks, reader = NULL, family = c("box-cox", "yeo-johnson"),
                         response = "estimate", weights = NULL, levels = NULL, range = c(-3, 3),
                         level = 0.95, cl = NULL, design = NULL) {
-  family <- match.arg(family)
+  family <- pwb_match_choice(family, "family")
   pwb_lambda_check_args(range, level)
   if (!is.list(chunks) && !is.atomic(chunks)) stop("`chunks` must be a list or a vector", call. = FALSE)
   if (is.data.frame(chunks)) chunks <- list(chunks)

@@ -94,11 +94,11 @@ confint.pwb_chunked_fit <- function(object, parm, level = 0.95, ...) {
 predict.pwb_chunked_fit <- function(object, newdata, interval = c("none", "confidence", "prediction"),
                                     level = 0.95, center = c("median", "mean"),
                                     mean_method = c("smearing", "normal"), ...) {
-  interval <- match.arg(interval)
-  center <- match.arg(center)
-  mean_method <- match.arg(mean_method)
+  interval <- pwb_match_choice(interval, "interval")
+  center <- pwb_match_choice(center, "center")
+  mean_method <- pwb_match_choice(mean_method, "mean_method")
   pwb_check_level(level)
-  if (!is.data.frame(newdata)) stop("`newdata` must be a data frame", call. = FALSE)
+  pwb_check_data_frame(newdata, "newdata")
   d <- object$design
   tt <- stats::delete.response(d$terms)
   for (v in names(d$xlevels)) {

@@ -70,7 +70,7 @@ NULL
 #' @export
 lambda_summary <- function(design, data, family = c("box-cox", "yeo-johnson"), chunk = "1") {
   pwb_check_design(design)
-  family <- match.arg(family)
+  family <- pwb_match_choice(family, "family")
   fr <- pwb_chunk_frame(design, data, chunk)
   pwb_chunk_check_response(fr, design, family, chunk)
   bytes <- rpwb_lambda_summary_bytes(fr$y, fr$X, family, fr$w)

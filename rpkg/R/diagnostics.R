@@ -50,8 +50,7 @@
 #' @export
 residual_checks <- function(object, compare = FALSE, data = NULL, weights = NULL,
                             subset = NULL) {
-  if (!is.logical(compare) || length(compare) != 1L || is.na(compare))
-    stop("`compare` must be TRUE or FALSE", call. = FALSE)
+  pwb_check_flag(compare, "compare")
   if (inherits(object, "formula")) {
     cl <- match.call()
     cl$compare <- NULL

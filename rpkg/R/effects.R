@@ -58,7 +58,7 @@ effect_table <- function(model, values = NULL, at = NULL, per = c("auto", "unit"
                          level = 0.95, ...) {
   if (!inherits(model, "pwb_model"))
     stop("`model` must be a pwb_model from lm_transformed()", call. = FALSE)
-  per <- match.arg(per)
+  per <- pwb_match_choice(per, "per")
   pwb_check_level(level)
   pwb_check_named_list(values, "values")
   pwb_check_named_list(at, "at")
@@ -151,11 +151,6 @@ effect_table <- function(model, values = NULL, at = NULL, per = c("auto", "unit"
             response = pwb_transform_label(model$response, model$yname), held = held)
 }
 
-pwb_check_named_list <- function(x, what) {
-  if (!is.null(x) && (!is.list(x) || is.null(names(x)) || any(!nzchar(names(x)))))
-    stop(sprintf("`%s` must be a named list, e.g. list(flow = c(10, 20))", what), call. = FALSE)
-}
-
 # One row of held values: medians of numeric variables, reference levels of factors, or `at`.
 pwb_effect_base <- function(model, at) {
   xlev <- model$xlevels
@@ -190,7 +185,7 @@ pwb_stack <- function(rows, k) {
 #' @rdname effect_table
 #' @export
 format.pwb_effects <- function(x, format = c("plain", "markdown"), digits = 3, ...) {
-  format <- match.arg(format)
+  format <- pwb_match_choice(format, "format")
   num <- function(v) vapply(v, function(u) if (is.na(u)) "NA" else format(signif(u, digits)), "")
   unit <- ifelse(x$measure == "percent", "%", "")
   tab <- data.frame(term = x$term, effect = x$effect,
@@ -214,7 +209,7 @@ format.pwb_effects <- function(x, format = c("plain", "markdown"), digits = 3, .
 #' @rdname effect_table
 #' @export
 print.pwb_effects <- function(x, format = c("plain", "markdown"), digits = 3, ...) {
-  format <- match.arg(format)
+  format <- pwb_match_choice(format, "format")
   width <- min(getOption("width"), 80L)
   cat(strwrap(sprintf("Effects on the median of the response (model on %s):", attr(x, "response")),
               width = width), sep = "\n")

@@ -45,20 +45,12 @@
 #' @export
 lambda_influence <- function(object, data = NULL, family = c("box-cox", "yeo-johnson"),
                              range = c(-3, 3), level = 0.95, weights = NULL, subset = NULL) {
-  family <- match.arg(family)
-  pwb_cmp_check_level(level)
-  if (!is.numeric(range) || length(range) != 2L || anyNA(range) || range[1L] >= range[2L])
-    stop("`range` must be two numbers, lower < upper", call. = FALSE)
+  family <- pwb_match_choice(family, "family")
+  pwb_check_level(level)
+  pwb_check_range(range)
   if (inherits(object, "pwb_model")) {
     if (!is.null(object$response_lambda)) family <- object$response_lambda$family
-    fr <- pwb_weighted_frame(object$lm, NULL, NULL, NULL, parent.frame(), "lambda_influence")
-    fr$y <- as.double(object$y)
-    fr$yname <- object$yname
-    rows <- seq_len(nrow(object$data))
-    if (!is.null(object$lm$na.action)) rows <- rows[-as.integer(object$lm$na.action)]
-    rn <- rownames(object$data)
-    own <- .row_names_info(object$data) > 0L && !identical(rn, as.character(seq_along(rn)))
-    fr$labels <- if (own) rn[rows] else rows
+    fr <- pwb_model_influence_frame(object)
   } else {
     fr <- pwb_weighted_frame(object, data, substitute(weights), substitute(subset), parent.frame(),
                              "lambda_influence")
@@ -124,4 +116,20 @@ plot.pwb_influence <- function(x, ...) {
   if (length(top) > 0L)
     graphics::text(r$leverage[top], r$delta[top], labels = r$row[top], pos = 3, cex = 0.7)
   invisible(x)
+}
+
+# The response, design and weights of a pwb_model as its core fit saw them (the stored frame with
+# the predictor transforms applied: no refit). Rows are labelled by the data's row names, which
+# are whole numbers (the rows' positions) when the data had none of its own.
+pwb_model_influence_frame <- function(object) {
+  design <- pwb_stored_design(object)
+  if (!design$intercept)
+    stop("lambda_influence() needs a model with an intercept", call. = FALSE)
+  frame <- .subset2(object, "frame")
+  rn <- rownames(frame)
+  pos <- suppressWarnings(as.integer(rn))
+  w <- stats::model.weights(frame)
+  list(y = as.double(design$y), X = design$X, yname = .subset2(object, "yname"),
+       labels = if (!anyNA(pos) && identical(as.character(pos), rn)) pos else rn,
+       weights = if (is.null(w)) NULL else as.double(w))
 }

@@ -164,10 +164,8 @@ estimate_response_lambda <- function(object, data = NULL, family = c("box-cox", 
 }
 
 pwb_lambda_check_args <- function(range, level) {
-  if (!is.numeric(range) || length(range) != 2L || any(!is.finite(range)) || range[1L] >= range[2L])
-    stop("`range` must be two finite numbers c(lower, upper) with lower < upper", call. = FALSE)
-  if (!is.numeric(level) || length(level) != 1L || is.na(level) || level <= 0 || level >= 1)
-    stop("`level` must be a single number strictly between 0 and 1, e.g. 0.95", call. = FALSE)
+  pwb_check_range(range)
+  pwb_check_level(level)
 }
 
 # The model frame of a formula, with weights and subset evaluated as lm evaluates them (in `data`,

@@ -167,7 +167,7 @@ as_transform <- function(x, which = c("convenient", "estimate"), ...) UseMethod(
 #' @rdname as_transform
 #' @export
 as_transform.pwb_lambda <- function(x, which = c("convenient", "estimate"), ...) {
-  which <- match.arg(which)
+  which <- pwb_match_choice(which, "which")
   new_transform(x$family, lambda = if (which == "convenient") x$convenient else x$lambda)
 }
 

@@ -105,8 +105,7 @@ lm_transformed <- function(formula, data, response = "estimate", predictors = NU
   call <- match.call()
   pwb_check_level(level)
   family <- match.arg(family, c("box-cox", "yeo-johnson"))
-  if (!is.numeric(range) || length(range) != 2L || any(!is.finite(range)) || range[1L] >= range[2L])
-    stop("`range` must be two finite numbers c(lower, upper) with lower < upper", call. = FALSE)
+  pwb_check_range(range)
   src <- pwb_model_source(formula, if (missing(data)) NULL else data, call, parent.frame(),
                           na.action)
   formula <- src$formula

@@ -105,6 +105,13 @@ pwb_model_design <- function(object, tdata) {
        contrasts = attr(mm, "contrasts"), assign = attr(mm, "assign"))
 }
 
+# The design of a pwb_model rebuilt from its stored frame and predictor transforms.
+pwb_stored_design <- function(object) {
+  tdata <- pwb_transform_columns(pwb_frame_variables(.subset2(object, "frame")),
+                                 .subset2(object, "predictors"))
+  pwb_model_design(unclass(object), tdata)
+}
+
 # An environment holding the external pointer of the core model. An environment is shared by
 # copies of the object, so a handle rebuilt after a reload serves them all.
 pwb_new_handle_env <- function(ptr) {
@@ -119,9 +126,7 @@ pwb_handle <- function(object) {
   env <- .subset2(object, "handle")
   if (!is.environment(env)) stop("`object` is not a pwb_model made by lm_transformed()", call. = FALSE)
   if (!is.null(env$ptr) && rpwb_model_is_live(env$ptr)) return(env$ptr)
-  tdata <- pwb_transform_columns(pwb_frame_variables(.subset2(object, "frame")),
-                                 .subset2(object, "predictors"))
-  design <- pwb_model_design(unclass(object), tdata)
+  design <- pwb_stored_design(object)
   env$ptr <- rpwb_model_new(design$y, design$X, design$intercept,
                             pwb_spec_or_null(.subset2(object, "response")),
                             .subset2(object, "estimated"),

@@ -170,7 +170,7 @@ weights.pwb_model <- function(object, ...) {
 #' @rdname pwb_model_methods
 #' @export
 residuals.pwb_model <- function(object, type = c("transformed", "response", "original"), ...) {
-  type <- match.arg(type)
+  type <- pwb_match_choice(type, "type")
   r <- if (type == "transformed") object$residuals else object$y - pwb_fitted_median(object)
   names(r) <- row.names(object$frame)
   stats::naresid(object$na.action, r)
@@ -179,7 +179,7 @@ residuals.pwb_model <- function(object, type = c("transformed", "response", "ori
 #' @rdname pwb_model_methods
 #' @export
 fitted.pwb_model <- function(object, type = c("response", "transformed"), ...) {
-  type <- match.arg(type)
+  type <- pwb_match_choice(type, "type")
   f <- if (type == "transformed") object$fitted else pwb_fitted_median(object)
   names(f) <- row.names(object$frame)
   stats::napredict(object$na.action, f)

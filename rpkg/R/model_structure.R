@@ -67,7 +67,7 @@ formula.pwb_model <- function(x, ...) x$formula
 #' @export
 update.pwb_model <- function(object, formula., ..., transforms = c("keep", "estimate"),
                              evaluate = TRUE) {
-  transforms <- match.arg(transforms)
+  transforms <- pwb_match_choice(transforms, "transforms")
   call <- object$call
   extras <- match.call(expand.dots = FALSE)$...
   if (!missing(formula.))

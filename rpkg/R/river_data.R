@@ -20,7 +20,7 @@
 #' summary(river$sediment_t_day)
 #' @export
 river_data <- function(set = c("fit", "new")) {
-  set <- match.arg(set)
+  set <- pwb_match_choice(set, "set")
   path <- system.file("extdata", paste0("river_", set, ".csv"), package = "powerback")
   if (!nzchar(path)) stop("the demo data are not installed with this copy of powerback", call. = FALSE)
   d <- utils::read.csv(path, stringsAsFactors = FALSE)

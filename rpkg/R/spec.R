@@ -111,12 +111,6 @@ pwb_spec_model_record <- function(x) {
        df = as.double(x$df_residual))
 }
 
-pwb_check_path <- function(file) {
-  if (!is.character(file) || length(file) != 1L || is.na(file) || !nzchar(file))
-    stop("`file` must be a single path, e.g. file.path(tempdir(), \"transforms.pwbspec\")",
-         call. = FALSE)
-}
-
 # Names as UTF-8 for the spec. A name whose bytes are not valid in its declared encoding (e.g.
 # "\xff" in a UTF-8 session) is an error: converting it would rewrite it silently.
 pwb_utf8_names <- function(nms, what) {

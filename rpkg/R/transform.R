@@ -69,13 +69,15 @@ new_transform <- function(family, lambda = NULL, shift = 0, reflect = FALSE, piv
 #' invert_transform(tr, c(0, 1, 2))
 #' @export
 apply_transform <- function(tr, x, invalid = c("error", "na")) {
-  pwb_map_values(tr, x, deparse1(substitute(x)), match.arg(invalid), inverse = FALSE)
+  invalid <- pwb_match_choice(invalid, "invalid")
+  pwb_map_values(tr, x, deparse1(substitute(x)), invalid, inverse = FALSE)
 }
 
 #' @rdname apply_transform
 #' @export
 invert_transform <- function(tr, z, invalid = c("error", "na")) {
-  pwb_map_values(tr, z, deparse1(substitute(z)), match.arg(invalid), inverse = TRUE)
+  invalid <- pwb_match_choice(invalid, "invalid")
+  pwb_map_values(tr, z, deparse1(substitute(z)), invalid, inverse = TRUE)
 }
 
 pwb_check_transform <- function(tr) {

@@ -21,6 +21,12 @@ pwb_check_flag <- function(x, what) {
     stop(sprintf("`%s` must be TRUE or FALSE", what), call. = FALSE)
 }
 
+# A single finite number > 0 (a tolerance, a step).
+pwb_check_positive <- function(v, what) {
+  if (!is.numeric(v) || length(v) != 1L || !is.finite(v) || v <= 0)
+    stop(sprintf("`%s` must be a single positive number", what), call. = FALSE)
+}
+
 # A whole number >= lo, returned as an integer.
 pwb_check_whole <- function(v, what, lo) {
   if (!is.numeric(v) || length(v) != 1L || is.na(v) || v != round(v) || v < lo)
@@ -42,8 +48,25 @@ pwb_check_data_frame <- function(data, what = "data") {
 
 # A two-sided formula with one variable name on the left.
 pwb_check_response_formula <- function(formula) {
-  if (!inherits(formula, "formula") || length(formula) != 3L || !is.symbol(formula[[2L]]))
+  if (!inherits(formula, "formula") || length(formula) != 3L)
     stop("`formula` must be a two-sided formula with a variable name on the left, e.g. y ~ x",
+         call. = FALSE)
+  if (!is.symbol(formula[[2L]]))
+    stop(sprintf(paste0("`formula` must be a two-sided formula with a variable name on the left, ",
+                        "e.g. y ~ x; its left side is `%s`"), deparse1(formula[[2L]])),
+         call. = FALSE)
+}
+
+# NULL or a list whose every element is named.
+pwb_check_named_list <- function(x, what) {
+  if (!is.null(x) && (!is.list(x) || is.null(names(x)) || any(!nzchar(names(x)))))
+    stop(sprintf("`%s` must be a named list, e.g. list(flow = c(10, 20))", what), call. = FALSE)
+}
+
+# A single file path.
+pwb_check_path <- function(file) {
+  if (!is.character(file) || length(file) != 1L || is.na(file) || !nzchar(file))
+    stop("`file` must be a single path, e.g. file.path(tempdir(), \"transforms.pwbspec\")",
          call. = FALSE)
 }
 
@@ -53,4 +76,17 @@ pwb_check_choice <- function(arg, choices, what) {
     stop(sprintf("`%s` must be one of %s", what, paste0("\"", choices, "\"", collapse = ", ")),
          call. = FALSE)
   arg
+}
+
+# A character argument whose default lists its choices, as match.arg() reads it: the default
+# (or NULL) gives the first choice, a unique abbreviation the full name; anything else stops
+# with a message naming the argument and its choices. `what` is the argument's name in the caller.
+pwb_match_choice <- function(arg, what) {
+  choices <- eval(formals(sys.function(sys.parent()))[[what]])
+  if (is.null(arg) || identical(arg, choices)) return(choices[1L])
+  i <- if (is.character(arg) && length(arg) == 1L && !is.na(arg)) pmatch(arg, choices) else NA
+  if (is.na(i))
+    stop(sprintf("`%s` must be one of %s", what, paste0("\"", choices, "\"", collapse = ", ")),
+         call. = FALSE)
+  choices[i]
 }

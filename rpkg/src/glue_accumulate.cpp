@@ -33,44 +33,20 @@ Rcpp::RawVector bytes_of(const H* h, pwb_status (*ser)(const H*, unsigned char*,
   return out;
 }
 
-const double* weights_ptr(const Rcpp::Nullable<Rcpp::NumericVector>& w, std::size_t n,
-                          Rcpp::NumericVector* keep) {
-  if (w.isNull()) return nullptr;
-  *keep = Rcpp::NumericVector(w);
-  if (static_cast<std::size_t>(keep->size()) != n) Rcpp::stop("the weights and the rows differ in length");
-  return keep->begin();
-}
-
 const double* x_ptr(const Rcpp::NumericMatrix& X, const Rcpp::NumericVector& y) {
   if (X.nrow() != y.size()) Rcpp::stop("the model matrix and the response differ in rows");
   return X.ncol() > 0 && X.nrow() > 0 ? X.begin() : nullptr;
 }
 
-pwb_lambda_options lambda_options(double lower, double upper, double level) {
-  pwb_lambda_options o;
-  pwb_lambda_options_init(&o);
-  o.lower = lower;
-  o.upper = upper;
-  o.level = level;
-  return o;
-}
-
 Rcpp::List finish_list(const pwb_lambda_result& r, const std::vector<double>& grid, const std::vector<double>& ll,
                        const pwb_summary_pass_info& info) {
-  return Rcpp::List::create(
-      Rcpp::Named("lambda") = r.lambda, Rcpp::Named("conf_low") = r.conf_low,
-      Rcpp::Named("conf_high") = r.conf_high, Rcpp::Named("convenient") = r.convenient,
-      Rcpp::Named("loglik") = r.loglik, Rcpp::Named("at_bound") = r.at_bound != 0,
-      Rcpp::Named("converged") = r.converged != 0, Rcpp::Named("n") = static_cast<double>(r.n),
-      Rcpp::Named("low_open") = r.low_open != 0, Rcpp::Named("high_open") = r.high_open != 0,
-      Rcpp::Named("rank") = static_cast<double>(r.rank),
-      Rcpp::Named("n_aliased") = static_cast<double>(r.n_aliased),
-      Rcpp::Named("grid") = Rcpp::NumericVector(grid.begin(), grid.end()),
-      Rcpp::Named("grid_loglik") = Rcpp::NumericVector(ll.begin(), ll.end()),
-      Rcpp::Named("needs_pass") = info.needs_pass != 0, Rcpp::Named("pass_lower") = info.pass_lower,
-      Rcpp::Named("pass_upper") = info.pass_upper,
-      Rcpp::Named("pass_points") = static_cast<double>(info.pass_points),
-      Rcpp::Named("from_grid") = info.from_grid != 0);
+  Rcpp::List out = rpwb::lambda_result_list(r, grid, ll);
+  out["needs_pass"] = info.needs_pass != 0;
+  out["pass_lower"] = info.pass_lower;
+  out["pass_upper"] = info.pass_upper;
+  out["pass_points"] = static_cast<double>(info.pass_points);
+  out["from_grid"] = info.from_grid != 0;
+  return out;
 }
 
 }  // namespace
@@ -79,13 +55,11 @@ Rcpp::List finish_list(const pwb_lambda_result& r, const std::vector<double>& gr
 // [[Rcpp::export]]
 Rcpp::RawVector rpwb_lambda_summary_bytes(Rcpp::NumericVector y, Rcpp::NumericMatrix X, std::string family,
                                           Rcpp::Nullable<Rcpp::NumericVector> weights) {
-  pwb_family f;
-  rpwb::check(pwb_family_from_name(family.c_str(), &f));
   LambdaS s;
-  rpwb::check(pwb_lambda_summary_new(f, static_cast<size_t>(X.ncol()), &s.h));
+  rpwb::check(pwb_lambda_summary_new(rpwb::family_of(family), static_cast<size_t>(X.ncol()), &s.h));
   Rcpp::NumericVector wk;
   const std::size_t n = static_cast<std::size_t>(y.size());
-  rpwb::check(pwb_lambda_summary_add(s.h, y.begin(), x_ptr(X, y), n, n, weights_ptr(weights, n, &wk)));
+  rpwb::check(pwb_lambda_summary_add(s.h, y.begin(), x_ptr(X, y), n, n, rpwb::weights_or_null(weights, y.size(), &wk)));
   return bytes_of(s.h, pwb_lambda_summary_serialize);
 }
 
@@ -150,7 +124,7 @@ Rcpp::List rpwb_lambda_summary_finish(Rcpp::RawVector bytes, double lower, doubl
                                       int n_grid) {
   LambdaS s;
   rpwb::check(pwb_lambda_summary_deserialize(raw_ptr(bytes), bytes.size(), &s.h));
-  const pwb_lambda_options o = lambda_options(lower, upper, level);
+  const pwb_lambda_options o = rpwb::lambda_options(lower, upper, level);
   pwb_lambda_result r;
   pwb_lambda_result_init(&r);
   pwb_summary_pass_info info;
@@ -171,7 +145,7 @@ Rcpp::RawVector rpwb_lambda_pass_bytes(Rcpp::RawVector summary, Rcpp::NumericVec
   rpwb::check(pwb_lambda_pass_new(s.h, grid.begin(), static_cast<size_t>(grid.size()), &p.h));
   Rcpp::NumericVector wk;
   const std::size_t n = static_cast<std::size_t>(y.size());
-  rpwb::check(pwb_lambda_pass_add(p.h, y.begin(), x_ptr(X, y), n, n, weights_ptr(weights, n, &wk)));
+  rpwb::check(pwb_lambda_pass_add(p.h, y.begin(), x_ptr(X, y), n, n, rpwb::weights_or_null(weights, y.size(), &wk)));
   return bytes_of(p.h, pwb_lambda_pass_serialize);
 }
 
@@ -184,7 +158,7 @@ Rcpp::List rpwb_lambda_pass_finish(Rcpp::RawVector pass, Rcpp::RawVector summary
   rpwb::check(pwb_lambda_pass_deserialize(raw_ptr(pass), pass.size(), &p.h));
   size_t m = 0;
   rpwb::check(pwb_lambda_pass_grid_size(p.h, &m));
-  const pwb_lambda_options o = lambda_options(lower, upper, level);
+  const pwb_lambda_options o = rpwb::lambda_options(lower, upper, level);
   pwb_lambda_result r;
   pwb_lambda_result_init(&r);
   pwb_summary_pass_info info;
@@ -206,7 +180,7 @@ Rcpp::RawVector rpwb_fit_summary_bytes(Rcpp::NumericVector y, Rcpp::NumericMatri
                                   static_cast<size_t>(estimated), &s.h));
   Rcpp::NumericVector wk;
   const std::size_t n = static_cast<std::size_t>(y.size());
-  rpwb::check(pwb_fit_summary_add(s.h, y.begin(), x_ptr(X, y), n, n, weights_ptr(weights, n, &wk)));
+  rpwb::check(pwb_fit_summary_add(s.h, y.begin(), x_ptr(X, y), n, n, rpwb::weights_or_null(weights, y.size(), &wk)));
   return bytes_of(s.h, pwb_fit_summary_serialize);
 }
 
@@ -247,7 +221,7 @@ Rcpp::RawVector rpwb_fit_checks_bytes(Rcpp::RawVector fit, Rcpp::NumericVector y
   rpwb::check(pwb_fit_checks_new(s.h, &c.h));
   Rcpp::NumericVector wk;
   const std::size_t n = static_cast<std::size_t>(y.size());
-  rpwb::check(pwb_fit_checks_add(c.h, y.begin(), x_ptr(X, y), n, n, weights_ptr(weights, n, &wk)));
+  rpwb::check(pwb_fit_checks_add(c.h, y.begin(), x_ptr(X, y), n, n, rpwb::weights_or_null(weights, y.size(), &wk)));
   return bytes_of(c.h, pwb_fit_checks_serialize);
 }
 

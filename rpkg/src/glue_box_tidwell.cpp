@@ -14,10 +14,7 @@ Rcpp::List rpwb_box_tidwell(Rcpp::NumericVector y, Rcpp::NumericMatrix Z, Rcpp::
   opt.tol = tol;
   opt.level = level;
   Rcpp::NumericVector w;
-  if (weights.isNotNull()) {
-    w = Rcpp::NumericVector(weights);
-    opt.weights = w.begin();
-  }
+  opt.weights = rpwb::weights_or_null(weights, y.size(), &w);
   Rcpp::NumericVector alpha(m), se(m), lo(m), hi(m), t(m), p(m), sugg(m);
   Rcpp::IntegerVector advice(m);
   Rcpp::NumericMatrix hist(static_cast<int>(m), max_iter + 1);

@@ -5,6 +5,7 @@
 
 #include <cmath>
 #include <string>
+#include <vector>
 
 #include "powerback.h"
 
@@ -32,13 +33,18 @@ inline double na_to_nan(SEXP v) {
   return ISNAN(d) ? NAN : d;
 }
 
+// The family code of a name ("box-cox", ...); an R error naming the choices for an unknown one.
+inline pwb_family family_of(const std::string& name) {
+  pwb_family f;
+  check(pwb_family_from_name(name.c_str(), &f));
+  return f;
+}
+
 // A pwb_transform spec from the R list (family, lambda, shift, reflect, pivot).
 inline pwb_transform_spec spec_from_list(const Rcpp::List& l) {
   pwb_transform_spec s;
   pwb_transform_spec_init(&s);
-  pwb_family f;
-  check(pwb_family_from_name(Rcpp::as<std::string>(l["family"]).c_str(), &f));
-  s.family = f;
+  s.family = family_of(Rcpp::as<std::string>(l["family"]));
   s.lambda = na_to_nan(l["lambda"]);
   s.shift = na_to_nan(l["shift"]);
   s.reflect = Rcpp::as<bool>(l["reflect"]) ? 1 : 0;
@@ -63,5 +69,41 @@ class Transform {
 };
 
 inline double nan_to_na(double d) { return std::isnan(d) ? NA_REAL : d; }
+
+// NULL when w is, else w's values (held alive in *keep), which must be as many as the n rows.
+inline const double* weights_or_null(const Rcpp::Nullable<Rcpp::NumericVector>& w, R_xlen_t n,
+                                     Rcpp::NumericVector* keep) {
+  if (w.isNull()) return nullptr;
+  *keep = Rcpp::NumericVector(w.get());
+  if (keep->size() != n) Rcpp::stop("the weights and the response differ in length");
+  return keep->begin();
+}
+
+// Lambda options with the given range and level (and weights, NULL for none).
+inline pwb_lambda_options lambda_options(double lower, double upper, double level,
+                                         const double* w = nullptr) {
+  pwb_lambda_options o;
+  pwb_lambda_options_init(&o);
+  o.lower = lower;
+  o.upper = upper;
+  o.level = level;
+  o.weights = w;
+  return o;
+}
+
+// A lambda estimate and its profile curve as the R list the estimators return.
+inline Rcpp::List lambda_result_list(const pwb_lambda_result& r, const std::vector<double>& grid,
+                                     const std::vector<double>& ll) {
+  return Rcpp::List::create(
+      Rcpp::Named("lambda") = r.lambda, Rcpp::Named("conf_low") = r.conf_low,
+      Rcpp::Named("conf_high") = r.conf_high, Rcpp::Named("convenient") = r.convenient,
+      Rcpp::Named("loglik") = r.loglik, Rcpp::Named("at_bound") = r.at_bound != 0,
+      Rcpp::Named("converged") = r.converged != 0, Rcpp::Named("n") = static_cast<double>(r.n),
+      Rcpp::Named("low_open") = r.low_open != 0, Rcpp::Named("high_open") = r.high_open != 0,
+      Rcpp::Named("rank") = static_cast<double>(r.rank),
+      Rcpp::Named("n_aliased") = static_cast<double>(r.n_aliased),
+      Rcpp::Named("grid") = Rcpp::NumericVector(grid.begin(), grid.end()),
+      Rcpp::Named("grid_loglik") = Rcpp::NumericVector(ll.begin(), ll.end()));
+}
 
 }  // namespace rpwb

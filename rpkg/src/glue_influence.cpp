@@ -9,17 +9,12 @@ Rcpp::List rpwb_lambda_influence(Rcpp::NumericVector y, Rcpp::NumericMatrix X, s
   const std::size_t n = static_cast<std::size_t>(y.size()), p = static_cast<std::size_t>(X.ncol());
   pwb_influence_options opt;
   pwb_influence_options_init(&opt);
-  pwb_family f;
-  rpwb::check(pwb_family_from_name(family.c_str(), &f));
-  opt.family = f;
+  opt.family = rpwb::family_of(family);
   opt.lower = lower;
   opt.upper = upper;
   opt.level = level;
   Rcpp::NumericVector w;
-  if (weights.isNotNull()) {
-    w = Rcpp::NumericVector(weights);
-    opt.weights = w.begin();
-  }
+  opt.weights = rpwb::weights_or_null(weights, y.size(), &w);
   pwb_influence_summary s;
   s.struct_size = sizeof s;
   Rcpp::NumericVector loo(n), h(n);

@@ -8,44 +8,6 @@
 
 namespace {
 
-pwb_family lambda_family(const std::string& name) {
-  pwb_family f;
-  rpwb::check(pwb_family_from_name(name.c_str(), &f));
-  return f;
-}
-
-pwb_lambda_options lambda_options(double lower, double upper, double level, const double* w) {
-  pwb_lambda_options o;
-  pwb_lambda_options_init(&o);
-  o.lower = lower;
-  o.upper = upper;
-  o.level = level;
-  o.weights = w;
-  return o;
-}
-
-const double* weights_of(const Rcpp::Nullable<Rcpp::NumericVector>& w, R_xlen_t n,
-                         Rcpp::NumericVector* keep) {
-  if (w.isNull()) return nullptr;
-  *keep = Rcpp::NumericVector(w.get());
-  if (keep->size() != n) Rcpp::stop("the weights and the response differ in length");
-  return keep->begin();
-}
-
-Rcpp::List lambda_list(const pwb_lambda_result& r, const std::vector<double>& grid,
-                       const std::vector<double>& ll) {
-  return Rcpp::List::create(
-      Rcpp::Named("lambda") = r.lambda, Rcpp::Named("conf_low") = r.conf_low,
-      Rcpp::Named("conf_high") = r.conf_high, Rcpp::Named("convenient") = r.convenient,
-      Rcpp::Named("loglik") = r.loglik, Rcpp::Named("at_bound") = r.at_bound != 0,
-      Rcpp::Named("converged") = r.converged != 0, Rcpp::Named("n") = static_cast<double>(r.n),
-      Rcpp::Named("low_open") = r.low_open != 0, Rcpp::Named("high_open") = r.high_open != 0,
-      Rcpp::Named("rank") = static_cast<double>(r.rank),
-      Rcpp::Named("n_aliased") = static_cast<double>(r.n_aliased),
-      Rcpp::Named("grid") = Rcpp::NumericVector(grid.begin(), grid.end()),
-      Rcpp::Named("grid_loglik") = Rcpp::NumericVector(ll.begin(), ll.end()));
-}
-
 // A failure: raised at once unless it names rows, which go back to R as data.
 Rcpp::List failure(pwb_status st) {
   const std::string message = pwb_last_error();
@@ -60,6 +22,22 @@ Rcpp::List failure(pwb_status st) {
       Rcpp::Named("rows") = Rcpp::NumericVector(rows, rows + listed));
 }
 
+// The result and the profile curve (at least 2 points) of one estimate.
+struct CurveEstimate {
+  explicit CurveEstimate(int n_grid)
+      : m(n_grid < 2 ? 2 : static_cast<std::size_t>(n_grid)), grid(m), ll(m) {
+    pwb_lambda_result_init(&r);
+  }
+  // The R list of the call that returned st: the estimate, or the failure's rows.
+  Rcpp::List list(pwb_status st) const {
+    if (st != PWB_OK) return failure(st);
+    return rpwb::lambda_result_list(r, grid, ll);
+  }
+  std::size_t m;
+  std::vector<double> grid, ll;
+  pwb_lambda_result r;
+};
+
 }  // namespace
 
 // [[Rcpp::export]]
@@ -67,16 +45,12 @@ Rcpp::List rpwb_estimate_lambda(Rcpp::NumericVector x, std::string family, doubl
                                 double upper, double level, int n_grid,
                                 Rcpp::Nullable<Rcpp::NumericVector> weights = R_NilValue) {
   Rcpp::NumericVector wk;
-  const pwb_lambda_options o = lambda_options(lower, upper, level, weights_of(weights, x.size(), &wk));
-  pwb_lambda_result r;
-  pwb_lambda_result_init(&r);
-  const std::size_t m = n_grid < 2 ? 2 : static_cast<std::size_t>(n_grid);
-  std::vector<double> grid(m), ll(m);
-  const pwb_status st = pwb_estimate_lambda_curve(x.begin(), static_cast<std::size_t>(x.size()),
-                                                  lambda_family(family), &o, &r, m, grid.data(),
-                                                  ll.data());
-  if (st != PWB_OK) return failure(st);
-  return lambda_list(r, grid, ll);
+  const pwb_lambda_options o =
+      rpwb::lambda_options(lower, upper, level, rpwb::weights_or_null(weights, x.size(), &wk));
+  CurveEstimate e(n_grid);
+  return e.list(pwb_estimate_lambda_curve(x.begin(), static_cast<std::size_t>(x.size()),
+                                          rpwb::family_of(family), &o, &e.r, e.m, e.grid.data(),
+                                          e.ll.data()));
 }
 
 // X: the model matrix; its first `skip` columns (0, or 1 for the intercept column R puts first)
@@ -90,18 +64,14 @@ Rcpp::List rpwb_estimate_response_lambda(Rcpp::NumericVector y, Rcpp::NumericMat
   if (X.nrow() != y.size()) Rcpp::stop("the model matrix and the response differ in rows");
   if (skip < 0 || skip > X.ncol()) Rcpp::stop("skip must lie between 0 and the number of columns");
   Rcpp::NumericVector wk;
-  const pwb_lambda_options o = lambda_options(lower, upper, level, weights_of(weights, y.size(), &wk));
-  pwb_lambda_result r;
-  pwb_lambda_result_init(&r);
-  const std::size_t m = n_grid < 2 ? 2 : static_cast<std::size_t>(n_grid);
-  std::vector<double> grid(m), ll(m);
+  const pwb_lambda_options o =
+      rpwb::lambda_options(lower, upper, level, rpwb::weights_or_null(weights, y.size(), &wk));
+  CurveEstimate e(n_grid);
   const std::size_t n = static_cast<std::size_t>(y.size());
   const std::size_t p = static_cast<std::size_t>(X.ncol() - skip);
-  const pwb_status st = pwb_estimate_response_lambda_curve(
+  return e.list(pwb_estimate_response_lambda_curve(
       y.begin(), p > 0 ? X.begin() + static_cast<std::size_t>(skip) * n : nullptr, n, p,
-      lambda_family(family), &o, &r, m, grid.data(), ll.data());
-  if (st != PWB_OK) return failure(st);
-  return lambda_list(r, grid, ll);
+      rpwb::family_of(family), &o, &e.r, e.m, e.grid.data(), e.ll.data()));
 }
 
 // Profile log-likelihood at chosen lambdas; X = NULL for the univariate profile.
@@ -113,9 +83,9 @@ Rcpp::NumericVector rpwb_lambda_profile(Rcpp::NumericVector y, Rcpp::Nullable<Rc
   const std::size_t n = static_cast<std::size_t>(y.size());
   const std::size_t m = static_cast<std::size_t>(grid.size());
   Rcpp::NumericVector wk;
-  const double* w = weights_of(weights, y.size(), &wk);
+  const double* w = rpwb::weights_or_null(weights, y.size(), &wk);
   if (X.isNull()) {
-    rpwb::check(pwb_lambda_profile_weighted(y.begin(), n, lambda_family(family), w, grid.begin(),
+    rpwb::check(pwb_lambda_profile_weighted(y.begin(), n, rpwb::family_of(family), w, grid.begin(),
                                             m, out.begin()));
   } else {
     Rcpp::NumericMatrix Xm(X.get());
@@ -123,7 +93,7 @@ Rcpp::NumericVector rpwb_lambda_profile(Rcpp::NumericVector y, Rcpp::Nullable<Rc
       Rcpp::stop("the model matrix and the response differ in rows");
     rpwb::check(pwb_response_lambda_profile_weighted(
         y.begin(), Xm.ncol() > 0 ? Xm.begin() : nullptr, n, static_cast<std::size_t>(Xm.ncol()),
-        lambda_family(family), w, grid.begin(), m, out.begin()));
+        rpwb::family_of(family), w, grid.begin(), m, out.begin()));
   }
   return out;
 }

@@ -5,21 +5,15 @@
 #include <string>
 #include <vector>
 
+#include "capi_test_support.hpp"
 #include "powerback.h"
 
 using Catch::Matchers::Contains;
 
 namespace {
-struct Handles {
-  pwb_transform* t = nullptr;
-  pwb_model* m = nullptr;
-  ~Handles() {
-    pwb_model_free(m);
-    pwb_transform_free(t);
-  }
-};
-const std::vector<double> kX = {1, 2, 3, 4, 5, 6, 7, 8, 9, 10};
-const std::vector<double> kY = {2.7, 3.1, 4.9, 5.2, 8.8, 9.1, 15.2, 14.8, 25.0, 27.5};
+using Handles = capitest::ModelHandles;
+using capitest::kX;
+using capitest::kY;
 }  // namespace
 
 TEST_CASE("a log model through the C ABI", "[capi][model]") {

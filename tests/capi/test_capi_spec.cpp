@@ -8,15 +8,13 @@
 #include <string>
 #include <vector>
 
+#include "capi_test_support.hpp"
 #include "powerback.h"
 
 using Catch::Matchers::Contains;
 
 namespace {
-struct Spec {
-  pwb_spec* s = nullptr;
-  ~Spec() { pwb_spec_free(s); }
-};
+using Spec = capitest::SpecHandle;
 struct Tr {
   pwb_transform* t = nullptr;
   ~Tr() { pwb_transform_free(t); }
@@ -33,13 +31,7 @@ pwb_transform* make(pwb_family f, double lambda, double shift, int reflect = 0, 
   REQUIRE(pwb_transform_new(&s, &t) == PWB_OK);
   return t;
 }
-std::string written(const pwb_spec* s) {
-  size_t need = 0;
-  REQUIRE(pwb_spec_write(s, nullptr, 0, &need) == PWB_OK);
-  std::vector<char> buf(need + 1);
-  REQUIRE(pwb_spec_write(s, buf.data(), buf.size(), nullptr) == PWB_OK);
-  return std::string(buf.data());
-}
+using capitest::written;
 }  // namespace
 
 TEST_CASE("a spec is built written read and applied through the ABI", "[capi][spec]") {

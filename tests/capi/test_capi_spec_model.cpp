@@ -8,23 +8,15 @@
 #include <string>
 #include <vector>
 
+#include "capi_test_support.hpp"
 #include "powerback.h"
 
 using Catch::Matchers::Contains;
 
 namespace {
-struct Spec {
-  pwb_spec* s = nullptr;
-  ~Spec() { pwb_spec_free(s); }
-};
+using Spec = capitest::SpecHandle;
 using pwbtest::same_bits;
-std::string written(const pwb_spec* s) {
-  size_t need = 0;
-  REQUIRE(pwb_spec_write(s, nullptr, 0, &need) == PWB_OK);
-  std::vector<char> buf(need + 1);
-  REQUIRE(pwb_spec_write(s, buf.data(), buf.size(), nullptr) == PWB_OK);
-  return std::string(buf.data());
-}
+using capitest::written;
 }  // namespace
 
 TEST_CASE("a model record round-trips through the ABI bit for bit", "[capi][spec][model]") {

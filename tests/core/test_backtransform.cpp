@@ -6,21 +6,13 @@
 
 #include "powerback/backtransform.hpp"
 #include "powerback/errors.hpp"
+#include "test_support.hpp"
 
 using namespace powerback;
 
 namespace {
 constexpr double kPi = 3.141592653589793238462643383279502884;
-Transform make(Family f, double lambda = math::kNaN, double shift = 0, bool reflect = false,
-               double pivot = math::kNaN) {
-  TransformSpec s;
-  s.family = f;
-  s.lambda = lambda;
-  s.shift = shift;
-  s.reflect = reflect;
-  s.pivot = pivot;
-  return Transform(s);
-}
+using pwbtest::make;
 double phi(double u) { return std::exp(-0.5 * u * u) / std::sqrt(2 * kPi); }
 double Phi(double u) { return 0.5 * std::erfc(-u / std::sqrt(2.0)); }
 }  // namespace

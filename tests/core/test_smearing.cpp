@@ -8,22 +8,14 @@
 
 #include "powerback/backtransform.hpp"
 #include "powerback/errors.hpp"
+#include "test_support.hpp"
 #include "powerback/smearing.hpp"
 
 using namespace powerback;
 
 namespace {
 
-Transform make(Family f, double lambda = math::kNaN, double shift = 0, bool reflect = false,
-               double pivot = math::kNaN) {
-  TransformSpec s;
-  s.family = f;
-  s.lambda = lambda;
-  s.shift = shift;
-  s.reflect = reflect;
-  s.pivot = pivot;
-  return Transform(s);
-}
+using pwbtest::make;
 
 std::vector<double> residuals(std::size_t n, double sd, unsigned seed, bool skewed = false) {
   std::mt19937 gen(seed);

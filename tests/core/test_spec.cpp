@@ -14,16 +14,7 @@
 using namespace powerback;
 
 namespace {
-Transform make(Family f, double lambda, double shift = 0.0, bool reflect = false,
-               double pivot = math::kNaN) {
-  TransformSpec s;
-  s.family = f;
-  s.lambda = lambda;
-  s.shift = shift;
-  s.reflect = reflect;
-  s.pivot = pivot;
-  return Transform(s);
-}
+using pwbtest::make;
 using pwbtest::same_bits;
 }  // namespace
 

@@ -3,20 +3,8 @@
 # then build and run tests/install/consumer.c against it twice: once through
 # find_package(powerback), once through pkg-config.
 #   cmake -DBUILD_DIR=... -DWORK_DIR=... -DSOURCE_DIR=... -DC_COMPILER=... -DSOVERSION=... -P run_install_test.cmake
-foreach(v BUILD_DIR WORK_DIR SOURCE_DIR C_COMPILER SOVERSION)
-  if(NOT DEFINED ${v})
-    message(FATAL_ERROR "run_install_test.cmake needs -D${v}=...")
-  endif()
-endforeach()
-
-function(run)
-  execute_process(COMMAND ${ARGN} RESULT_VARIABLE rc OUTPUT_VARIABLE out ERROR_VARIABLE err)
-  if(NOT rc EQUAL 0)
-    string(REPLACE ";" " " cmd "${ARGN}")
-    message(FATAL_ERROR "failed (${rc}): ${cmd}\n${out}\n${err}")
-  endif()
-  set(run_out "${out}" PARENT_SCOPE)
-endfunction()
+include("${CMAKE_CURRENT_LIST_DIR}/script_common.cmake")
+pwb_require_defined(run_install_test.cmake BUILD_DIR WORK_DIR SOURCE_DIR C_COMPILER SOVERSION)
 
 set(prefix "${WORK_DIR}/prefix")
 file(REMOVE_RECURSE "${WORK_DIR}")

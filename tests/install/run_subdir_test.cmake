@@ -2,20 +2,8 @@
 # includes powerback with add_subdirectory.
 #   cmake -DSOURCE_DIR=<powerback source> -DWORK_DIR=... -DC_COMPILER=... -DCXX_COMPILER=...
 #         [-DLAUNCHER=ccache] -P run_subdir_test.cmake
-foreach(v SOURCE_DIR WORK_DIR C_COMPILER CXX_COMPILER)
-  if(NOT DEFINED ${v})
-    message(FATAL_ERROR "run_subdir_test.cmake needs -D${v}=...")
-  endif()
-endforeach()
-
-function(run)
-  execute_process(COMMAND ${ARGN} RESULT_VARIABLE rc OUTPUT_VARIABLE out ERROR_VARIABLE err)
-  if(NOT rc EQUAL 0)
-    string(REPLACE ";" " " cmd "${ARGN}")
-    message(FATAL_ERROR "failed (${rc}): ${cmd}\n${out}\n${err}")
-  endif()
-  set(run_out "${out}" PARENT_SCOPE)
-endfunction()
+include("${CMAKE_CURRENT_LIST_DIR}/script_common.cmake")
+pwb_require_defined(run_subdir_test.cmake SOURCE_DIR WORK_DIR C_COMPILER CXX_COMPILER)
 
 file(REMOVE_RECURSE "${WORK_DIR}")
 set(launch "")

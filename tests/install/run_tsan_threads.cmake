@@ -2,19 +2,9 @@
 # WORK_DIR, build the C ABI tests there and run the thread tests under it. Any reported race
 # fails the test (TSAN_OPTIONS halt_on_error=1).
 #   cmake -DSOURCE_DIR=... -DWORK_DIR=... -P run_tsan_threads.cmake
-foreach(v SOURCE_DIR WORK_DIR)
-  if(NOT DEFINED ${v})
-    message(FATAL_ERROR "run_tsan_threads.cmake needs -D${v}=...")
-  endif()
-endforeach()
-function(run)
-  execute_process(COMMAND ${ARGN} RESULT_VARIABLE rc OUTPUT_VARIABLE out ERROR_VARIABLE err)
-  if(NOT rc EQUAL 0)
-    string(REPLACE ";" " " cmd "${ARGN}")
-    message(FATAL_ERROR "failed (${rc}): ${cmd}\n${out}\n${err}")
-  endif()
-  message(STATUS "${out}")
-endfunction()
+include("${CMAKE_CURRENT_LIST_DIR}/script_common.cmake")
+pwb_require_defined(run_tsan_threads.cmake SOURCE_DIR WORK_DIR)
+set(PWB_RUN_ECHO ON)
 run(${CMAKE_COMMAND} -S "${SOURCE_DIR}" -B "${WORK_DIR}" -DPWB_SANITIZE=thread -DPWB_TEST_TSAN=OFF
     -DCMAKE_BUILD_TYPE=RelWithDebInfo)
 run(${CMAKE_COMMAND} --build "${WORK_DIR}" --target pwb_capi_tests -j2)

@@ -76,14 +76,28 @@ class ByteReader {
 void check_weights(const double* w, std::size_t rows);
 void check_predictors(const double* X, std::size_t rows, std::size_t ld, std::size_t p);
 void check_lambda_response(const double* y, std::size_t rows, Family family);
+// Every summary's add(): the pointers and leading dimension, then the weights, then (lambda
+// summaries, family given) the response's domain, then the p predictor columns.
+void check_chunk(const double* y, const double* X, std::size_t rows, std::size_t ld, std::size_t p,
+                 const double* w, const Family* lambda_family = nullptr);
+
+// Merging a summary into itself doubles it: merges a copy instead when other is self. True when
+// it did (the caller's merge is then done).
+template <class T>
+bool merged_self(T& self, const T& other) {
+  if (&other != &self) return false;
+  const T copy(other);
+  self.merge(copy);
+  return true;
+}
 
 // r (c x c upper) := R of [r; block]; block is factored in place (its contents are destroyed).
 void stack_r(Eigen::MatrixXd& r, Eigen::MatrixXd& work, Eigen::Index rows);
 // R of [a; b] (both c x c upper).
 Eigen::MatrixXd merge_r(const Eigen::MatrixXd& a, const Eigen::MatrixXd& b);
 
-// Maximum and interval of the profile f over [opt.lower, opt.upper] (Brent's minimiser, then a
-// bracketing TOMS 748 root search per side), as lambda_search does for the one-pass profile.
+// Maximum and interval of the profile f over [opt.lower, opt.upper]: the maximiser and the interval
+// search shared with the in-memory path (lambda_maximise.hpp).
 LambdaEstimate search_profile(const std::function<double(double)>& f, const LambdaOptions& opt);
 void check_lambda_options(const LambdaOptions& opt);
 

@@ -131,3 +131,17 @@ test_that("a pwb_model uses its transformed predictors and its response family",
   my <- lm_transformed(y ~ x + g, d, response = "estimate", family = "yeo-johnson")
   expect_equal(lambda_influence(my)$family, "yeo-johnson")
 })
+
+test_that("a pwb_model with na.exclude is read from its stored design, rows named as in the data", {
+  # airquality (datasets package): 42 rows with a missing Ozone or Solar.R are left out
+  m <- lm_transformed(Ozone ~ Solar.R + Wind, airquality, response = "estimate",
+                      na.action = na.exclude)
+  a <- lambda_influence(m)
+  b <- lambda_influence(Ozone ~ Solar.R + Wind, airquality)
+  expect_identical(a$rows$row, b$rows$row)
+  expect_identical(a$rows$row[1:4], c(1L, 2L, 3L, 4L))
+  expect_false(5L %in% a$rows$row)  # row 5 has no Ozone
+  # same rows and design: equal to rounding (1e-10 leaves room for a different column order)
+  expect_equal(a$rows$lambda, b$rows$lambda, tolerance = 1e-10)
+  expect_equal(a$lambda, b$lambda, tolerance = 1e-10)
+})
