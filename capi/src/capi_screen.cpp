@@ -21,6 +21,63 @@ void spec_to_c(const TransformSpec& s, pwb_transform_spec* out) {
 
 void identity_spec(pwb_transform_spec* out) { spec_to_c(TransformSpec{}, out); }
 
+// The whole screen of x into *out (checked by the caller); returns the note's full text.
+std::string screen_into(const double* x, size_t n, const pwb_screen_options* opt,
+                        pwb_screen_result* out) {
+  ScreenOptions o;
+  if (opt) {
+    capi::need_struct(opt->struct_size, sizeof(pwb_screen_options), "pwb_screen_options");
+    o.level = opt->level;
+    o.lower = opt->lower;
+    o.upper = opt->upper;
+  }
+  const VariableScreen s = screen_variable(x, n, o);
+  const size_t keep = out->struct_size;
+  pwb_screen_result_init(out);
+  out->struct_size = keep;
+  out->n = s.n;
+  out->usable = s.usable ? 1 : 0;
+  out->mean = s.moments.mean;
+  out->sd = s.moments.sd;
+  out->skewness = s.moments.skewness;
+  out->skewness_se = s.moments.skewness_se;
+  out->skewness_z = s.moments.skewness_z;
+  out->kurtosis = s.moments.kurtosis;
+  out->kurtosis_se = s.moments.kurtosis_se;
+  out->kurtosis_z = s.moments.kurtosis_z;
+  // The fixed field keeps a copy cut to its size; the full text goes through the _with_note form.
+  std::strncpy(out->note, s.note.c_str(), sizeof out->note - 1);
+  out->note[sizeof out->note - 1] = '\0';
+  if (!s.usable) return s.note;
+  out->sw_w = s.sw.w;
+  out->sw_p = s.sw.p_value;
+  out->sw_note = normality_skip_text(s.sw.skip);
+  spec_to_c(s.ladder.spec, &out->ladder);
+  out->ladder_step = static_cast<pwb_ladder_step>(s.ladder.step);
+  out->ladder_by_size = s.ladder.by_size ? 1 : 0;
+  out->ladder_skewness = s.after_ladder.skewness;
+  out->ladder_sw_w = s.after_ladder.sw.w;
+  out->ladder_sw_p = s.after_ladder.sw.p_value;
+  out->ladder_sw_note = normality_skip_text(s.after_ladder.sw.skip);
+  out->ml_done = s.ml_done ? 1 : 0;
+  if (!s.ml_done) return s.note;
+  spec_to_c(s.ml_spec, &out->ml);
+  out->ml_lambda = s.ml.lambda;
+  out->ml_conf_low = s.ml.conf_low;
+  out->ml_conf_high = s.ml.conf_high;
+  out->ml_convenient = s.ml.convenient;
+  out->ml_loglik = s.ml.loglik;
+  out->ml_at_bound = s.ml.at_bound ? 1 : 0;
+  out->ml_converged = s.ml.converged ? 1 : 0;
+  out->ml_low_open = s.ml.low_open ? 1 : 0;
+  out->ml_high_open = s.ml.high_open ? 1 : 0;
+  out->ml_skewness = s.after_ml.skewness;
+  out->ml_sw_w = s.after_ml.sw.w;
+  out->ml_sw_p = s.after_ml.sw.p_value;
+  out->ml_sw_note = normality_skip_text(s.after_ml.sw.skip);
+  return s.note;
+}
+
 }  // namespace
 
 extern "C" {
@@ -86,56 +143,17 @@ pwb_status pwb_screen_variable(const double* x, size_t n, const pwb_screen_optio
   return capi::guarded([&] {
     capi::need_sized(out, "out", "pwb_screen_result");
     capi::need_array(x, n, "x");
-    ScreenOptions o;
-    if (opt) {
-      capi::need_struct(opt->struct_size, sizeof(pwb_screen_options), "pwb_screen_options");
-      o.level = opt->level;
-      o.lower = opt->lower;
-      o.upper = opt->upper;
-    }
-    const VariableScreen s = screen_variable(x, n, o);
-    const size_t keep = out->struct_size;
-    pwb_screen_result_init(out);
-    out->struct_size = keep;
-    out->n = s.n;
-    out->usable = s.usable ? 1 : 0;
-    out->mean = s.moments.mean;
-    out->sd = s.moments.sd;
-    out->skewness = s.moments.skewness;
-    out->skewness_se = s.moments.skewness_se;
-    out->skewness_z = s.moments.skewness_z;
-    out->kurtosis = s.moments.kurtosis;
-    out->kurtosis_se = s.moments.kurtosis_se;
-    out->kurtosis_z = s.moments.kurtosis_z;
-    std::strncpy(out->note, s.note.c_str(), sizeof out->note - 1);
-    out->note[sizeof out->note - 1] = '\0';
-    if (!s.usable) return;
-    out->sw_w = s.sw.w;
-    out->sw_p = s.sw.p_value;
-    out->sw_note = normality_skip_text(s.sw.skip);
-    spec_to_c(s.ladder.spec, &out->ladder);
-    out->ladder_step = static_cast<pwb_ladder_step>(s.ladder.step);
-    out->ladder_by_size = s.ladder.by_size ? 1 : 0;
-    out->ladder_skewness = s.after_ladder.skewness;
-    out->ladder_sw_w = s.after_ladder.sw.w;
-    out->ladder_sw_p = s.after_ladder.sw.p_value;
-    out->ladder_sw_note = normality_skip_text(s.after_ladder.sw.skip);
-    out->ml_done = s.ml_done ? 1 : 0;
-    if (!s.ml_done) return;
-    spec_to_c(s.ml_spec, &out->ml);
-    out->ml_lambda = s.ml.lambda;
-    out->ml_conf_low = s.ml.conf_low;
-    out->ml_conf_high = s.ml.conf_high;
-    out->ml_convenient = s.ml.convenient;
-    out->ml_loglik = s.ml.loglik;
-    out->ml_at_bound = s.ml.at_bound ? 1 : 0;
-    out->ml_converged = s.ml.converged ? 1 : 0;
-    out->ml_low_open = s.ml.low_open ? 1 : 0;
-    out->ml_high_open = s.ml.high_open ? 1 : 0;
-    out->ml_skewness = s.after_ml.skewness;
-    out->ml_sw_w = s.after_ml.sw.w;
-    out->ml_sw_p = s.after_ml.sw.p_value;
-    out->ml_sw_note = normality_skip_text(s.after_ml.sw.skip);
+    screen_into(x, n, opt, out);
+  });
+}
+
+pwb_status pwb_screen_variable_with_note(const double* x, size_t n, const pwb_screen_options* opt,
+                                         pwb_screen_result* out, char* buf, size_t cap,
+                                         size_t* needed) {
+  return capi::guarded([&] {
+    capi::need_sized(out, "out", "pwb_screen_result");
+    capi::need_array(x, n, "x");
+    capi::copy_text(screen_into(x, n, opt, out), buf, cap, needed);
   });
 }
 

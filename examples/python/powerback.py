@@ -1,7 +1,7 @@
 """powerback from Python: a ctypes binding to the C library libpowerback (no compiled extension).
 
     import powerback
-    lib = powerback.load("/usr/local/lib/libpowerback.so.0")   # or set POWERBACK_LIBRARY
+    lib = powerback.load("/usr/local/lib/libpowerback.so.0.2")   # or set POWERBACK_LIBRARY
     spec = lib.read_spec("transforms.pwbspec")                  # written by R's write_transforms()
     z = spec["income"].apply(numpy.array([1.0, 2.0]))
 
