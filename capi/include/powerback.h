@@ -886,7 +886,7 @@ PWB_API pwb_status pwb_box_tidwell_fit(const double *y, const double *Z, size_t 
                                        pwb_box_tidwell_result *out);
 
 /* Deprecated since 0.2 (kept working for callers of 0.1; use pwb_box_tidwell_fit, whose options
- * and result structs replace this function's 14 parameters): the same run with the
+ * and result structs replace this function's 13 parameters): the same run with the
  * outputs as separate arguments. alpha and se are required (m values each); score_t, score_p
  * and history may be NULL (history: m * (max_iter + 1) values, max_iter 50 when opt is NULL).
  * out needs only the 0.1 fields (its buffer fields are not read). Errors as pwb_box_tidwell_fit.

@@ -101,8 +101,8 @@ class Library:
             raise OSError("libpowerback not found: pass its path or set POWERBACK_LIBRARY")
         self._c = ctypes.CDLL(path)
         self._declare()
-        if self.version_number() // 100 != 1:  # this module speaks ABI 0.1
-            raise OSError("libpowerback %s is not the 0.1 series this module was written for"
+        if self.version_number() // 100 != 2:  # this module speaks ABI 0.2 (libpowerback.so.0.2)
+            raise OSError("libpowerback %s is not the 0.2 series this module was written for"
                           % self.version_string())
 
     def _declare(self):

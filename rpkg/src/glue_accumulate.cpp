@@ -82,7 +82,7 @@ Rcpp::RawVector rpwb_lambda_summary_bytes(Rcpp::NumericVector y, Rcpp::NumericMa
   pwb_family f;
   rpwb::check(pwb_family_from_name(family.c_str(), &f));
   LambdaS s;
-  rpwb::check(pwb_lambda_summary_new(f, static_cast<size_t>(X.ncol()), &s.h));
+  rpwb::check(pwb_lambda_summary_create(static_cast<size_t>(X.ncol()), f, &s.h));
   Rcpp::NumericVector wk;
   const std::size_t n = static_cast<std::size_t>(y.size());
   rpwb::check(pwb_lambda_summary_add(s.h, y.begin(), x_ptr(X, y), n, n, weights_ptr(weights, n, &wk)));

@@ -1,4 +1,5 @@
-// Rcpp glue for the leave-one-out response lambda: a thin wrapper over pwb_lambda_influence; the
+// Rcpp glue for the leave-one-out response lambda: a thin wrapper over
+// pwb_estimate_response_lambda_loo; the
 // R caller validates, builds the model frame and names rows.
 #include "glue_common.h"
 
@@ -11,7 +12,6 @@ Rcpp::List rpwb_lambda_influence(Rcpp::NumericVector y, Rcpp::NumericMatrix X, s
   pwb_influence_options_init(&opt);
   pwb_family f;
   rpwb::check(pwb_family_from_name(family.c_str(), &f));
-  opt.family = f;
   opt.lower = lower;
   opt.upper = upper;
   opt.level = level;
@@ -24,8 +24,9 @@ Rcpp::List rpwb_lambda_influence(Rcpp::NumericVector y, Rcpp::NumericMatrix X, s
   s.struct_size = sizeof s;
   Rcpp::NumericVector loo(n), h(n);
   Rcpp::IntegerVector out(n), bound(n);
-  rpwb::check(pwb_lambda_influence(y.begin(), p > 0 ? X.begin() : nullptr, n, p, &opt, &s,
-                                   loo.begin(), h.begin(), out.begin(), bound.begin()));
+  rpwb::check(pwb_estimate_response_lambda_loo(y.begin(), p > 0 ? X.begin() : nullptr, n, p, f,
+                                               &opt, &s, loo.begin(), h.begin(), out.begin(),
+                                               bound.begin()));
   return Rcpp::List::create(
       Rcpp::Named("lambda") = s.lambda,
       Rcpp::Named("conf_int") = Rcpp::NumericVector::create(s.conf_low, s.conf_high),
