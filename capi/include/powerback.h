@@ -40,16 +40,17 @@
  * the summaries write all or nothing (a cap below the size is PWB_ERR_ARGUMENT), since a cut
  * summary is of no use.
  *
- * Parameter order. Inputs first (each data array followed by its sizes: x, n or y, X, n, p),
- * then the family where it is a parameter, then the options struct (NULL for the defaults),
- * then the outputs (a result struct, then caller-owned arrays and their sizes). The family is a
+ * Parameter order. The handle or the data first (each data array followed by its sizes: x, n
+ * or y, X, n, p), then the family where it is a parameter, then the settings of the call (an
+ * options struct, NULL for the defaults, or the weights and grid of a profile), then the
+ * outputs (a result struct, then caller-owned arrays and their sizes). The family is a
  * parameter of the functions that estimate the power of one family from data: the estimators
  * fixed by the contract (pwb_estimate_lambda, pwb_estimate_response_lambda) and their profile,
  * curve, leave-one-out (pwb_estimate_response_lambda_loo) and summary
- * (pwb_lambda_summary_create) relatives. Everywhere else it is a field: of pwb_transform_spec for
- * a transform, of an options struct for a procedure that reads it among other settings. Two
- * older entry points that break the rule stay, deprecated: pwb_lambda_influence (family in its
- * options) and pwb_lambda_summary_new (family before the size).
+ * (pwb_lambda_summary_create) relatives. Everywhere else the family travels as a field of a
+ * pwb_transform_spec (or inside a transform handle made from one). Two older entry points that
+ * break the rule stay, deprecated: pwb_lambda_influence (family in its options struct) and
+ * pwb_lambda_summary_new (family before the size).
  *
  * Stability. Stable (kept source- and binary-compatible within a major version; structs grow
  * only at their end under the struct_size rule): the version, status and error functions, the
@@ -245,9 +246,9 @@ PWB_API pwb_status pwb_transform_log_derivative(const pwb_transform *t, const do
  * v = x + shift"); 1, what it needs of the values it inverts; 2, the usual remedy for input
  * outside the domain; 3, the transform itself ("box-cox(lambda = 0.5) of (x + 1)"); 4, the
  * remedy for values outside the range (for Box-Cox with lambda < 0 it explains that a value at
- * the limit -1/lambda means the precision of the original values is exhausted). Writes at most cap bytes including the terminating NUL into buf (buf may be NULL when
- * cap is 0) and stores the full length (without NUL) in *needed when needed is not NULL, like
- * snprintf. Errors: PWB_ERR_ARGUMENT for a NULL t or a which other than 0 to 4. */
+ * the limit -1/lambda means the precision of the original values is exhausted). The text is
+ * copied into buf by the text rule at the top of this header. Errors: PWB_ERR_ARGUMENT for a
+ * NULL t, a which other than 0 to 4, or a NULL buf with cap > 0. */
 PWB_API pwb_status pwb_transform_describe(const pwb_transform *t, int which, char *buf, size_t cap,
                                           size_t *needed);
 
@@ -708,11 +709,11 @@ PWB_API pwb_status pwb_model_predict_se(const pwb_model *m, const double *Xnew, 
                                         size_t p, double *se);
 
 /* The residual checks of m (see pwb_model_residual_checks) and their Shapiro-Wilk note, computed
- * once: *out as pwb_model_residual_checks fills it, the note written like snprintf into buf (cap
- * bytes with the NUL; buf may be NULL when cap is 0) with its full length in *needed when not
- * NULL. A weighted model is checked through its weighted regression: the residuals sqrt(w) e and
- * the design sqrt(w) [1 X] over the rows of positive weight. Errors: PWB_ERR_ARGUMENT for a NULL
- * m or out or a struct_size too small. Thread-safe for one m. */
+ * once: *out as pwb_model_residual_checks fills it, the note copied into buf by the text rule
+ * at the top of this header. A weighted model is checked through its weighted regression: the
+ * residuals sqrt(w) e and the design sqrt(w) [1 X] over the rows of positive weight. Errors:
+ * PWB_ERR_ARGUMENT for a NULL m or out, a struct_size too small, or a NULL buf with cap > 0.
+ * Thread-safe for one m. */
 struct pwb_residual_checks;
 PWB_API pwb_status pwb_model_residual_checks_with_note(const pwb_model *m,
                                                        struct pwb_residual_checks *out,
@@ -805,8 +806,8 @@ PWB_API void pwb_residual_checks_init(pwb_residual_checks *out);
 PWB_API pwb_status pwb_model_residual_checks(const pwb_model *m, pwb_residual_checks *out);
 
 /* Why Shapiro-Wilk was not computed (or a caveat about it), "" when there is nothing to say;
- * written like snprintf into buf (cap bytes with the NUL; buf may be NULL when cap is 0), full
- * length in *needed when not NULL. Errors: PWB_ERR_ARGUMENT for a NULL m. */
+ * copied into buf by the text rule at the top of this header. Errors: PWB_ERR_ARGUMENT for a
+ * NULL m or a NULL buf with cap > 0. */
 PWB_API pwb_status pwb_model_residual_checks_note(const pwb_model *m, char *buf, size_t cap,
                                                   size_t *needed);
 
@@ -896,10 +897,12 @@ PWB_API pwb_status pwb_box_tidwell(const double *y, const double *Z, size_t n, s
                                    double *alpha, double *se, double *score_t, double *score_p,
                                    double *history, pwb_box_tidwell_result *out);
 
-/* Options of pwb_lambda_influence. */
+/* Options of pwb_estimate_response_lambda_loo (and the deprecated pwb_lambda_influence). */
 typedef struct pwb_influence_options {
   size_t struct_size; /* sizeof(pwb_influence_options) */
-  pwb_family family;  /* PWB_BOX_COX (default) or PWB_YEO_JOHNSON */
+  pwb_family family;  /* PWB_BOX_COX (default) or PWB_YEO_JOHNSON; read only by the deprecated
+                         pwb_lambda_influence (pwb_estimate_response_lambda_loo takes it as
+                         a parameter) */
   double lower, upper; /* lambda search range; default -3, 3 */
   double level;       /* level of the full-data likelihood-ratio interval; default 0.95 */
   /* Appended in 0.2; a smaller struct_size leaves it NULL. */
@@ -1089,10 +1092,9 @@ PWB_API pwb_status pwb_spec_add_transform(pwb_spec *s, const char *name, const p
 /* Stores the number of transforms in *count. Errors: PWB_ERR_ARGUMENT for NULL arguments. */
 PWB_API pwb_status pwb_spec_count(const pwb_spec *s, size_t *count);
 
-/* The name of transform i (0-based, in the order of the text), copied like snprintf: at most cap
- * bytes including the terminating NUL go to buf (which may be NULL when cap is 0), and the full
- * length without NUL is stored in *needed when needed is not NULL. Names may hold any UTF-8
- * text, including spaces and quotes. Errors: PWB_ERR_ARGUMENT for a NULL s or i >= count. */
+/* The name of transform i (0-based, in the order of the text), copied into buf by the text rule
+ * at the top of this header. Names may hold any UTF-8 text, including spaces and quotes.
+ * Errors: PWB_ERR_ARGUMENT for a NULL s, i >= count, or a NULL buf with cap > 0. */
 PWB_API pwb_status pwb_spec_name(const pwb_spec *s, size_t i, char *buf, size_t cap,
                                  size_t *needed);
 
@@ -1163,9 +1165,9 @@ PWB_API pwb_status pwb_spec_has_model(const pwb_spec *s, int *has);
 PWB_API pwb_status pwb_spec_model_info(const pwb_spec *s, size_t *ncoef, double *sigma,
                                        size_t *df);
 
-/* The model's response name, copied like pwb_spec_name (snprintf-like into buf of cap bytes; the
- * full length in *needed when needed is not NULL). Errors: PWB_ERR_ARGUMENT for a NULL s or a
- * spec without a model record. */
+/* The model's response name, copied into buf by the text rule at the top of this header.
+ * Errors: PWB_ERR_ARGUMENT for a NULL s, a spec without a model record, or a NULL buf with
+ * cap > 0. */
 PWB_API pwb_status pwb_spec_model_response(const pwb_spec *s, char *buf, size_t cap,
                                            size_t *needed);
 
