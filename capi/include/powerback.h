@@ -56,13 +56,13 @@
  * lambda estimators with their profiles and curves, the screen, the model (fit, getters,
  * predict, covariance, residual checks) and the text spec. From 0.2 on their signatures and
  * meanings change only through a new function, the old one kept working as deprecated until the
- * next major version; their structs grow only at the end under the struct_size rule. Provisional (may
- * change in any minor version while the major version is 0): the summaries of chunked data
- * (pwb_lambda_summary_*, pwb_lambda_pass_*, pwb_fit_summary_*, pwb_fit_checks_*), the effects
- * (pwb_model_effect_*), Box-Tidwell and leave-one-out influence, the cross-validation helpers
- * and their fast paths (pwb_cv_*, pwb_holdout_*), and the newest additions in every section:
- * functions for many responses at once and mean intervals in predictions. Any change of either
- * kind moves PWB_VERSION_MINOR (and, before 1.0, the SONAME).
+ * next major version; their structs grow only at the end under the struct_size rule.
+ * Provisional (may change in any minor version while the major version is 0): the summaries of
+ * chunked data (pwb_lambda_summary_*, pwb_lambda_pass_*, pwb_fit_summary_*, pwb_fit_checks_*),
+ * the effects (pwb_model_effect_*), Box-Tidwell and leave-one-out influence, the
+ * cross-validation helpers and their fast paths (pwb_cv_*, pwb_holdout_*), and the newest
+ * additions in every section: functions for many responses at once and mean intervals in
+ * predictions. Any change of either kind moves PWB_VERSION_MINOR (and, before 1.0, the SONAME).
  */
 #ifndef POWERBACK_H
 #define POWERBACK_H
