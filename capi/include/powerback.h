@@ -22,6 +22,47 @@
  *   - Thread safety: distinct handles may be used from distinct threads at once. One handle may
  *     be read (apply, invert, get_spec) from several threads at once; it is never modified after
  *     creation. pwb_last_error() is per thread.
+ *
+ * Text. Every function that hands back text it composes (descriptions, notes, names, spec text)
+ * takes `char *buf, size_t cap, size_t *needed` and copies like snprintf:
+ *   - *needed (when needed is not NULL) receives the full length in bytes, without the NUL;
+ *   - at most cap bytes, the NUL included, are written to buf, so the text is cut at cap - 1
+ *     bytes and is always NUL-terminated when cap > 0;
+ *   - buf = NULL with cap = 0 asks only the length (call again with cap >= *needed + 1); a NULL
+ *     buf with cap > 0 is PWB_ERR_ARGUMENT.
+ * Truncation is not an error: the text is complete exactly when *needed < cap. The deliberate
+ * exceptions return `const char *` to text the library owns, never NULL and never freed: the
+ * constant names and notes (pwb_version_string, pwb_status_name, pwb_family_name and the
+ * `const char *` note fields of the normality and screen results, all static), and
+ * pwb_last_error (per thread, valid until the thread's next powerback call). One legacy field,
+ * pwb_screen_result.note, is a fixed char[256] (a copy cut to fit); pwb_screen_variable_with_note
+ * gives the whole note by the rule above. Byte buffers are not text: the serialize functions of
+ * the summaries write all or nothing (a cap below the size is PWB_ERR_ARGUMENT), since a cut
+ * summary is of no use.
+ *
+ * Parameter order. The handle or the data first (each data array followed by its sizes: x, n
+ * or y, X, n, p), then the family where it is a parameter, then the settings of the call (an
+ * options struct, NULL for the defaults, or the weights and grid of a profile), then the
+ * outputs (a result struct, then caller-owned arrays and their sizes). The family is a
+ * parameter of the functions that estimate the power of one family from data: the estimators
+ * fixed by the contract (pwb_estimate_lambda, pwb_estimate_response_lambda) and their profile,
+ * curve, leave-one-out (pwb_estimate_response_lambda_loo) and summary
+ * (pwb_lambda_summary_create) relatives. Everywhere else the family travels as a field of a
+ * pwb_transform_spec (or inside a transform handle made from one). Two older entry points that
+ * break the rule stay, deprecated: pwb_lambda_influence (family in its options struct) and
+ * pwb_lambda_summary_new (family before the size).
+ *
+ * Stability. Stable: the version, status and error functions, the families, transforms, the
+ * lambda estimators with their profiles and curves, the screen, the model (fit, getters,
+ * predict, covariance, residual checks) and the text spec. From 0.2 on their signatures and
+ * meanings change only through a new function, the old one kept working as deprecated until the
+ * next major version; their structs grow only at the end under the struct_size rule.
+ * Provisional (may change in any minor version while the major version is 0): the summaries of
+ * chunked data (pwb_lambda_summary_*, pwb_lambda_pass_*, pwb_fit_summary_*, pwb_fit_checks_*),
+ * the effects (pwb_model_effect_*), Box-Tidwell and leave-one-out influence, the
+ * cross-validation helpers and their fast paths (pwb_cv_*, pwb_holdout_*), and the newest
+ * additions in every section: functions for many responses at once and mean intervals in
+ * predictions. Any change of either kind moves PWB_VERSION_MINOR (and, before 1.0, the SONAME).
  */
 #ifndef POWERBACK_H
 #define POWERBACK_H
@@ -32,7 +73,20 @@
 extern "C" {
 #endif
 
-#if defined(PWB_BUILDING_LIBRARY) && (defined(__GNUC__) || defined(__clang__))
+/* PWB_API marks the exported functions. The library's own build defines PWB_BUILDING; a program
+ * that links a static build of the library defines PWB_STATIC (the CMake target does both as
+ * needed). On Windows it is __declspec(dllexport) when building the DLL and
+ * __declspec(dllimport) when using it; elsewhere the default visibility, so that a build with
+ * hidden visibility exports exactly these functions. */
+#if defined(_WIN32) || defined(__CYGWIN__)
+#if defined(PWB_STATIC)
+#define PWB_API
+#elif defined(PWB_BUILDING)
+#define PWB_API __declspec(dllexport)
+#else
+#define PWB_API __declspec(dllimport)
+#endif
+#elif defined(PWB_BUILDING) && (defined(__GNUC__) || defined(__clang__))
 #define PWB_API __attribute__((visibility("default")))
 #else
 #define PWB_API
@@ -43,9 +97,11 @@ extern "C" {
 /* ------------------------------------------------------------------------------------------ */
 
 #define PWB_VERSION_MAJOR 0
-#define PWB_VERSION_MINOR 1
+#define PWB_VERSION_MINOR 2
 #define PWB_VERSION_PATCH 0
-/* MAJOR * 10000 + MINOR * 100 + PATCH, e.g. 100 for 0.1.0. */
+/* MAJOR * 10000 + MINOR * 100 + PATCH, e.g. 200 for 0.2.0. While MAJOR is 0 a new MINOR may
+ * change the binary interface, so the shared library's SONAME carries both (libpowerback.so.0.2);
+ * from 1.0 on it carries MAJOR only. */
 #define PWB_VERSION_NUMBER (PWB_VERSION_MAJOR * 10000 + PWB_VERSION_MINOR * 100 + PWB_VERSION_PATCH)
 
 /* The library's version as PWB_VERSION_NUMBER computes it; compare with the macro to detect a
@@ -190,9 +246,9 @@ PWB_API pwb_status pwb_transform_log_derivative(const pwb_transform *t, const do
  * v = x + shift"); 1, what it needs of the values it inverts; 2, the usual remedy for input
  * outside the domain; 3, the transform itself ("box-cox(lambda = 0.5) of (x + 1)"); 4, the
  * remedy for values outside the range (for Box-Cox with lambda < 0 it explains that a value at
- * the limit -1/lambda means the precision of the original values is exhausted). Writes at most cap bytes including the terminating NUL into buf (buf may be NULL when
- * cap is 0) and stores the full length (without NUL) in *needed when needed is not NULL, like
- * snprintf. Errors: PWB_ERR_ARGUMENT for a NULL t or a which other than 0 to 4. */
+ * the limit -1/lambda means the precision of the original values is exhausted). The text is
+ * copied into buf by the text rule at the top of this header. Errors: PWB_ERR_ARGUMENT for a
+ * NULL t, a which other than 0 to 4, or a NULL buf with cap > 0. */
 PWB_API pwb_status pwb_transform_describe(const pwb_transform *t, int which, char *buf, size_t cap,
                                           size_t *needed);
 
@@ -364,7 +420,7 @@ PWB_API pwb_status pwb_estimate_response_lambdas(const double *Y, size_t n, size
                                                  size_t n_grid, double *grid_out,
                                                  double *loglik_out);
 
-/* @@PWB_SECTION_ESTIMATION@@ (declarations of this section go above this line) */
+/* End of section: estimating lambda (add new declarations above). */
 
 
 
@@ -481,7 +537,8 @@ typedef struct pwb_screen_result {
   int ml_at_bound, ml_converged, ml_low_open, ml_high_open;
   double ml_skewness, ml_sw_w, ml_sw_p;
   const char *ml_sw_note;
-  char note[256];                /* why not usable, or why ml_done is 0; "" otherwise */
+  char note[256];                /* why not usable, or why ml_done is 0; "" otherwise. Cut to
+                                    255 bytes: pwb_screen_variable_with_note gives it whole */
 } pwb_screen_result;
 
 /* Sets struct_size (and the nested specs' struct_size), usable = 0 and NaN figures. */
@@ -496,7 +553,15 @@ PWB_API void pwb_screen_result_init(pwb_screen_result *out);
 PWB_API pwb_status pwb_screen_variable(const double *x, size_t n, const pwb_screen_options *opt,
                                        pwb_screen_result *out);
 
-/* @@PWB_SECTION_SCREEN@@ (declarations of this section go above this line) */
+/* As pwb_screen_variable, and the whole note (out->note holds at most 255 bytes of it) copied
+ * into buf by the text rule at the top of this header. Errors as pwb_screen_variable, and
+ * PWB_ERR_ARGUMENT for a NULL buf with cap > 0. Thread-safe. */
+PWB_API pwb_status pwb_screen_variable_with_note(const double *x, size_t n,
+                                                 const pwb_screen_options *opt,
+                                                 pwb_screen_result *out, char *buf, size_t cap,
+                                                 size_t *needed);
+
+/* End of section: screening variables (add new declarations above). */
 
 
 
@@ -677,11 +742,11 @@ PWB_API pwb_status pwb_model_predict_se(const pwb_model *m, const double *Xnew, 
                                         size_t p, double *se);
 
 /* The residual checks of m (see pwb_model_residual_checks) and their Shapiro-Wilk note, computed
- * once: *out as pwb_model_residual_checks fills it, the note written like snprintf into buf (cap
- * bytes with the NUL; buf may be NULL when cap is 0) with its full length in *needed when not
- * NULL. A weighted model is checked through its weighted regression: the residuals sqrt(w) e and
- * the design sqrt(w) [1 X] over the rows of positive weight. Errors: PWB_ERR_ARGUMENT for a NULL
- * m or out or a struct_size too small. Thread-safe for one m. */
+ * once: *out as pwb_model_residual_checks fills it, the note copied into buf by the text rule
+ * at the top of this header. A weighted model is checked through its weighted regression: the
+ * residuals sqrt(w) e and the design sqrt(w) [1 X] over the rows of positive weight. Errors:
+ * PWB_ERR_ARGUMENT for a NULL m or out, a struct_size too small, or a NULL buf with cap > 0.
+ * Thread-safe for one m. */
 struct pwb_residual_checks;
 PWB_API pwb_status pwb_model_residual_checks_with_note(const pwb_model *m,
                                                        struct pwb_residual_checks *out,
@@ -746,7 +811,7 @@ PWB_API pwb_status pwb_model_predict_mean_interval(const pwb_model *m, const dou
                                                    double *fit, double *se, double *lwr,
                                                    double *upr, unsigned *flags, size_t outputs);
 
-/* @@PWB_SECTION_MODEL@@ (declarations of this section go above this line) */
+/* End of section: models on the transformed scale (add new declarations above). */
 
 /* ------------------------------------------------------------------------------------------ */
 /* Effects in original units                                                                  */
@@ -798,7 +863,7 @@ PWB_API pwb_status pwb_model_effect_median_change(const pwb_model *m, const doub
                                                   const double *x1, size_t columns, double level,
                                                   pwb_effect *out);
 
-/* @@PWB_SECTION_EFFECTS@@ (declarations of this section go above this line) */
+/* End of section: effects in original units (add new declarations above). */
 
 
 
@@ -833,12 +898,12 @@ PWB_API void pwb_residual_checks_init(pwb_residual_checks *out);
 PWB_API pwb_status pwb_model_residual_checks(const pwb_model *m, pwb_residual_checks *out);
 
 /* Why Shapiro-Wilk was not computed (or a caveat about it), "" when there is nothing to say;
- * written like snprintf into buf (cap bytes with the NUL; buf may be NULL when cap is 0), full
- * length in *needed when not NULL. Errors: PWB_ERR_ARGUMENT for a NULL m. */
+ * copied into buf by the text rule at the top of this header. Errors: PWB_ERR_ARGUMENT for a
+ * NULL m or a NULL buf with cap > 0. */
 PWB_API pwb_status pwb_model_residual_checks_note(const pwb_model *m, char *buf, size_t cap,
                                                   size_t *needed);
 
-/* @@PWB_SECTION_DIAGNOSTICS@@ (declarations of this section go above this line) */
+/* End of section: residual diagnostics (add new declarations above). */
 
 
 
@@ -913,7 +978,8 @@ PWB_API pwb_status pwb_box_tidwell_fit(const double *y, const double *Z, size_t 
                                        const pwb_box_tidwell_options *opt,
                                        pwb_box_tidwell_result *out);
 
-/* Deprecated (kept for callers of 0.1; prefer pwb_box_tidwell_fit): the same run with the
+/* Deprecated since 0.2 (kept working for callers of 0.1; use pwb_box_tidwell_fit, whose options
+ * and result structs replace this function's 13 parameters): the same run with the
  * outputs as separate arguments. alpha and se are required (m values each); score_t, score_p
  * and history may be NULL (history: m * (max_iter + 1) values, max_iter 50 when opt is NULL).
  * out needs only the 0.1 fields (its buffer fields are not read). Errors as pwb_box_tidwell_fit.
@@ -923,10 +989,12 @@ PWB_API pwb_status pwb_box_tidwell(const double *y, const double *Z, size_t n, s
                                    double *alpha, double *se, double *score_t, double *score_p,
                                    double *history, pwb_box_tidwell_result *out);
 
-/* Options of pwb_lambda_influence. */
+/* Options of pwb_estimate_response_lambda_loo (and the deprecated pwb_lambda_influence). */
 typedef struct pwb_influence_options {
   size_t struct_size; /* sizeof(pwb_influence_options) */
-  pwb_family family;  /* PWB_BOX_COX (default) or PWB_YEO_JOHNSON */
+  pwb_family family;  /* PWB_BOX_COX (default) or PWB_YEO_JOHNSON; read only by the deprecated
+                         pwb_lambda_influence (pwb_estimate_response_lambda_loo takes it as
+                         a parameter) */
   double lower, upper; /* lambda search range; default -3, 3 */
   double level;       /* level of the full-data likelihood-ratio interval; default 0.95 */
   /* Appended in 0.2; a smaller struct_size leaves it NULL. */
@@ -950,7 +1018,9 @@ typedef struct pwb_influence_summary {
   size_t n_loo_at_bound; /* rows whose leave-one-out lambda-hat is at a range end */
 } pwb_influence_summary;
 
-/* Leave-one-out maximum-likelihood lambda of the response y given predictors X (n-by-p,
+/* Deprecated since 0.2 (the family belongs among the parameters): use
+ * pwb_estimate_response_lambda_loo, which takes it after p; this form reads opt->family.
+ * Leave-one-out maximum-likelihood lambda of the response y given predictors X (n-by-p,
  * column-major, no intercept column; NULL when p is 0): for each row i, the lambda-hat of the
  * data without row i. The design is factored once; each row's profile is the full-data profile
  * corrected by the deletion identity RSS_(i) = RSS - e_i^2 / (1 - h_ii), with the full profile
@@ -969,6 +1039,18 @@ PWB_API pwb_status pwb_lambda_influence(const double *y, const double *X, size_t
                                         const pwb_influence_options *opt,
                                         pwb_influence_summary *summary, double *loo_lambda,
                                         double *leverage, int *outside, int *at_bound);
+
+/* Leave-one-out lambda with the family as a parameter, in the order of
+ * pwb_estimate_response_lambda: the same computation, outputs and errors as
+ * pwb_lambda_influence, whose opt->family is not read here (family: PWB_BOX_COX or
+ * PWB_YEO_JOHNSON; another value is PWB_ERR_ARGUMENT). pwb_lambda_influence, which takes the
+ * family from its options, is deprecated since 0.2 and kept working. Thread-safe. */
+PWB_API pwb_status pwb_estimate_response_lambda_loo(const double *y, const double *X, size_t n,
+                                                    size_t p, pwb_family family,
+                                                    const pwb_influence_options *opt,
+                                                    pwb_influence_summary *summary,
+                                                    double *loo_lambda, double *leverage,
+                                                    int *outside, int *at_bound);
 
 /* Repeated k-fold assignment for cross-validation: fold[r * n + i] (1..folds) is the fold of row
  * i in repeat r, for r < repeats. Each repeat shuffles the rows with a generator seeded from seed
@@ -1057,7 +1139,7 @@ PWB_API void pwb_cv_fold_options_init(pwb_cv_fold_options *opt);
  * Thread-safe: reads only its arguments. */
 PWB_API pwb_status pwb_cv_folds_by(size_t n, const pwb_cv_fold_options *opt, int *fold);
 
-/* @@PWB_SECTION_COMPARE@@ (declarations of this section go above this line) */
+/* End of section: comparing transforms (add new declarations above). */
 
 
 
@@ -1102,10 +1184,9 @@ PWB_API pwb_status pwb_spec_add_transform(pwb_spec *s, const char *name, const p
 /* Stores the number of transforms in *count. Errors: PWB_ERR_ARGUMENT for NULL arguments. */
 PWB_API pwb_status pwb_spec_count(const pwb_spec *s, size_t *count);
 
-/* The name of transform i (0-based, in the order of the text), copied like snprintf: at most cap
- * bytes including the terminating NUL go to buf (which may be NULL when cap is 0), and the full
- * length without NUL is stored in *needed when needed is not NULL. Names may hold any UTF-8
- * text, including spaces and quotes. Errors: PWB_ERR_ARGUMENT for a NULL s or i >= count. */
+/* The name of transform i (0-based, in the order of the text), copied into buf by the text rule
+ * at the top of this header. Names may hold any UTF-8 text, including spaces and quotes.
+ * Errors: PWB_ERR_ARGUMENT for a NULL s, i >= count, or a NULL buf with cap > 0. */
 PWB_API pwb_status pwb_spec_name(const pwb_spec *s, size_t i, char *buf, size_t cap,
                                  size_t *needed);
 
@@ -1118,12 +1199,10 @@ PWB_API pwb_status pwb_spec_find(const pwb_spec *s, const char *name, size_t *in
  * failure. Errors: PWB_ERR_ARGUMENT for NULL arguments or i >= count. */
 PWB_API pwb_status pwb_spec_transform(const pwb_spec *s, size_t i, pwb_transform **out);
 
-/* Writes s as text into buf. The full length without NUL is stored in *needed when needed is
- * not NULL. Call with buf = NULL and cap = 0 to learn the size; then pass a buffer of at least
- * *needed + 1 bytes, which receives the whole text and a terminating NUL. Unlike snprintf, a
- * buffer too small is an error (PWB_ERR_ARGUMENT; buf then holds "" when cap > 0), so a
- * truncated spec is never produced. Errors: PWB_ERR_ARGUMENT for a NULL s, a NULL buf with
- * cap > 0, or a buffer too small. */
+/* Writes s as text into buf by the text rule at the top of this header (since 0.2; before, a
+ * buffer too small was an error): call with buf = NULL and cap = 0 to learn the length, then
+ * pass cap >= *needed + 1. A cut text is never a spec: it lacks the final "end" line, which
+ * pwb_spec_read requires. Errors: PWB_ERR_ARGUMENT for a NULL s or a NULL buf with cap > 0. */
 PWB_API pwb_status pwb_spec_write(const pwb_spec *s, char *buf, size_t cap, size_t *needed);
 
 /* Writes s as text to the file at path (created or replaced; the path is passed to the C
@@ -1178,9 +1257,9 @@ PWB_API pwb_status pwb_spec_has_model(const pwb_spec *s, int *has);
 PWB_API pwb_status pwb_spec_model_info(const pwb_spec *s, size_t *ncoef, double *sigma,
                                        size_t *df);
 
-/* The model's response name, copied like pwb_spec_name (snprintf-like into buf of cap bytes; the
- * full length in *needed when needed is not NULL). Errors: PWB_ERR_ARGUMENT for a NULL s or a
- * spec without a model record. */
+/* The model's response name, copied into buf by the text rule at the top of this header.
+ * Errors: PWB_ERR_ARGUMENT for a NULL s, a spec without a model record, or a NULL buf with
+ * cap > 0. */
 PWB_API pwb_status pwb_spec_model_response(const pwb_spec *s, char *buf, size_t cap,
                                            size_t *needed);
 
@@ -1194,7 +1273,7 @@ PWB_API pwb_status pwb_spec_model_coef_name(const pwb_spec *s, size_t j, char *b
  * without a model record, a different ncoef, or a NULL coef with ncoef > 0. */
 PWB_API pwb_status pwb_spec_model_coefficients(const pwb_spec *s, double *coef, size_t ncoef);
 
-/* @@PWB_SECTION_SPEC@@ (declarations of this section go above this line) */
+/* End of section: the portable text spec (add new declarations above). */
 
 
 
@@ -1224,8 +1303,13 @@ typedef struct pwb_lambda_summary pwb_lambda_summary; /* opaque */
 
 /* A new, empty summary for the response power of family PWB_BOX_COX or PWB_YEO_JOHNSON given p
  * predictors (an intercept is added). *out is released with pwb_lambda_summary_free.
- * Errors: PWB_ERR_ARGUMENT for another family, a NULL out, p >= 100000. */
+ * Errors: PWB_ERR_ARGUMENT for another family, a NULL out, p >= 100000. Deprecated since 0.2:
+ * use pwb_lambda_summary_create (p first, then the family). */
 PWB_API pwb_status pwb_lambda_summary_new(pwb_family family, size_t p, pwb_lambda_summary **out);
+/* The same with the size before the family, as the parameter order at the top of this header
+ * has it; pwb_lambda_summary_new is deprecated since 0.2 and kept working. */
+PWB_API pwb_status pwb_lambda_summary_create(size_t p, pwb_family family,
+                                             pwb_lambda_summary **out);
 /* Releases s. NULL is fine. */
 PWB_API void pwb_lambda_summary_free(pwb_lambda_summary *s);
 /* Adds a chunk (see above). Errors: PWB_ERR_NONFINITE (NaN/Inf in y or X, rows named),
@@ -1345,7 +1429,7 @@ PWB_API pwb_status pwb_fit_checks_finish(const pwb_fit_checks *c, pwb_residual_c
 PWB_API pwb_status pwb_fit_checks_smearing(const pwb_fit_checks *c, const double *eta, size_t m,
                                            double *mean_out);
 
-/* @@PWB_SECTION_SUMMARIES@@ (declarations of this section go above this line) */
+/* End of section: summaries of chunked data (add new declarations above). */
 
 #ifdef __cplusplus
 }

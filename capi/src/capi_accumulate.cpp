@@ -135,6 +135,10 @@ pwb_status pwb_lambda_summary_new(pwb_family family, size_t p, pwb_lambda_summar
   });
 }
 
+pwb_status pwb_lambda_summary_create(size_t p, pwb_family family, pwb_lambda_summary** out) {
+  return pwb_lambda_summary_new(family, p, out);
+}
+
 void pwb_lambda_summary_free(pwb_lambda_summary* s) { delete s; }
 
 pwb_status pwb_lambda_summary_add(pwb_lambda_summary* s, const double* y, const double* X, size_t rows,

@@ -38,6 +38,9 @@ pwb_status status_of(ErrorCode code) noexcept {
 }
 
 void copy_text(const std::string& text, char* buf, std::size_t cap, std::size_t* needed) {
+  if (buf == nullptr && cap > 0)
+    throw Error(ErrorCode::Argument, "buf is NULL but cap is " + std::to_string(cap) +
+                                         "; pass cap = 0 with a NULL buf to ask the length");
   if (needed) *needed = text.size();
   if (buf && cap > 0) {
     const std::size_t k = text.size() < cap - 1 ? text.size() : cap - 1;

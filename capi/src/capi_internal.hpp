@@ -72,7 +72,9 @@ int enum_value(const E& e) noexcept {
   return v;
 }
 
-// snprintf-like copy of text into a caller's buffer.
+// The header's text convention: the full length (without NUL) to *needed when not NULL; at most
+// cap bytes, NUL included, to buf (truncated text is still NUL-terminated). buf NULL asks only
+// the length and needs cap 0: a NULL buf with cap > 0 throws Error(Argument).
 void copy_text(const std::string& text, char* buf, std::size_t cap, std::size_t* needed);
 
 }  // namespace capi

@@ -24,6 +24,52 @@ struct MlFields {
   int &at_bound, &converged, &low_open, &high_open;
 };
 
+// The whole screen of x into *out (checked by the caller); returns the note's full text.
+std::string screen_into(const double* x, size_t n, const pwb_screen_options* opt,
+                        pwb_screen_result* out) {
+  ScreenOptions o;
+  if (opt) {
+    capi::need_struct(opt->struct_size, sizeof(pwb_screen_options), "pwb_screen_options");
+    o.level = opt->level;
+    o.lower = opt->lower;
+    o.upper = opt->upper;
+  }
+  const VariableScreen s = screen_variable(x, n, o);
+  const size_t keep = out->struct_size;
+  pwb_screen_result_init(out);
+  out->struct_size = keep;
+  out->n = s.n;
+  out->usable = s.usable ? 1 : 0;
+  capi::put_moments(s.moments, out);
+  // The fixed field keeps a copy cut to its size; the full text goes through the _with_note form.
+  std::strncpy(out->note, s.note.c_str(), sizeof out->note - 1);
+  out->note[sizeof out->note - 1] = '\0';
+  if (!s.usable) return s.note;
+  out->sw_w = s.sw.w;
+  out->sw_p = s.sw.p_value;
+  out->sw_note = normality_skip_text(s.sw.skip);
+  capi::write_spec(s.ladder.spec, &out->ladder);
+  out->ladder_step = static_cast<pwb_ladder_step>(s.ladder.step);
+  out->ladder_by_size = s.ladder.by_size ? 1 : 0;
+  out->ladder_skewness = s.after_ladder.skewness;
+  out->ladder_sw_w = s.after_ladder.sw.w;
+  out->ladder_sw_p = s.after_ladder.sw.p_value;
+  out->ladder_sw_note = normality_skip_text(s.after_ladder.sw.skip);
+  out->ml_done = s.ml_done ? 1 : 0;
+  if (!s.ml_done) return s.note;
+  capi::write_spec(s.ml_spec, &out->ml);
+  MlFields ml{out->ml_lambda,     out->ml_conf_low,  out->ml_conf_high,
+              out->ml_loglik,     out->ml_convenient, out->ml_at_bound,
+              out->ml_converged,  out->ml_low_open,   out->ml_high_open};
+  capi::put_lambda_estimate(s.ml, &ml);
+  capi::put_lambda_outcome(s.ml, &ml);
+  out->ml_skewness = s.after_ml.skewness;
+  out->ml_sw_w = s.after_ml.sw.w;
+  out->ml_sw_p = s.after_ml.sw.p_value;
+  out->ml_sw_note = normality_skip_text(s.after_ml.sw.skip);
+  return s.note;
+}
+
 }  // namespace
 
 extern "C" {
@@ -89,45 +135,17 @@ pwb_status pwb_screen_variable(const double* x, size_t n, const pwb_screen_optio
   return capi::guarded([&] {
     capi::need_sized(out, "out", "pwb_screen_result");
     capi::need_array(x, n, "x");
-    ScreenOptions o;
-    if (opt) {
-      capi::need_struct(opt->struct_size, sizeof(pwb_screen_options), "pwb_screen_options");
-      o.level = opt->level;
-      o.lower = opt->lower;
-      o.upper = opt->upper;
-    }
-    const VariableScreen s = screen_variable(x, n, o);
-    const size_t keep = out->struct_size;
-    pwb_screen_result_init(out);
-    out->struct_size = keep;
-    out->n = s.n;
-    out->usable = s.usable ? 1 : 0;
-    capi::put_moments(s.moments, out);
-    std::strncpy(out->note, s.note.c_str(), sizeof out->note - 1);
-    out->note[sizeof out->note - 1] = '\0';
-    if (!s.usable) return;
-    out->sw_w = s.sw.w;
-    out->sw_p = s.sw.p_value;
-    out->sw_note = normality_skip_text(s.sw.skip);
-    capi::write_spec(s.ladder.spec, &out->ladder);
-    out->ladder_step = static_cast<pwb_ladder_step>(s.ladder.step);
-    out->ladder_by_size = s.ladder.by_size ? 1 : 0;
-    out->ladder_skewness = s.after_ladder.skewness;
-    out->ladder_sw_w = s.after_ladder.sw.w;
-    out->ladder_sw_p = s.after_ladder.sw.p_value;
-    out->ladder_sw_note = normality_skip_text(s.after_ladder.sw.skip);
-    out->ml_done = s.ml_done ? 1 : 0;
-    if (!s.ml_done) return;
-    capi::write_spec(s.ml_spec, &out->ml);
-    MlFields ml{out->ml_lambda,     out->ml_conf_low,  out->ml_conf_high,
-                out->ml_loglik,     out->ml_convenient, out->ml_at_bound,
-                out->ml_converged,  out->ml_low_open,   out->ml_high_open};
-    capi::put_lambda_estimate(s.ml, &ml);
-    capi::put_lambda_outcome(s.ml, &ml);
-    out->ml_skewness = s.after_ml.skewness;
-    out->ml_sw_w = s.after_ml.sw.w;
-    out->ml_sw_p = s.after_ml.sw.p_value;
-    out->ml_sw_note = normality_skip_text(s.after_ml.sw.skip);
+    screen_into(x, n, opt, out);
+  });
+}
+
+pwb_status pwb_screen_variable_with_note(const double* x, size_t n, const pwb_screen_options* opt,
+                                         pwb_screen_result* out, char* buf, size_t cap,
+                                         size_t* needed) {
+  return capi::guarded([&] {
+    capi::need_sized(out, "out", "pwb_screen_result");
+    capi::need_array(x, n, "x");
+    capi::copy_text(screen_into(x, n, opt, out), buf, cap, needed);
   });
 }
 

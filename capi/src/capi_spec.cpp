@@ -79,17 +79,7 @@ pwb_status pwb_spec_transform(const pwb_spec* s, size_t i, pwb_transform** out) 
 pwb_status pwb_spec_write(const pwb_spec* s, char* buf, size_t cap, size_t* needed) {
   return capi::guarded([&] {
     capi::need(s, "s");
-    const std::string text = write_spec(s->impl);
-    if (needed) *needed = text.size();
-    if (buf == nullptr && cap == 0) return;
-    capi::need(buf, "buf");
-    if (cap <= text.size()) {
-      if (cap > 0) buf[0] = '\0';
-      throw Error(ErrorCode::Argument, "the buffer holds " + std::to_string(cap) +
-                                           " bytes; the spec needs " + std::to_string(text.size() + 1) +
-                                           " (query the size first with buf = NULL, cap = 0)");
-    }
-    capi::copy_text(text, buf, cap, nullptr);
+    capi::copy_text(write_spec(s->impl), buf, cap, needed);
   });
 }
 

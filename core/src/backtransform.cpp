@@ -24,74 +24,13 @@ double x_of_v(const TransformSpec& s, double v) {
   return s.reflect ? s.pivot - u : u;
 }
 
-// Where the inverse stops existing, and what v tends to beyond that point.
-struct RangeLimit {
-  bool limited = false;
-  double z = math::kNaN;        // the boundary on the transformed scale
-  bool beyond_is_above = true;  // the invalid side is z > boundary (else z < boundary)
-  double v = math::kNaN;        // limit of v on the invalid side: 0, +Inf or -Inf
-};
-
-RangeLimit range_limit(const TransformSpec& s) {
-  RangeLimit r;
-  const double l = s.lambda;
-  switch (s.family) {
-    case Family::BoxCox:
-      if (l == 0.0) return r;
-      r.limited = true;
-      r.z = -1.0 / l;
-      r.beyond_is_above = l < 0.0;  // 1 + l z > 0
-      r.v = l > 0.0 ? 0.0 : math::kInf;
-      return r;
-    case Family::YeoJohnson:
-      if (l < 0.0) {  // z >= 0 branch needs 1 + l z > 0
-        r.limited = true;
-        r.z = -1.0 / l;
-        r.beyond_is_above = true;
-        r.v = math::kInf;
-      } else if (l > 2.0) {  // z < 0 branch needs 1 - (2 - l) z > 0
-        r.limited = true;
-        r.z = 1.0 / (2.0 - l);
-        r.beyond_is_above = false;
-        r.v = -math::kInf;
-      }
-      return r;
-    case Family::Sqrt:
-      r.limited = true;
-      r.z = 0.0;
-      r.beyond_is_above = false;
-      r.v = 0.0;
-      return r;
-    case Family::Reciprocal:
-      r.limited = true;
-      r.z = 0.0;
-      r.beyond_is_above = true;
-      r.v = math::kInf;
-      return r;
-    case Family::Power:
-      if (l > 0.0) return r;
-      r.limited = true;
-      r.z = 0.0;
-      r.beyond_is_above = true;
-      r.v = math::kInf;
-      return r;
-    default:
-      return r;
-  }
-}
+RangeLimit range_limit(const TransformSpec& s) { return family_traits(s.family).range(s.lambda); }
 
 // Log-type families whose normal-theory mean has a closed form: E[v] = exp(a mu + a^2 s^2 / 2)
 // with a = 1 (natural log) or ln 10 (log10).
 bool lognormal_scale(const TransformSpec& s, double* a) {
-  if (s.family == Family::Log || (s.family == Family::BoxCox && s.lambda == 0.0)) {
-    *a = 1.0;
-    return true;
-  }
-  if (s.family == Family::Log10) {
-    *a = math::kLn10;
-    return true;
-  }
-  return false;
+  *a = family_traits(s.family).log_scale(s.lambda);
+  return *a > 0.0;
 }
 
 }  // namespace
@@ -133,20 +72,6 @@ BackValue smearing_mean(const Transform& t, double mu, const double* residuals, 
 }
 
 namespace {
-
-// Exponent p of the inverse near its limit when v tends to +-Inf there (v ~ distance^p), or 0.
-double pole_exponent(const TransformSpec& s) {
-  switch (s.family) {
-    case Family::BoxCox: return s.lambda < 0.0 ? 1.0 / s.lambda : 0.0;
-    case Family::YeoJohnson:
-      if (s.lambda < 0.0) return 1.0 / s.lambda;
-      if (s.lambda > 2.0) return 1.0 / (2.0 - s.lambda);
-      return 0.0;
-    case Family::Reciprocal: return -1.0;
-    case Family::Power: return s.lambda < 0.0 ? 1.0 / s.lambda : 0.0;
-    default: return 0.0;
-  }
-}
 
 // v at distance delta >= 0 inside the range from its limit, without the cancellation of
 // forming z = limit +- delta first (the base of the power is |lambda| delta exactly).
@@ -230,7 +155,7 @@ BackValue normal_mean(const Transform& t, double mu, double sigma, double* cut_m
   }
   // How far the integrand's bulk can sit from the normal's centre (standard units): sigma for
   // inverses growing like exp(z), sqrt(p) for a power p of z.
-  const double p = s.family == Family::Sqrt ? 2.0 : (family_has_lambda(s.family) && s.lambda != 0.0 ? 1.0 / s.lambda : 0.0);
+  const double p = family_traits(s.family).growth_power(s.lambda);
   const double reach = sigma + std::sqrt(std::fabs(p));
   if (!r.limited) {
     auto f = [&](double u) {
@@ -252,8 +177,7 @@ BackValue normal_mean(const Transform& t, double mu, double sigma, double* cut_m
   const boost::math::normal n01;
   const double cut = boost::math::cdf(n01, kappa);
   if (cut_mass) *cut_mass = cut;
-  const double pe = pole_exponent(s);
-  if (pe != 0.0 && pe <= -1.0) {
+  if (normal_mean_diverges(r)) {
     // v grows like distance^p with p <= -1 at the limit, where the normal density is positive:
     // the integral diverges, and the mean is infinite under any positive normal weight.
     b.value = x_of_v(s, r.v);

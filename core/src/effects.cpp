@@ -50,15 +50,10 @@ double inverse_slope(const Transform& t, double z) {
 bool log_type(const Transform& t, double* a) {
   const TransformSpec& s = t.spec();
   if (s.shift != 0.0 || s.reflect) return false;
-  if (s.family == Family::Log || (s.family == Family::BoxCox && s.lambda == 0.0)) {
-    *a = 1.0;
-    return true;
-  }
-  if (s.family == Family::Log10) {
-    *a = math::kLn10;
-    return true;
-  }
-  return false;
+  const double scale = family_traits(s.family).log_scale(s.lambda);
+  if (scale <= 0.0) return false;
+  *a = scale;
+  return true;
 }
 
 Effect percent_change(const Model& m, const double* contrast, double level) {

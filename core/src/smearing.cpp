@@ -75,21 +75,12 @@ Smearing::Smearing(const Transform& t, const double* residuals, std::size_t n) :
       throw Error(ErrorCode::NonFinite,
                   "training residual " + std::to_string(j) + " is not finite; smearing needs finite residuals");
   const TransformSpec& s = t_.spec();
-  switch (s.family) {
-    case Family::Identity:
-      kind_ = Kind::Identity;
-      for (double v : e_) e_sum_ += v;
-      return;
-    case Family::Log:
-    case Family::Log10:
-      kind_ = Kind::Exponential;
-      break;
-    case Family::BoxCox:
-      if (s.lambda == 0.0) kind_ = Kind::Exponential;
-      break;
-    default:
-      break;
+  if (s.family == Family::Identity) {
+    kind_ = Kind::Identity;
+    for (double v : e_) e_sum_ += v;
+    return;
   }
+  if (family_traits(s.family).log_scale(s.lambda) > 0.0) kind_ = Kind::Exponential;
   if (kind_ == Kind::Exponential) {  // no sort needed: the largest residual and one sum
     top_ = *std::max_element(e_.begin(), e_.end());
     for (double v : e_) exp_sum_ += math::inverse(s.family, v - top_, s.lambda);

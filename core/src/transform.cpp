@@ -10,9 +10,6 @@
 namespace powerback {
 namespace {
 
-constexpr const char* kNames[kFamilyCount] = {"identity", "box-cox", "yeo-johnson", "log", "log10",
-                                              "sqrt",     "reciprocal", "power", "asinh", "logit"};
-
 void note(std::vector<std::size_t>& first, std::size_t i) {
   if (first.size() < kMaxReportedIndices) first.push_back(i);
 }
@@ -35,21 +32,21 @@ std::string format_number(double x) {
 
 const char* family_name(Family f) noexcept {
   const int i = static_cast<int>(f);
-  return (i >= 0 && i < kFamilyCount) ? kNames[i] : "unknown";
+  return (i >= 0 && i < kFamilyCount) ? kFamilyTraits[i].name : "unknown";
 }
 
 bool family_is_valid(int f) noexcept { return f >= 0 && f < kFamilyCount; }
 
 Family family_from_name(const std::string& name) {
-  for (int i = 0; i < kFamilyCount; ++i)
-    if (name == kNames[i]) return static_cast<Family>(i);
+  for (const FamilyTraits& t : kFamilyTraits)
+    if (name == t.name) return t.family;
   std::string known;
-  for (int i = 0; i < kFamilyCount; ++i) known += (i ? ", " : "") + std::string(kNames[i]);
+  for (const FamilyTraits& t : kFamilyTraits) known += (known.empty() ? "" : ", ") + std::string(t.name);
   throw Error(ErrorCode::Argument, "unknown family \"" + name + "\"; known families: " + known);
 }
 
 bool family_has_lambda(Family f) noexcept {
-  return f == Family::BoxCox || f == Family::YeoJohnson || f == Family::Power;
+  return family_is_valid(static_cast<int>(f)) && family_traits(f).has_lambda;
 }
 
 Transform::Transform(const TransformSpec& spec) : spec_(spec) {
@@ -177,67 +174,37 @@ static std::string v_definition(const TransformSpec& s) {
   return v == "x" ? "" : ", where v = " + v;
 }
 
+// "box-cox needs v > 0, where v = x + shift", from the family's domain at this lambda.
 std::string Transform::domain_requirement() const {
-  const std::string fam = family_name(spec_.family);
-  const std::string where = v_definition(spec_);
-  switch (spec_.family) {
-    case Family::BoxCox:
-    case Family::Log:
-    case Family::Log10:
-    case Family::Reciprocal: return fam + " needs v > 0" + where;
-    case Family::Sqrt: return fam + " needs v >= 0" + where;
-    case Family::Power:
-      return spec_.lambda > 0 ? fam + " accepts any finite v"
-                              : fam + " with lambda < 0 needs v > 0" + where;
-    case Family::Logit: return fam + " needs 0 < v < 1" + where;
-    default: return fam + " accepts any finite v";
-  }
+  const FamilyDomain d = family_traits(spec_.family).domain(spec_.lambda);
+  std::string fam = family_name(spec_.family);
+  if (*d.condition) fam += std::string(" ") + d.condition;
+  if (d.unbounded()) return fam + " accepts any finite v";
+  std::string need = format_number(d.lower) + (d.lower_closed ? " <= v" : " < v");
+  if (d.upper == math::kInf)
+    need = std::string("v ") + (d.lower_closed ? ">= " : "> ") + format_number(d.lower);
+  else
+    need += " < " + format_number(d.upper);
+  return fam + " needs " + need + v_definition(spec_);
 }
 
-std::string Transform::domain_remedy() const {
-  switch (spec_.family) {
-    case Family::BoxCox:
-    case Family::Log:
-    case Family::Log10:
-    case Family::Reciprocal:
-    case Family::Power:
-      return "use yeo-johnson, or a shift that makes every value > 0";
-    case Family::Sqrt: return "use yeo-johnson, or a shift that makes every value >= 0";
-    case Family::Logit: return "rescale the variable to a proportion strictly between 0 and 1";
-    default: return "remove or impute the non-finite values";
-  }
-}
+std::string Transform::domain_remedy() const { return family_traits(spec_.family).domain_remedy; }
 
+// "the inverse of box-cox (lambda = -2) needs z < 0.5", from the family's range at this lambda.
 std::string Transform::range_requirement() const {
   const std::string head = "the inverse of " + std::string(family_name(spec_.family)) +
                            (family_has_lambda(spec_.family)
                                 ? " (lambda = " + format_number(spec_.lambda) + ")"
                                 : std::string());
-  const double lam = spec_.lambda;
-  switch (spec_.family) {
-    case Family::BoxCox:
-      if (lam > 0) return head + " needs z > " + format_number(-1.0 / lam);
-      if (lam < 0) return head + " needs z < " + format_number(-1.0 / lam);
-      break;
-    case Family::YeoJohnson:
-      if (lam < 0) return head + " needs z < " + format_number(-1.0 / lam);
-      if (lam > 2) return head + " needs z > " + format_number(1.0 / (2.0 - lam));
-      break;
-    case Family::Sqrt: return head + " needs z >= 0";
-    case Family::Reciprocal: return head + " needs z < 0";
-    case Family::Power:
-      if (lam < 0) return head + " needs z < 0";
-      break;
-    default: break;
-  }
-  return head + " accepts any finite z";
+  const RangeLimit r = family_traits(spec_.family).range(spec_.lambda);
+  if (!r.limited) return head + " accepts any finite z";
+  return head + " needs z " + (r.beyond_is_above ? "<" : ">") + (r.boundary_valid ? "= " : " ") +
+         format_number(r.z);
 }
 
 std::string Transform::range_remedy() const {
-  const double lam = spec_.lambda;
-  const bool limit = (spec_.family == Family::BoxCox && lam < 0) ||
-                     (spec_.family == Family::YeoJohnson && (lam < 0 || lam > 2));
-  if (!limit) return "the value lies beyond the transform's range";
+  if (!family_traits(spec_.family).range(spec_.lambda).precision_limit)
+    return "the value lies beyond the transform's range";
   return "the transform approaches that limit as |v| grows, so a z at the limit comes from "
          "values too large for lambda's precision (no digits of v are left to recover); "
          "rescale the variable (divide it by a power of ten) or use a lambda closer to 0";

@@ -85,6 +85,15 @@ int main(int argc, char **argv) {
   ts.lambda = lam.convenient;
   if (pwb_transform_new(&ts, &response) != PWB_OK) return failed("pwb_transform_new");
   {
+    /* Text comes back like snprintf: cut to the buffer (always NUL-terminated), full length in
+     * need; buf = NULL with cap 0 would ask the length alone. */
+    char text[80];
+    size_t need = 0;
+    if (pwb_transform_describe(response, 3, text, sizeof text, &need) != PWB_OK)
+      return failed("pwb_transform_describe");
+    printf("response transform: %s%s\n", text, need < sizeof text ? "" : "...");
+  }
+  {
     pwb_model_options mopt;
     pwb_model_options_init(&mopt);
     mopt.estimated_parameters = 1; /* lambda came from these data */

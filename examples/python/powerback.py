@@ -1,7 +1,7 @@
 """powerback from Python: a ctypes binding to the C library libpowerback (no compiled extension).
 
     import powerback
-    lib = powerback.load("/usr/local/lib/libpowerback.so.0")   # or set POWERBACK_LIBRARY
+    lib = powerback.load("/usr/local/lib/libpowerback.so.0.2")   # or set POWERBACK_LIBRARY
     spec = lib.read_spec("transforms.pwbspec")                  # written by R's write_transforms()
     z = spec["income"].apply(numpy.array([1.0, 2.0]))
 
@@ -101,8 +101,8 @@ class Library:
             raise OSError("libpowerback not found: pass its path or set POWERBACK_LIBRARY")
         self._c = ctypes.CDLL(path)
         self._declare()
-        if self.version_number() // 100 != 1:  # this module speaks ABI 0.1
-            raise OSError("libpowerback %s is not the 0.1 series this module was written for"
+        if self.version_number() // 100 != 2:  # this module speaks ABI 0.2 (libpowerback.so.0.2)
+            raise OSError("libpowerback %s is not the 0.2 series this module was written for"
                           % self.version_string())
 
     def _declare(self):

@@ -73,8 +73,8 @@ pwb_transform_fun_name <- function(tr) {
   fam <- switch(tr$family, "box-cox" = "boxcox", "yeo-johnson" = "yeojohnson",
                 reciprocal = "recip", tr$family)
   nm <- fam
-  if (tr$family %in% c("box-cox", "yeo-johnson", "power") && !is.null(tr$lambda) &&
-      !is.na(tr$lambda))
+  # The library leaves lambda NA for families without one (rpwb_transform_normalise).
+  if (!is.null(tr$lambda) && !is.na(tr$lambda))
     nm <- paste0(nm, num(tr$lambda))
   if (!is.null(tr$shift) && tr$shift != 0) nm <- paste0(nm, "_shift", num(tr$shift))
   if (isTRUE(tr$reflect)) nm <- paste0("reflect", num(tr$pivot), "_", nm)

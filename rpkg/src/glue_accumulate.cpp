@@ -56,7 +56,7 @@ Rcpp::List finish_list(const pwb_lambda_result& r, const std::vector<double>& gr
 Rcpp::RawVector rpwb_lambda_summary_bytes(Rcpp::NumericVector y, Rcpp::NumericMatrix X, std::string family,
                                           Rcpp::Nullable<Rcpp::NumericVector> weights) {
   LambdaS s;
-  rpwb::check(pwb_lambda_summary_new(rpwb::family_of(family), static_cast<size_t>(X.ncol()), &s.h));
+  rpwb::check(pwb_lambda_summary_create(static_cast<size_t>(X.ncol()), rpwb::family_of(family), &s.h));
   Rcpp::NumericVector wk;
   const std::size_t n = static_cast<std::size_t>(y.size());
   rpwb::check(pwb_lambda_summary_add(s.h, y.begin(), x_ptr(X, y), n, n, rpwb::weights_or_null(weights, y.size(), &wk)));

@@ -1,4 +1,5 @@
-// Rcpp glue for the leave-one-out response lambda: a thin wrapper over pwb_lambda_influence; the
+// Rcpp glue for the leave-one-out response lambda: a thin wrapper over
+// pwb_estimate_response_lambda_loo; the
 // R caller validates, builds the model frame and names rows.
 #include "glue_common.h"
 
@@ -9,7 +10,7 @@ Rcpp::List rpwb_lambda_influence(Rcpp::NumericVector y, Rcpp::NumericMatrix X, s
   const std::size_t n = static_cast<std::size_t>(y.size()), p = static_cast<std::size_t>(X.ncol());
   pwb_influence_options opt;
   pwb_influence_options_init(&opt);
-  opt.family = rpwb::family_of(family);
+  const pwb_family f = rpwb::family_of(family);
   opt.lower = lower;
   opt.upper = upper;
   opt.level = level;
@@ -19,8 +20,9 @@ Rcpp::List rpwb_lambda_influence(Rcpp::NumericVector y, Rcpp::NumericMatrix X, s
   s.struct_size = sizeof s;
   Rcpp::NumericVector loo(n), h(n);
   Rcpp::IntegerVector out(n), bound(n);
-  rpwb::check(pwb_lambda_influence(y.begin(), p > 0 ? X.begin() : nullptr, n, p, &opt, &s,
-                                   loo.begin(), h.begin(), out.begin(), bound.begin()));
+  rpwb::check(pwb_estimate_response_lambda_loo(y.begin(), p > 0 ? X.begin() : nullptr, n, p, f,
+                                               &opt, &s, loo.begin(), h.begin(), out.begin(),
+                                               bound.begin()));
   return Rcpp::List::create(
       Rcpp::Named("lambda") = s.lambda,
       Rcpp::Named("conf_int") = Rcpp::NumericVector::create(s.conf_low, s.conf_high),

@@ -1,9 +1,11 @@
 // Rcpp glue for the normality statistics, the ladder of powers and the variable screen: thin
 // wrappers over pwb_shapiro_wilk, pwb_sample_moments, pwb_ladder_recommend and
-// pwb_screen_variable of powerback.h. Callers pass finite values only (R removes NA first).
+// pwb_screen_variable_with_note of powerback.h. Callers pass finite values only (R removes NA
+// first).
 #include "glue_common.h"
 
 #include <string>
+#include <vector>
 
 namespace {
 
@@ -38,7 +40,16 @@ Rcpp::List rpwb_screen_variable(Rcpp::NumericVector x, double level, double lowe
   opt.upper = upper;
   pwb_screen_result r;
   pwb_screen_result_init(&r);
-  rpwb::check(pwb_screen_variable(x.begin(), static_cast<size_t>(x.size()), &opt, &r));
+  // The note by the header's text rule: a buffer that holds every usual note, and a second call
+  // only for a longer one.
+  std::vector<char> note(512);
+  std::size_t need = 0;
+  const std::size_t n = static_cast<std::size_t>(x.size());
+  rpwb::check(pwb_screen_variable_with_note(x.begin(), n, &opt, &r, note.data(), note.size(), &need));
+  if (need >= note.size()) {
+    note.resize(need + 1);
+    rpwb::check(pwb_screen_variable_with_note(x.begin(), n, &opt, &r, note.data(), note.size(), &need));
+  }
   using rpwb::nan_to_na;
   Rcpp::List moments = Rcpp::List::create(
       Rcpp::Named("n") = static_cast<double>(r.n), Rcpp::Named("mean") = nan_to_na(r.mean),
@@ -73,7 +84,7 @@ Rcpp::List rpwb_screen_variable(Rcpp::NumericVector x, double level, double lowe
       Rcpp::Named("low_open") = r.ml_low_open != 0, Rcpp::Named("high_open") = r.ml_high_open != 0,
       Rcpp::Named("skewness") = nan_to_na(r.ml_skewness));
   return Rcpp::List::create(Rcpp::Named("usable") = r.usable != 0,
-                            Rcpp::Named("note") = std::string(r.note),
+                            Rcpp::Named("note") = std::string(note.data()),
                             Rcpp::Named("moments") = moments, Rcpp::Named("sw") = sw,
                             Rcpp::Named("ladder") = ladder, Rcpp::Named("ml") = ml);
 }

@@ -1,9 +1,9 @@
 // powerback/family_math.hpp — scalar formulas of the transform families, no validation.
 //
 // Each family f maps v (the value after reflection and shift) to z = f(v). For each we give the
-// forward map, its inverse, log |f'(v)| (the Jacobian term of a normal likelihood on the
-// transformed scale) and the domain / range tests. Callers validate; these functions assume a
-// parameter the family accepts and return NaN outside the domain.
+// forward map, its inverse and log |f'(v)| (the Jacobian term of a normal likelihood on the
+// transformed scale); the domain and range facts are rows of family_traits.hpp. Callers validate;
+// these functions assume a parameter the family accepts and return NaN outside the domain.
 //
 // References
 //   Box, G. E. P. & Cox, D. R. (1964). An analysis of transformations. JRSS B 26, 211-252.
@@ -160,31 +160,7 @@ inline double log_deriv(Family f, double v, double lambda) {
   return kNaN;
 }
 
-// Is the finite value v inside the family's domain?
-inline bool in_domain(Family f, double v, double lambda) {
-  switch (f) {
-    case Family::BoxCox:
-    case Family::Log:
-    case Family::Log10:
-    case Family::Reciprocal: return v > 0.0;
-    case Family::Sqrt: return v >= 0.0;  // sqrt(0) = 0; only log and -1/v need v > 0
-    case Family::Power: return lambda > 0.0 || v > 0.0;
-    case Family::Logit: return v > 0.0 && v < 1.0;
-    default: return true;
-  }
-}
-
-// Is the finite value z inside the family's range (so the inverse exists)?
-inline bool in_range(Family f, double z, double lambda) {
-  switch (f) {
-    case Family::BoxCox: return lambda == 0.0 || 1.0 + lambda * z > 0.0;
-    case Family::YeoJohnson: return yeo_johnson_in_range(z, lambda);
-    case Family::Sqrt: return z >= 0.0;
-    case Family::Reciprocal: return z < 0.0;
-    case Family::Power: return lambda > 0.0 || z < 0.0;
-    default: return true;
-  }
-}
+// The domain and range tests (in_domain, in_range) read the table in family_traits.hpp.
 
 }  // namespace math
 }  // namespace powerback

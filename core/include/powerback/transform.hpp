@@ -10,7 +10,7 @@
 #include <string>
 #include <vector>
 
-#include "powerback/family_math.hpp"
+#include "powerback/family_traits.hpp"
 
 namespace powerback {
 
