@@ -134,9 +134,10 @@ void BinnedProfile::add_rows(std::size_t r0, const Eigen::Ref<const Eigen::Matri
   // read-modify-write of a bin's sums for every row and column.
   constexpr int S = kColumnSlot;
   using Slot = Eigen::Array<double, S, 1>;
-  std::vector<std::size_t>& bin = row_bin_;
-  std::vector<std::size_t>& start = bin_start_;
-  std::vector<double>& pw = row_pw_;
+  // Work space shared by every profile on this thread: many responses fed block by block then
+  // keep one copy in cache rather than one each.
+  thread_local std::vector<std::size_t> bin, start, next, order;
+  thread_local std::vector<double> pw;
   const std::size_t rows = static_cast<std::size_t>(nr);
   bin.resize(rows);
   pw.resize(rows * S);
@@ -147,10 +148,8 @@ void BinnedProfile::add_rows(std::size_t r0, const Eigen::Ref<const Eigen::Matri
     ++start[b + 1];
   }
   for (std::size_t b = 0; b < bins_; ++b) start[b + 1] += start[b];
-  std::vector<std::size_t>& next = bin_next_;
   next.assign(start.begin(), start.end() - 1);
   const std::size_t P = columns_ - 1;
-  std::vector<std::size_t>& order = row_order_;
   order.resize(rows);
   for (std::size_t r = 0; r < rows; ++r) {
     const std::size_t b = bin[r], k = next[b]++;
