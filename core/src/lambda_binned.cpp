@@ -11,15 +11,18 @@ namespace powerback {
 namespace detail {
 namespace {
 
-// delta, delta^2, ..., delta^K into out, by squaring and doubling (dependency depth log2 K
-// instead of a chain of K - 1 products).
-template <int K>
-inline void powers(double d, double* out) {
-  out[0] = d;
-  for (int have = 1; have < K; have *= 2) {
-    const double top = out[have - 1];
-    for (int m = 0; m < have && have + m < K; ++m) out[have + m] = out[m] * top;
-  }
+// delta^m / m! for m = 1..8 into out; the powers by squaring and doubling (dependency depth 3
+// instead of a chain of 7 products), written out so that they stay in registers.
+inline void column_terms(double d, const double* inv_fact, double* out) {
+  const double d2 = d * d, d3 = d * d2, d4 = d2 * d2;
+  out[0] = d * inv_fact[0];
+  out[1] = d2 * inv_fact[1];
+  out[2] = d3 * inv_fact[2];
+  out[3] = d4 * inv_fact[3];
+  out[4] = (d * d4) * inv_fact[4];
+  out[5] = (d2 * d4) * inv_fact[5];
+  out[6] = (d3 * d4) * inv_fact[6];
+  out[7] = (d4 * d4) * inv_fact[7];
 }
 
 template <int K>
@@ -118,40 +121,78 @@ std::size_t BinnedProfile::bin_of(Eigen::Index i) const {
 
 void BinnedProfile::add_rows(std::size_t r0, const Eigen::Ref<const Eigen::MatrixXd>& block) {
   if (!useful_ || columns_ == 0) return;
+  const auto column = [&](std::size_t c) { return &block.coeffRef(0, static_cast<Eigen::Index>(c)); };
   constexpr int K = kColumnTerms;
+  static_assert(K == 8, "column_terms writes 8 terms");
   static const InverseFactorials<K> inv_fact;
-  const Eigen::Index nr = block.rows(), cols = static_cast<Eigen::Index>(columns_);
-  // Per row: its bin and (1, delta^m / m! for m = 1..K, 0), then per column (the intercept's
-  // sums are count and s1): x times that slot into the row's bin, as packets.
+  const Eigen::Index nr = block.rows();
+  if (nr == 0) return;
+  // The block's rows ordered by bin (a stable counting sort: within a bin, in row order), each
+  // with (1, delta^m / m! for m = 1..K, 0) stored in that order. Then per bin and column (the
+  // intercept's sums are count and s1) the bin's sums stay in registers while its rows are
+  // added: the same additions in the same order as row by row, without a scattered
+  // read-modify-write of a bin's sums for every row and column.
   constexpr int S = kColumnSlot;
-  std::vector<std::size_t>& bin = row_bin_;
-  std::vector<double>& pw = row_pw_;
-  bin.resize(static_cast<std::size_t>(nr));
-  pw.resize(static_cast<std::size_t>(nr) * S);
-  for (Eigen::Index r = 0; r < nr; ++r) {
-    const Eigen::Index i = static_cast<Eigen::Index>(r0) + r;
-    const std::size_t b = bin_of(i);
-    bin[static_cast<std::size_t>(r)] = b;
-    double* w = &pw[static_cast<std::size_t>(r) * S];
+  using Slot = Eigen::Array<double, S, 1>;
+  // Work space shared by every profile on this thread: many responses fed block by block then
+  // keep one copy in cache rather than one each.
+  thread_local std::vector<std::size_t> bin, start, next, order;
+  thread_local std::vector<double> pw;
+  const std::size_t rows = static_cast<std::size_t>(nr);
+  bin.resize(rows);
+  pw.resize(rows * S);
+  start.assign(bins_ + 1, 0);
+  for (std::size_t r = 0; r < rows; ++r) {
+    const std::size_t b = bin_of(static_cast<Eigen::Index>(r0 + r));
+    bin[r] = b;
+    ++start[b + 1];
+  }
+  for (std::size_t b = 0; b < bins_; ++b) start[b + 1] += start[b];
+  next.assign(start.begin(), start.end() - 1);
+  const std::size_t P = columns_ - 1;
+  order.resize(rows);
+  for (std::size_t r = 0; r < rows; ++r) {
+    const std::size_t b = bin[r], k = next[b]++;
+    order[k] = r;
+    const Eigen::Index i = static_cast<Eigen::Index>(r0 + r);
+    double* w = &pw[k * S];
     w[0] = 1.0;
-    powers<K>(t_(i) - centre_[b], w + 1);
-    for (int m = 0; m < K; ++m) w[m + 1] *= inv_fact.v[m];
+    column_terms(t_(i) - centre_[b], inv_fact.v, w + 1);
     for (int m = K + 1; m < S; ++m) w[m] = 0.0;
     if (root_w_) {  // the block is scaled by sqrt(w) already: one more factor makes it w
       const double rw = (*root_w_)(i);
       for (int m = 0; m <= K; ++m) w[m] *= rw;
     }
   }
-  double* const acc = xm_.data();
-  const std::size_t* const rb = bin.data();
-  const double* const rw = pw.data();
   const std::size_t stride = columns_ * S;
-  for (Eigen::Index j = 1; j < cols; ++j) {
-    const double* x = &block.coeffRef(0, j);
-    double* const acc_j = acc + static_cast<std::size_t>(j) * S;
-    for (Eigen::Index r = 0; r < nr; ++r)
-      Eigen::Map<Eigen::Array<double, S, 1>>(acc_j + rb[r] * stride) +=
-          x[r] * Eigen::Map<const Eigen::Array<double, S, 1>>(rw + static_cast<std::size_t>(r) * S);
+  const double* const tw = pw.data();
+  const std::size_t* const ord = order.data();
+  for (std::size_t b = 0; b < bins_; ++b) {
+    const std::size_t k0 = start[b], k1 = start[b + 1];
+    if (k0 == k1) continue;
+    double* const rec = &xm_[b * stride];
+    std::size_t j = 0;
+    for (; j + 1 < P; j += 2) {  // two columns at a time: each row's terms loaded once
+      Eigen::Map<Slot> sums(rec + (j + 1) * S);
+      Eigen::Map<Slot> sums2(rec + (j + 2) * S);
+      const double* x = column(j + 1);
+      const double* x2 = column(j + 2);
+      Slot a = sums, a2 = sums2;
+      for (std::size_t k = k0; k < k1; ++k) {
+        const Eigen::Map<const Slot> terms(tw + k * S);
+        a += x[ord[k]] * terms;
+        a2 += x2[ord[k]] * terms;
+      }
+      sums = a;
+      sums2 = a2;
+    }
+    for (; j < P; ++j) {
+      Eigen::Map<Slot> sums(rec + (j + 1) * S);
+      const double* x = column(j + 1);
+      Slot a = sums;
+      for (std::size_t k = k0; k < k1; ++k) a += x[ord[k]] * Eigen::Map<const Slot>(tw + k * S);
+      sums = a;
+    }
   }
 }
 

@@ -99,8 +99,6 @@ class BinnedProfile {
   std::vector<double> xm_;        // response: per bin and design column, kColumnSlot values: sum x, sum x delta^m / m!
   std::vector<std::size_t> kept_; // response: the kept design columns
   Eigen::MatrixXd r_;             // response: their R
-  std::vector<std::size_t> row_bin_;  // add_rows' work space: each row's bin
-  std::vector<double> row_pw_;        // and its delta^m / m!
   mutable std::vector<double> a_, b_, e1_;
   mutable Eigen::VectorXd v_;
 };
