@@ -3,8 +3,7 @@
 # ratio at each n and the growth exponents. Not part of the tests.
 #   bash bench/run_compare_bench.sh [BUILDDIR] [n ...]   (default build/rdev; n = 1e4 3e4)
 # Installs the package with tools/dev_rtest.sh's build into BUILDDIR/Rlib first when it is not
-# there. Larger n (1e5, 1e6) take long while the smearing mean visits every pair of held-out
-# row and training residual (see bench/README.md).
+# there. n = 1e6 takes a few CPU minutes on each side.
 set -euo pipefail
 root=$(cd "$(dirname "$0")/.." && pwd)
 build=${1:-$root/build/rdev}

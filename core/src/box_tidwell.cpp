@@ -9,6 +9,7 @@
 #include "powerback/errors.hpp"
 #include "powerback/lambda.hpp"
 #include "powerback/least_squares.hpp"
+#include "box_tidwell_tall.hpp"
 
 namespace powerback {
 namespace detail {
@@ -22,6 +23,16 @@ void fit_at(const BoxTidwellData& d, const std::vector<double>& a, Eigen::Vector
             Eigen::VectorXd& g, Eigen::VectorXd* se_g) {
   const Index first_w = 1 + d.z.cols(), m = d.lx.cols();
   const auto fw = static_cast<std::size_t>(first_w), mm = static_cast<std::size_t>(m);
+  if (!se_g) {
+    // One pass over the rows: the base design [1 Z x^a] is the leading block of the augmented
+    // one, so R of [augmented | y] gives both fits (LeastSquares below when a column is aliased).
+    Eigen::MatrixXd r;
+    if (box_tidwell_tall_r(box_tidwell_design(d, a, true), d.y, r)) {
+      b = box_tidwell_leading_coefficients(r, first_w + m).segment(first_w, m);
+      g = box_tidwell_leading_coefficients(r, first_w + 2 * m).segment(first_w + m, m);
+      return;
+    }
+  }
   const LeastSquares base(box_tidwell_design(d, a, false), kRankTolerance);
   box_tidwell_require_kept(base.aliased(), fw, mm, "with the other predictors");
   b = base.coefficients(d.y).segment(first_w, m);

@@ -9,6 +9,7 @@
 
 #include "powerback/errors.hpp"
 #include "powerback/normality.hpp"
+#include "powerback/tall_qr.hpp"
 
 namespace powerback {
 
@@ -44,6 +45,29 @@ void breusch_pagan(const Model& m, ResidualChecks& out) {
   out.bp_p = boost::math::cdf(boost::math::complement(cs, std::max(out.bp_statistic, 0.0)));
 }
 
+// Rank and residual sum of squares of z on the augmented design. The Q-less blocked factor of
+// [aug | z] reads the rows once (a full Householder QR sweeps them once per column); its rank
+// rule is LeastSquares's, and z's own column being aliased means an exact fit (RSS 0).
+// LeastSquares remains the path for a non-finite entry, whose error it reports.
+void reset_fit(const Eigen::MatrixXd& aug, const Eigen::VectorXd& z, double* rank, double* rss) {
+  const Eigen::Index n = aug.rows(), c = aug.cols();
+  if (aug.allFinite() && z.allFinite()) {
+    Eigen::MatrixXd xz(n, c + 1);
+    xz.leftCols(c) = aug;
+    xz.col(c) = z;
+    const TallFactor f = factor_tall(xz.data(), static_cast<std::size_t>(n),
+                                     static_cast<std::size_t>(c + 1), false, kRankTolerance);
+    const bool z_kept = !f.kept.empty() && f.kept.back() == static_cast<std::size_t>(c);
+    *rank = static_cast<double>(f.rank()) - (z_kept ? 1.0 : 0.0);
+    const Eigen::Index last = static_cast<Eigen::Index>(f.rank()) - 1;
+    *rss = z_kept ? f.r(last, last) * f.r(last, last) : 0.0;
+    return;
+  }
+  const LeastSquares ls1(aug);
+  *rank = static_cast<double>(ls1.rank());
+  *rss = ls1.rss(z);
+}
+
 void reset(const Model& m, ResidualChecks& out) {
   const LeastSquares& ls = m.least_squares();
   const Eigen::Index n = static_cast<Eigen::Index>(m.n());
@@ -64,11 +88,11 @@ void reset(const Model& m, ResidualChecks& out) {
   }
   aug.col(k) = g.array().square().matrix();
   aug.col(k + 1) = g.array().cube().matrix();
-  const LeastSquares ls1(aug);
-  const double q = static_cast<double>(ls1.rank()) - static_cast<double>(k);
-  const double df2 = static_cast<double>(ls1.df_residual());
+  double rank1 = 0, rss1 = 0;
+  reset_fit(aug, m.transformed_response(), &rank1, &rss1);
+  const double q = rank1 - static_cast<double>(k);
+  const double df2 = static_cast<double>(n) - rank1;
   if (q < 1.0 || df2 < 1.0) return;
-  const double rss1 = ls1.rss(m.transformed_response());
   out.reset_df1 = q;
   out.reset_df2 = df2;
   if (!(rss1 > 0.0)) return;

@@ -1,5 +1,6 @@
 // Predictions of powerback::Model on the transformed scale and in original units.
 #include <boost/math/distributions/students_t.hpp>
+#include <atomic>
 #include <cmath>
 #include <memory>
 #include <string>
@@ -76,6 +77,17 @@ Prediction Model::predict_fitted(const PredictOptions& opt) const {
   return predict_rows(rows, std::move(flags), opt);
 }
 
+std::shared_ptr<const Smearing> Model::smearing() const {
+  std::shared_ptr<const Smearing> have = std::atomic_load(&smearing_cache_);
+  if (have) return have;
+  const Eigen::VectorXd& sr = smearing_residuals();
+  std::shared_ptr<const Smearing> fresh =
+      std::make_shared<const Smearing>(response_, sr.data(), static_cast<std::size_t>(sr.size()));
+  // A thread that built one at the same time keeps its own; the first stored is shared.
+  if (std::atomic_compare_exchange_strong(&smearing_cache_, &have, fresh)) return fresh;
+  return have;
+}
+
 Prediction Model::predict_rows(const Eigen::MatrixXd& rows, std::vector<unsigned> flags,
                                const PredictOptions& opt) const {
   const std::size_t m = static_cast<std::size_t>(rows.rows());
@@ -87,7 +99,6 @@ Prediction Model::predict_rows(const Eigen::MatrixXd& rows, std::vector<unsigned
   out.cut_mass.assign(m, math::kNaN);
   if (m == 0) return out;
   const Eigen::Index mi = static_cast<Eigen::Index>(m);
-  const Eigen::VectorXd& sr = smearing_residuals();
 
   // Aliased coefficients contribute nothing (as predict.lm with a rank-deficient fit).
   Eigen::VectorXd b = coef_;
@@ -105,10 +116,10 @@ Prediction Model::predict_rows(const Eigen::MatrixXd& rows, std::vector<unsigned
     for (Eigen::Index i = 0; i < mi; ++i) half(i) = q * sigma_ * std::sqrt(vf(i) + extra);
   }
 
-  // The smearing mean is built once from the residuals, then costs about O(1) per row.
-  std::unique_ptr<Smearing> smear;
+  // The smearing mean is built once per model from the residuals, then costs about O(1) per row.
+  std::shared_ptr<const Smearing> smear;
   if (!opt.transformed_scale && opt.center == Center::Mean && opt.mean_method == MeanMethod::Smearing)
-    smear.reset(new Smearing(response_, sr.data(), static_cast<std::size_t>(sr.size())));
+    smear = smearing();
 
   for (std::size_t i = 0; i < m; ++i) {
     if (out.flags[i] & kPredMissing) continue;

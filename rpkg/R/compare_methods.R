@@ -38,7 +38,7 @@ pwb_cmp_assemble <- function(learners, formula, dat, yname, family, level, fold_
       aic <- model$aic
     } else {
       full[[cand]] <<- list(lambdas = pwb_cmp_lambdas(model, yname))
-      adj <- summary(model$lm)$adj.r.squared
+      adj <- pwb_cmp_adj_r2(model)
       aic <- stats::AIC(model)
     }
     n_fit <- if (is.null(fold_tab)) 0L else sum(fold_tab$candidate == cand)
@@ -176,4 +176,24 @@ plot.pwb_comparison <- function(x, score = c("rmse_median", "mae_median", "r2_me
   }
   if (score == "coverage") graphics::abline(h = x$level, lty = 2)
   invisible(x)
+}
+
+# The adjusted R^2 of a fitted pwb_model on its own transformed scale, from the model's own
+# numbers (its weighted residual sum of squares, fitted values and residual df), as
+# summary.lm() defines it: R^2 = MSS / (MSS + RSS), MSS about the weighted mean of the fitted
+# values when the model has an intercept (about 0 without), rows of weight 0 not counted.
+pwb_cmp_adj_r2 <- function(model) {
+  fit <- model$fitted
+  w <- model$weights
+  if (is.null(w)) w <- rep(1, length(fit))
+  if (length(w) != length(fit)) return(summary(model$lm)$adj.r.squared)
+  keep <- w != 0
+  fit <- fit[keep]
+  w <- w[keep]
+  intercept <- attr(model$terms, "intercept") == 1L
+  mss <- if (intercept) sum(w * (fit - sum(w * fit) / sum(w))^2) else sum(w * fit^2)
+  rss <- model$rss
+  rdf <- model$df_residual
+  r2 <- mss / (mss + rss)
+  1 - (1 - r2) * ((length(fit) - intercept) / rdf)
 }

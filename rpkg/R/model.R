@@ -119,7 +119,9 @@ lm_transformed <- function(formula, data, response = "estimate", predictors = NU
   ptrs <- pwb_choose_predictor_transforms(predictors, vars_df, formula, xvars, yname, response,
                                           level, w)
   tdata <- pwb_transform_columns(vars_df, ptrs)
-  resp <- pwb_choose_response_transform(response, formula, tdata, family, level, range, w)
+  design <- pwb_model_design(list(formula = formula, contrasts = NULL), tdata)
+  resp <- pwb_choose_response_transform(response, formula, tdata, family, level, range, w,
+                                        design)
   if (isTRUE(resp$lambda$at_bound))
     warning(sprintf(paste0("the estimated response power %.4g lies at the edge of its search ",
                            "range [%g, %g]: widen it with `range =` (e.g. range = c(%g, %g)) ",
@@ -130,7 +132,6 @@ lm_transformed <- function(formula, data, response = "estimate", predictors = NU
                  predictors = ptrs, response_lambda = resp$lambda, estimated = resp$estimated,
                  yname = yname, xvars = xvars, na.action = attr(frame, "na.action"),
                  contrasts = NULL)
-  design <- pwb_model_design(object, tdata)
   handle <- rpwb_model_new(design$y, design$X, design$intercept,
                            pwb_spec_or_null(resp$transform), resp$estimated, w)
   s <- rpwb_model_summary(handle)
@@ -200,7 +201,8 @@ pwb_transform_columns <- function(vars_df, ptrs) {
 }
 
 # list(transform, lambda, estimated) for the response.
-pwb_choose_response_transform <- function(response, formula, tdata, family, level, range, w) {
+pwb_choose_response_transform <- function(response, formula, tdata, family, level, range, w,
+                                          design = NULL) {
   if (inherits(response, "pwb_transform"))
     return(list(transform = response, lambda = NULL, estimated = 0L))
   if (inherits(response, "pwb_lambda"))
@@ -211,9 +213,14 @@ pwb_choose_response_transform <- function(response, formula, tdata, family, leve
                 "or a pwb_lambda (estimate_response_lambda())"), call. = FALSE)
   if (response == "none")
     return(list(transform = new_transform("identity"), lambda = NULL, estimated = 0L))
-  args <- list(formula, data = tdata, family = family, range = range, level = level,
-               na.action = stats::na.fail)
-  if (!is.null(w)) args$weights <- w
-  lam <- do.call(estimate_response_lambda, args)
+  # the design already built for the fit serves when it can (see model_estimate.R)
+  lam <- if (is.null(design)) NULL else pwb_lambda_on_design(design, formula, family, level,
+                                                             range, w)
+  if (is.null(lam)) {
+    args <- list(formula, data = tdata, family = family, range = range, level = level,
+                 na.action = stats::na.fail)
+    if (!is.null(w)) args$weights <- w
+    lam <- do.call(estimate_response_lambda, args)
+  }
   list(transform = as_transform(lam, "convenient"), lambda = lam, estimated = 1L)
 }

@@ -26,6 +26,7 @@
 
 #include <Eigen/Dense>
 #include <cstddef>
+#include <memory>
 #include <vector>
 
 #include "powerback/backtransform.hpp"
@@ -33,6 +34,8 @@
 #include "powerback/transform.hpp"
 
 namespace powerback {
+
+class Smearing;
 
 enum class IntervalKind { None = 0, Confidence, Prediction };
 enum class Center { Median = 0, Mean };
@@ -146,6 +149,11 @@ class Model {
   Eigen::VectorXd weights_;  // empty when unweighted
   Eigen::VectorXd z_, coef_, se_, resid_, fitted_, smear_;
   double rss_ = 0, sigma_ = 0, loglik_ = 0, loglik_df_ = 0, jacobian_ = 0;
+  // The smearing mean's residual summary, built at the first prediction that needs it and kept
+  // (it depends only on the fit), so later predictions cost O(rows predicted), not O(n log n).
+  // Set once through atomic shared_ptr operations: concurrent const predictions stay safe.
+  std::shared_ptr<const Smearing> smearing() const;
+  mutable std::shared_ptr<const Smearing> smearing_cache_;
 };
 
 }  // namespace powerback
