@@ -9,6 +9,7 @@
 #include <cstdint>
 
 #include "powerback/accumulate_detail.hpp"
+#include "powerback/cancel.hpp"
 #include "powerback/transform.hpp"
 
 namespace powerback {
@@ -83,7 +84,7 @@ LambdaEstimate search_profile(const std::function<double(double)>& f, const Lamb
   est.lower = opt.lower;
   est.upper = opt.upper;
   std::uintmax_t it = kIterations;
-  const auto neg = [&](double l) { return -f(l); };
+  const auto neg = [&](double l) { poll_cancel(); return -f(l); };
   const auto best = boost::math::tools::brent_find_minima(neg, opt.lower, opt.upper, kMaxBits, it);
   bool ok = it < kIterations;
   double lhat = best.first, lmax = -best.second;

@@ -7,6 +7,7 @@
 #include <cstdint>
 #include <utility>
 
+#include "powerback/cancel.hpp"
 #include "powerback/errors.hpp"
 #include "powerback/lambda_maximise.hpp"
 #include "lambda_internal.hpp"
@@ -72,6 +73,7 @@ Side solve_side(G& g, double lhat, double g_hat, double h, double edge, double d
   const double steps[] = {0.95, 1.05};
   double step = steps[0] * h;
   for (int k = 0; k < 200; ++k) {
+    poll_cancel();
     double x = lhat + dir * step;
     const bool at_edge = dir * (x - edge) >= 0.0;
     if (at_edge) x = edge;
