@@ -43,7 +43,7 @@ export UBSAN_OPTIONS=print_stacktrace=1:halt_on_error=1
 # corpus as a regression-* file and from then on is checked by the replay.
 strict=${PWB_FUZZ_STRICT:-0}
 rc=0
-for target in spec transform estimators model compare; do
+for target in spec transform estimators model compare summary; do
   work="$build/fuzz-work/$target"
   rm -rf "$work"
   mkdir -p "$work/new"
