@@ -43,7 +43,7 @@ export UBSAN_OPTIONS=print_stacktrace=1:halt_on_error=1
 # corpus as a regression-* file and from then on is checked by the replay.
 strict=${PWB_FUZZ_STRICT:-0}
 rc=0
-for target in spec transform estimators model compare; do
+for target in spec transform estimators model compare summary; do
   work="$build/fuzz-work/$target"
   rm -rf "$work"
   mkdir -p "$work/new"
@@ -59,7 +59,8 @@ for target in spec transform estimators model compare; do
   if (cd "$work" && "$exe" -max_total_time="$secs" -timeout=20 \
         -rss_limit_mb=2048 -print_final_stats=1 "$work/new" "$corpus" >"$log" 2>&1); then
     runs=$(sed -nE 's/^stat::number_of_executed_units: *([0-9]+)/\1/p' "$log" | tail -n 1)
-    echo "fuzz_$target: corpus replayed; ${runs:-?} new inputs in ${secs}s, no failure"
+    rate=$(sed -nE 's/^stat::average_exec_per_sec: *([0-9]+)/\1/p' "$log" | tail -n 1)
+    echo "fuzz_$target: corpus replayed; ${runs:-?} inputs run in ${secs}s (${rate:-?}/s), no failure"
   else
     echo "fuzz_$target: FINDING while exploring (reproducer and log in $work)"
     grep -E 'ERROR|invariant broken|runtime error|SUMMARY|Test unit written' "$log" | head -n 20 || true

@@ -704,6 +704,10 @@ PWB_API void pwb_predict_options_init(pwb_predict_options *opt);
                                set to its limit (0 or +Inf of the family's argument, mapped
                                through the shift and reflection), or overflowed */
 #define PWB_PRED_MISSING 2u /* the row of Xnew had a NaN or infinite entry; outputs are NaN */
+#define PWB_PRED_OVERFLOW 4u /* every entry of the row was finite but x'b overflowed the double
+                                range (a predictor or coefficient of extreme magnitude): fit,
+                                lwr and upr are NaN; or only the interval's half-width
+                                overflowed: lwr and upr are NaN, fit is kept */
 
 /* Predicts `rows` new rows. Xnew: rows-by-p, column-major, the same p columns as the fit's X
  * (NULL allowed when rows or p is 0). Writes fit[i] always, lwr[i]/upr[i] (lower <= upper; NaN when

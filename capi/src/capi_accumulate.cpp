@@ -1,6 +1,7 @@
 // Summaries of chunked data through the C ABI: lambda summaries and their grid passes, fit
 // summaries and their check passes.
 #include <cmath>
+#include <utility>
 #include <vector>
 
 #include "capi_internal.hpp"
@@ -114,6 +115,17 @@ pwb_status deserialize_handle(const unsigned char* buf, std::size_t len, H** out
   });
 }
 
+// Adds a chunk to a copy that replaces the summary only once the whole chunk is in: an add
+// stopped midway (by the caller's interrupt check between blocks of rows, or by memory) leaves
+// the summary as it was. The copy's size depends on p and the bins, never on the rows.
+template <class Summary>
+void add_whole(Summary& impl, const double* y, const double* X, size_t rows, size_t ld,
+               const double* weights) {
+  Summary next(impl);
+  next.add(y, X, rows, ld, weights);
+  impl = std::move(next);
+}
+
 }  // namespace
 
 extern "C" {
@@ -146,7 +158,7 @@ pwb_status pwb_lambda_summary_add(pwb_lambda_summary* s, const double* y, const 
   return capi::guarded([&] {
     capi::need(s, "s");
     check_chunk(y, X, rows, ld, s->impl.predictors());
-    s->impl.add(y, X, rows, ld, weights);
+    add_whole(s->impl, y, X, rows, ld, weights);
   });
 }
 
@@ -207,7 +219,7 @@ pwb_status pwb_lambda_pass_add(pwb_lambda_pass* pass, const double* y, const dou
     if (rows > 0 && X) {
       if (ld < rows) throw Error(ErrorCode::Argument, "ld is smaller than rows");
     }
-    pass->impl.add(y, X, rows, ld, weights);
+    add_whole(pass->impl, y, X, rows, ld, weights);
   });
 }
 
@@ -267,7 +279,7 @@ pwb_status pwb_fit_summary_add(pwb_fit_summary* s, const double* y, const double
   return capi::guarded([&] {
     capi::need(s, "s");
     check_chunk(y, X, rows, ld, s->impl.predictors());
-    s->impl.add(y, X, rows, ld, weights);
+    add_whole(s->impl, y, X, rows, ld, weights);
   });
 }
 
@@ -333,7 +345,7 @@ pwb_status pwb_fit_checks_add(pwb_fit_checks* c, const double* y, const double* 
     capi::need(c, "c");
     capi::need_array(y, rows, "y");
     if (rows > 0 && X && ld < rows) throw Error(ErrorCode::Argument, "ld is smaller than rows");
-    c->impl.add(y, X, rows, ld, weights);
+    add_whole(c->impl, y, X, rows, ld, weights);
   });
 }
 

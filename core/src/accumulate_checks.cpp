@@ -8,6 +8,7 @@
 
 #include "powerback/accumulate_detail.hpp"
 #include "powerback/backtransform.hpp"
+#include "powerback/cancel.hpp"
 #include "powerback/least_squares.hpp"
 
 namespace powerback {
@@ -91,6 +92,7 @@ void FitCheckPass::add(const double* y, const double* X, std::size_t rows, std::
   Eigen::MatrixXd wr(kr + static_cast<Eigen::Index>(kBlockRows), kr);
   std::vector<double> x(k);
   for (std::size_t r0 = 0; r0 < rows; r0 += kBlockRows) {
+    poll_cancel();
     const std::size_t r1 = std::min(rows, r0 + kBlockRows);
     Eigen::Index nr = 0;
     for (std::size_t i = r0; i < r1; ++i) {

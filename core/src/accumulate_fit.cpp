@@ -4,6 +4,7 @@
 #include <limits>
 
 #include "powerback/accumulate_detail.hpp"
+#include "powerback/cancel.hpp"
 #include "powerback/least_squares.hpp"
 
 namespace powerback {
@@ -48,6 +49,7 @@ void FitSummary::add(const double* y, const double* X, std::size_t rows, std::si
   const Eigen::Index c = static_cast<Eigen::Index>(s.p + 2);
   Eigen::MatrixXd work(c + static_cast<Eigen::Index>(kBlockRows), c);
   for (std::size_t r0 = 0; r0 < rows; r0 += kBlockRows) {
+    poll_cancel();
     const std::size_t r1 = std::min(rows, r0 + kBlockRows);
     Eigen::Index nr = 0;
     for (std::size_t i = r0; i < r1; ++i) {

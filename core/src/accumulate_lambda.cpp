@@ -4,6 +4,7 @@
 #include <limits>
 
 #include "powerback/accumulate_detail.hpp"
+#include "powerback/cancel.hpp"
 #include "powerback/least_squares.hpp"
 
 namespace powerback {
@@ -127,6 +128,7 @@ void LambdaSummary::add(const double* y, const double* X, std::size_t rows, std:
   double pw[K + 1];
   std::size_t since_flush = 0;
   for (std::size_t r0 = 0; r0 < rows; r0 += kBlockRows) {
+    poll_cancel();
     const std::size_t r1 = std::min(rows, r0 + kBlockRows);
     Eigen::Index nr = 0;
     for (std::size_t i = r0; i < r1; ++i) {

@@ -7,6 +7,7 @@
 #include <limits>
 
 #include "powerback/accumulate_detail.hpp"
+#include "powerback/cancel.hpp"
 
 namespace powerback {
 
@@ -92,6 +93,7 @@ void LambdaGridPass::add(const double* y, const double* X, std::size_t rows, std
   const bool yj = s.family == Family::YeoJohnson;
   Eigen::MatrixXd work(width + static_cast<Eigen::Index>(kGridBlockRows), width);
   for (std::size_t r0 = 0; r0 < rows; r0 += kGridBlockRows) {
+    poll_cancel();
     const std::size_t r1 = std::min(rows, r0 + kGridBlockRows);
     Eigen::Index nr = 0;
     for (std::size_t i = r0; i < r1; ++i) {

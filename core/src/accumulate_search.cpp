@@ -3,6 +3,7 @@
 #include <cmath>
 
 #include "powerback/accumulate_detail.hpp"
+#include "powerback/cancel.hpp"
 #include "powerback/lambda_maximise.hpp"
 #include "powerback/transform.hpp"
 
@@ -17,7 +18,12 @@ void check_lambda_options(const LambdaOptions& opt) {
           "the confidence level must lie strictly between 0 and 1; got " + format_number(opt.level));
 }
 
-LambdaEstimate search_profile(const std::function<double(double)>& f, const LambdaOptions& opt) {
+LambdaEstimate search_profile(const std::function<double(double)>& loglik, const LambdaOptions& opt) {
+  // A summary's profile is cheap per evaluation but a search makes many: poll between them.
+  const std::function<double(double)> f = [&](double l) {
+    poll_cancel();
+    return loglik(l);
+  };
   LambdaEstimate est;
   est.level = opt.level;
   est.lower = opt.lower;

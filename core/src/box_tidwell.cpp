@@ -6,6 +6,7 @@
 #include <cmath>
 #include <string>
 
+#include "powerback/cancel.hpp"
 #include "powerback/errors.hpp"
 #include "powerback/lambda.hpp"
 #include "powerback/least_squares.hpp"
@@ -55,6 +56,7 @@ void box_tidwell_iterate(const BoxTidwellData& d, const BoxTidwellOptions& opt,
   res.history.assign(1, a);
   Eigen::VectorXd b, g;
   for (int it = 0; it < opt.max_iter; ++it) {
+    poll_cancel();  // each iteration is a least-squares fit
     fit_at(d, a, b, g, nullptr);
     std::vector<double> next(m);
     double change = 0;

@@ -99,7 +99,7 @@ void box_tidwell_score_tests(const BoxTidwellData& d, BoxTidwellResult& res) {
     const double df = static_cast<double>(ls.df_residual());
     const double s2 = ls.rss(d.y) / df;
     const double g = ls.coefficients(d.y)(added);
-    const double se = std::sqrt(s2 * ls.unscaled_covariance()(added, added));
+    const double se = std::sqrt(s2 * ls.unscaled_variances()(added));
     res.score_t[j] = g / se;
     res.score_df = df;
     const boost::math::students_t dist(df);

@@ -7,6 +7,7 @@
 #include <string>
 
 #include "powerback/crossval.hpp"
+#include "powerback/cancel.hpp"
 #include "powerback/errors.hpp"
 
 namespace powerback {
@@ -93,6 +94,7 @@ std::vector<int> make_folds_by(std::size_t n, int k, int repeats, std::uint64_t 
   std::vector<int> fold(n * static_cast<std::size_t>(repeats));
   std::vector<std::size_t> order(n);
   for (int r = 0; r < repeats; ++r) {
+    poll_cancel();  // each repeat shuffles (and may sort) all n rows
     std::mt19937_64 gen = repeat_stream(seed, r);
     int* out = fold.data() + static_cast<std::size_t>(r) * n;
     if (groups) {

@@ -7,6 +7,7 @@
 #include <vector>
 
 #include "powerback/crossval.hpp"
+#include "powerback/cancel.hpp"
 #include "powerback/errors.hpp"
 
 namespace powerback {
@@ -158,6 +159,7 @@ HoldoutScores holdout_scores(const double* y, const double* fit, const double* l
   if (w) check_weights(w, n);
   HoldoutScores s;
   s.n = n;
+  poll_cancel();  // the scores sort the held-out rows (for medians)
   score_points(y, fit, w, n, s);
   if (lwr) {
     score_intervals(y, lwr, upr, w, n, s);

@@ -13,6 +13,7 @@
 #include <type_traits>
 #include <utility>
 
+#include "powerback/cancel.hpp"
 #include "powerback/errors.hpp"
 #include "powerback/family_math.hpp"
 #include "powerback/lambda_maximise.hpp"
@@ -36,6 +37,8 @@ constexpr double kInterpolationTarget = 1e-17;
 constexpr double kDirectLimit = 300.0;
 // A leverage this close to 1 means the row is fitted exactly: its residual is 0 at every lambda.
 constexpr double kUnitLeverage = 1e-10;
+// Rows of the leave-one-out loop between two polls of the caller's cancel check.
+constexpr Index kRowsPerPoll = 256;
 
 // The rows used (weight > 0) in the form the residuals need: every power of the family is
 // s_i expm1(k_i t_i) / k_i with k_i = lambda, or 2 - lambda for Yeo-Johnson's negatives (s = -1).
@@ -164,6 +167,7 @@ class SharedWindow {
     coef_.resize(n, K * P);
     Eigen::MatrixXd values(n, K);
     for (Index p = 0; p < P; ++p) {
+      poll_cancel();  // each panel costs K least-squares passes
       for (Index k = 0; k < K; ++k)
         values.col(k) = normalised_residuals(r, ls, grid[static_cast<std::size_t>(p * K + k)]);
       coef_.middleCols(p * K, K).noalias() = values * to_coef;
@@ -328,6 +332,7 @@ LambdaInfluence lambda_influence(const double* y, const double* X, std::size_t n
   Eigen::VectorXd exact_u;
   const auto exact = [&](double lambda) {
     if (lambda != exact_at) {
+      poll_cancel();  // an exact evaluation is a full least-squares pass
       exact_u = normalised_residuals(rows, *ls, lambda);
       exact_l = profile({lambda})[0];
       exact_at = lambda;
@@ -340,6 +345,7 @@ LambdaInfluence lambda_influence(const double* y, const double* X, std::size_t n
   out.at_bound.assign(n, out.full.at_bound ? 1 : 0);
   out.converged.assign(n, out.full.converged ? 1 : 0);
   for (Index i = 0; i < static_cast<Index>(N); ++i) {
+    if (i % kRowsPerPoll == 0) poll_cancel();  // a row's maximisation alone is too cheap to poll
     const double d_i = rows.d(i), h_i = h(i);
     ProfileMaximum best = maximise_profile(
         [&](double l) { return row_profile(window.loglik(l), window.u(i, l), l, d_i, h_i); }, a, b);

@@ -6,6 +6,7 @@
 #include <limits>
 
 #include "lambda_internal.hpp"
+#include "powerback/cancel.hpp"
 #include "powerback/errors.hpp"
 #include "powerback/transform.hpp"
 
@@ -127,6 +128,7 @@ void LambdaProfile::log_rss_direct(const double* lambdas, std::size_t m, double*
   Eigen::RowVectorXd wsum = Eigen::RowVectorXd::Zero(nl);  // sum w z per lambda
   for (Eigen::Index r0 = 0; r0 < n; r0 += kDirectBlockRows) {
     const Eigen::Index nr = std::min(kDirectBlockRows, n - r0);
+    poll_cancel();
     fill(r0, nr);
     gather_xz(r0, nr, C);
     if (weighted) wsum.noalias() += root_w_.segment(r0, nr).matrix().transpose() * Z;
@@ -139,6 +141,7 @@ void LambdaProfile::log_rss_direct(const double* lambdas, std::size_t m, double*
   Eigen::ArrayXd rss = Eigen::ArrayXd::Zero(nl), tss = Eigen::ArrayXd::Zero(nl);
   for (Eigen::Index r0 = 0; r0 < n; r0 += kDirectBlockRows) {
     const Eigen::Index nr = std::min(kDirectBlockRows, n - r0);
+    poll_cancel();
     fill(r0, nr);
     if (log_tss) {
       for (Eigen::Index j = 0; j < nl; ++j) {

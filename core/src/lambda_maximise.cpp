@@ -10,6 +10,8 @@
 #include <limits>
 #include <utility>
 
+#include "powerback/cancel.hpp"
+
 namespace powerback {
 namespace {
 
@@ -62,6 +64,7 @@ Side solve_side(const Fn& g, double lhat, double g_hat, double h, double edge, d
   const double steps[] = {0.95, 1.05};
   double step = steps[0] * h;
   for (int k = 0; k < 200; ++k) {
+    poll_cancel();
     double x = lhat + dir * step;
     const bool at_edge = dir * (x - edge) >= 0.0;
     if (at_edge) x = edge;

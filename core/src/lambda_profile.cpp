@@ -6,6 +6,7 @@
 #include <limits>
 
 #include "lambda_internal.hpp"
+#include "powerback/cancel.hpp"
 #include "powerback/errors.hpp"
 #include "powerback/tall_qr.hpp"
 #include "powerback/transform.hpp"
@@ -332,6 +333,7 @@ double LambdaProfile::loglik(double lambda, bool direct) const {
 
 void LambdaProfile::loglik_batch(const double* lambdas, std::size_t m, double* out,
                                  bool direct) const {
+  poll_cancel();  // once per batch of lambda evaluations
   std::vector<double> pending;
   std::vector<std::size_t> where;
   for (std::size_t j = 0; j < m; ++j) {

@@ -5,6 +5,7 @@
 #include <cstdint>
 #include <utility>
 
+#include "powerback/cancel.hpp"
 #include "powerback/errors.hpp"
 #include "powerback/lambda_maximise.hpp"
 #include "lambda_internal.hpp"

@@ -206,6 +206,13 @@ Eigen::MatrixXd LeastSquares::unscaled_covariance() const {
   return c;
 }
 
+Eigen::VectorXd LeastSquares::unscaled_variances() const {
+  Eigen::VectorXd v = Eigen::VectorXd::Constant(design_.cols(), std::numeric_limits<double>::quiet_NaN());
+  for (std::size_t a = 0; a < kept_.size(); ++a)
+    v(static_cast<Eigen::Index>(kept_[a])) = r_inv_.row(static_cast<Eigen::Index>(a)).squaredNorm();
+  return v;
+}
+
 Eigen::VectorXd LeastSquares::leverages() const {
   const Eigen::Index n = design_.rows(), k = static_cast<Eigen::Index>(rank());
   const Eigen::MatrixXd q1 = HouseholderQ(packed_, hcoeffs_) * Eigen::MatrixXd::Identity(n, k);

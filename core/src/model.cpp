@@ -117,9 +117,7 @@ Model::Model(const double* y, const double* X, std::size_t n, std::size_t p, boo
       smear_(k) = std::sqrt(weights[i]) * resid_(static_cast<Eigen::Index>(i));
     }
     sigma_ = std::sqrt(rss_ / static_cast<double>(ls_.df_residual()));
-    const Eigen::MatrixXd cov = ls_.unscaled_covariance();
-    se_.resize(cov.rows());
-    for (Eigen::Index j = 0; j < cov.rows(); ++j) se_(j) = sigma_ * std::sqrt(cov(j, j));
+    se_ = sigma_ * ls_.unscaled_variances().array().sqrt().matrix();  // NaN stays NaN
   }
   const double nd = static_cast<double>(ls_.n());
   // Normal log-likelihood of z at the MLE variance RSS / N (as R's logLik.lm, weighted or not),
@@ -144,9 +142,7 @@ void Model::finish_unweighted() {
   resid_ = z_ - fitted_;
   rss_ = ls_.rss(z_);
   sigma_ = std::sqrt(rss_ / static_cast<double>(ls_.df_residual()));
-  const Eigen::MatrixXd cov = ls_.unscaled_covariance();
-  se_.resize(cov.rows());
-  for (Eigen::Index j = 0; j < cov.rows(); ++j) se_(j) = sigma_ * std::sqrt(cov(j, j));  // NaN stays NaN
+  se_ = sigma_ * ls_.unscaled_variances().array().sqrt().matrix();  // NaN stays NaN
 }
 
 std::vector<bool> Model::aliased() const {

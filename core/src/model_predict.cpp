@@ -124,7 +124,15 @@ Prediction Model::predict_rows(const Eigen::MatrixXd& rows, std::vector<unsigned
   for (std::size_t i = 0; i < m; ++i) {
     if (out.flags[i] & kPredMissing) continue;
     const Eigen::Index ii = static_cast<Eigen::Index>(i);
-    const double lo = mu(ii) - half(ii), hi = mu(ii) + half(ii);
+    // A linear predictor that overflowed (a huge predictor times a coefficient, or two infinite
+    // terms of opposite sign giving NaN) has no value to report or back-transform.
+    if (!std::isfinite(mu(ii))) {
+      out.flags[i] |= kPredOverflow;
+      continue;
+    }
+    const bool wide = opt.interval != IntervalKind::None && !std::isfinite(half(ii));
+    if (wide) out.flags[i] |= kPredOverflow;
+    const double lo = wide ? math::kNaN : mu(ii) - half(ii), hi = wide ? math::kNaN : mu(ii) + half(ii);
     if (opt.transformed_scale) {
       out.fit[i] = mu(ii);
       out.lower[i] = lo;
@@ -138,7 +146,7 @@ Prediction Model::predict_rows(const Eigen::MatrixXd& rows, std::vector<unsigned
     else f = normal_mean(response_, mu(ii), sigma_, &out.cut_mass[i]);
     out.fit[i] = f.value;
     bool bounded = f.bounded;
-    if (opt.interval != IntervalKind::None) {
+    if (opt.interval != IntervalKind::None && !wide) {
       const BackInterval iv = interval_back(response_, lo, hi);
       out.lower[i] = iv.lower;
       out.upper[i] = iv.upper;

@@ -37,9 +37,11 @@ pwb_cmp_assemble <- function(learners, formula, dat, yname, family, level, fold_
       adj <- NA_real_
       aic <- model$aic
     } else {
-      full[[cand]] <<- list(lambdas = pwb_cmp_lambdas(model, yname))
+      # rows at the boundary of the response transform's domain make AIC Inf: said in print()
+      full[[cand]] <<- list(lambdas = pwb_cmp_lambdas(model, yname),
+                            boundary_rows = pwb_boundary_rows(model))
       adj <- pwb_cmp_adj_r2(model)
-      aic <- stats::AIC(model)
+      aic <- stats::AIC(pwb_loglik(model))
     }
     n_fit <- if (is.null(fold_tab)) 0L else sum(fold_tab$candidate == cand)
     data.frame(candidate = cand, t(means), width_median = stat("width_median", stats::median),
@@ -65,7 +67,9 @@ pwb_cmp_assemble <- function(learners, formula, dat, yname, family, level, fold_
 #'
 #' `print()` shows the ranked candidates (those with every fold scored, by held-out RMSE of the
 #' median back-transform), then the unranked ones apart, then notes on unscored folds, failures
-#' and factor levels missing from a training part. Tables wider than `getOption("width")` are
+#' and factor levels missing from a training part, and for a candidate whose `aic` is `Inf`
+#' because rows of the response lie at the boundary of its transform's domain (their
+#' log-Jacobian is `-Inf`), which rows and what to do. Tables wider than `getOption("width")` are
 #' split into blocks that each repeat the candidate column. `plot()` draws one held-out score
 #' per fold for each candidate (open circles) and its mean over the scored folds (filled).
 #'
@@ -117,6 +121,10 @@ print.pwb_comparison <- function(x, digits = 4, ...) {
                               "with an infinite end, which still cover). aic is comparable ",
                               "across candidates; adj_r2_own is on each candidate's own scale ",
                               "and is NOT."), 100 * x$level))
+  for (cand in names(x$full)) {
+    note <- pwb_boundary_note(x$full[[cand]]$boundary_rows, x$yname)
+    if (!is.null(note)) pwb_cat_wrap(cand, ": aic is Inf. ", note)
+  }
   if (!is.null(x$folds) && nrow(x$folds)) {
     nonfinite <- tapply(x$folds$n_nonfinite, x$folds$candidate, sum)
     nonfinite <- nonfinite[nonfinite > 0]

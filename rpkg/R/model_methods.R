@@ -17,7 +17,11 @@
 #'     transformed response at the maximum-likelihood sigma, plus the log-Jacobian of the response
 #'     transform, so `AIC()` and `BIC()` compare models with different response transforms of
 #'     the same response; its `df` counts the coefficients, sigma, and 1 when the response power
-#'     was estimated from the data.
+#'     was estimated from the data. When rows of the response lie at the boundary of the
+#'     transform's domain (such as y = 0 under a power other than 1) their log-Jacobian is
+#'     `-Inf`: `logLik()` is then `-Inf` and warns, naming the rows, that it is not comparable
+#'     with other models (shift the response or use Yeo-Johnson); `print()` and `summary()`
+#'     say the same.
 #' }
 #' `coef()`, `vcov()`, `confint()`, `sigma()`, `df.residual()` and `deviance()` (the weighted
 #' residual sum of squares) are on the transformed scale. Influence measures are in
@@ -69,9 +73,11 @@ print.pwb_model <- function(x, ...) {
   print(x$coefficients, digits = 4L)
   cat(sprintf("\nResidual standard error %.4g on %d df; n = %d\n", x$sigma,
               as.integer(x$df_residual), as.integer(x$nobs)))
-  ll <- logLik(x)
+  ll <- pwb_loglik(x)
   cat(sprintf("Original-scale log-likelihood %.4f (df = %g), AIC %.4f\n", as.numeric(ll),
               attr(ll, "df"), stats::AIC(ll)))
+  note <- pwb_boundary_note(pwb_boundary_rows(x), x$yname)
+  if (!is.null(note)) pwb_cat_wrap("Note: ", note)
   cat("Fitted values back-transform to medians; use predict(center = \"mean\") for means.\n")
   invisible(x)
 }
@@ -89,7 +95,8 @@ summary.pwb_model <- function(object, ...) {
                  df = c(object$rank, df, length(object$coefficients)),
                  response = object$response, predictors = object$predictors,
                  yname = object$yname, formula = object$formula, weighted = object$weighted,
-                 response_lambda = object$response_lambda, loglik = logLik(object)),
+                 response_lambda = object$response_lambda, loglik = pwb_loglik(object),
+                 boundary_note = pwb_boundary_note(pwb_boundary_rows(object), object$yname)),
             class = "summary.pwb_model")
 }
 
@@ -112,6 +119,7 @@ print.summary.pwb_model <- function(x, digits = max(3L, getOption("digits") - 3L
               format(signif(x$sigma, digits)), as.integer(x$df[2L])))
   cat(sprintf("Original-scale log-likelihood %.4f (df = %g), AIC %.4f\n", as.numeric(x$loglik),
               attr(x$loglik, "df"), stats::AIC(x$loglik)))
+  if (!is.null(x$boundary_note)) pwb_cat_wrap("Note: ", x$boundary_note)
   cat("A transform changes what coefficients mean; back-transformed fits are medians.\n")
   invisible(x)
 }
@@ -197,6 +205,13 @@ pwb_fitted_median <- function(object) {
 #' @rdname pwb_model_methods
 #' @export
 logLik.pwb_model <- function(object, ...) {
+  note <- pwb_boundary_note(pwb_boundary_rows(object), object$yname)
+  if (!is.null(note)) warning(note, call. = FALSE)
+  pwb_loglik(object)
+}
+
+# The logLik object without the boundary warning (print and summary say it in their own text).
+pwb_loglik <- function(object) {
   structure(object$loglik, df = object$loglik_df, nobs = object$nobs, class = "logLik")
 }
 

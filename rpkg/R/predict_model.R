@@ -53,6 +53,8 @@
 #' Where the inverse has a limited range (for example Box-Cox with a power other than 0 needs
 #' `1 + lambda * z > 0`) a value beyond the limit is set to the limit in original units (such as
 #' 0 or `Inf`) and the row is marked in the column `bounded`.
+#' A row whose linear predictor overflows the floating-point range (finite predictor values
+#' of extreme magnitude) comes back `NA` with a warning naming it.
 #'
 #' `se.fit = TRUE` adds the standard errors of the transformed-scale fit
 #' (\eqn{\sigma\sqrt{x_0'(X'WX)^{-1}x_0}}, as [stats::predict.lm()] gives them) and returns a
@@ -166,6 +168,12 @@ predict.pwb_model <- function(object, newdata, se.fit = FALSE,
                     bounded = bitwAnd(res$flags, 1L) > 0L,
                     invalid = rep(FALSE, length(res$fit)))
   out$invalid[bad] <- TRUE
+  over <- which(bitwAnd(res$flags, 4L) > 0L)  # PWB_PRED_OVERFLOW: x'b beyond the double range
+  if (length(over))
+    warning(sprintf(paste0("x'b overflows the floating-point range in %d %s (%s): predictor ",
+                           "values of extreme magnitude; those predictions are NA. Rescale ",
+                           "the predictors (e.g. other units)"), length(over),
+                    pwb_plural(length(over), "row"), pwb_format_rows(over)), call. = FALSE)
   se <- res$se
   if (center == "mean" && mean_method == "normal" && type == "response")
     out$cut_mass <- res$cut_mass

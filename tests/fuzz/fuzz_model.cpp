@@ -1,6 +1,6 @@
 // Model fit and predict on any data, response transform and options: no crash, statuses from
 // the enumeration, a fitted model's getters work, and predictions with PWB_OK are written for
-// every row (NaN only for rows flagged missing).
+// every row (NaN only for rows flagged missing, bounded or overflowed).
 #include <cmath>
 #include <cstring>
 
@@ -64,7 +64,7 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
   pwbfuzz::check_status(sp);
   if (sp == PWB_OK)
     for (std::size_t i = 0; i < rows; ++i)
-      if (std::isnan(fit[i]) && !(flags[i] & PWB_PRED_MISSING) && !(flags[i] & PWB_PRED_BOUNDED) &&
+      if (std::isnan(fit[i]) && !(flags[i] & (PWB_PRED_MISSING | PWB_PRED_BOUNDED | PWB_PRED_OVERFLOW)) &&
           std::isfinite(info.sigma))
         pwbfuzz::fail("a prediction is NaN without a flag");
   pwb_residual_checks rc;

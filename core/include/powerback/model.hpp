@@ -52,6 +52,9 @@ struct PredictOptions {
 // Flags of one predicted row (bit set).
 constexpr unsigned kPredBounded = 1u;  // a value was set to the range limit of the inverse
 constexpr unsigned kPredMissing = 2u;  // the row had a non-finite predictor: outputs are NaN
+// x'b (or its interval half-width) overflowed the double range although every predictor was
+// finite (predictors or coefficients of extreme magnitude): the overflowed outputs are NaN.
+constexpr unsigned kPredOverflow = 4u;
 
 struct Prediction {
   std::vector<double> fit, lower, upper;  // lower/upper NaN when interval is None

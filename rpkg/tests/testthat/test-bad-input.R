@@ -1,5 +1,6 @@
 # Bad and extreme input, one row per case: the input, and either the error it must raise (a
-# regular expression matched against the message) or a check of the result it must return.
+# regular expression matched against the message) or a check of the result it must return
+# (after the warning it must give, when the row names one).
 # Every entry point refuses what it cannot handle with a message naming the problem; extreme
 # but valid input gives the right numbers.
 
@@ -115,13 +116,15 @@ cases <- list(
          expect_false(any(grepl("identical", out)))
        }),
   # a power response with lambda in (0, 1] and a zero y: the Jacobian is degenerate there, so
-  # the log-likelihood is -Inf and AIC ranks the model last, never first
+  # the log-likelihood is -Inf and AIC ranks the model last, never first, and says why in words
   list(what = "a square-root-power response with a zero y",
        expr = quote(lm_transformed(y ~ x, data.frame(y = c(0, 1, 4, 9, 16, 25, 37), x = 1:7),
                                    response = new_transform("power", lambda = 0.5))),
        check = function(f) {
-         expect_identical(as.numeric(logLik(f)), -Inf)
-         expect_identical(AIC(f), Inf)
+         expect_warning(ll <- logLik(f), "1 row \\(row 1\\) lies at the boundary.*Yeo-Johnson")
+         expect_identical(as.numeric(ll), -Inf)
+         expect_identical(suppressWarnings(AIC(f)), Inf)
+         expect_true(any(grepl("boundary", capture.output(print(f)))))
        }),
   # overflow of finite input
   list(what = "Box-Cox lambda = 2 at 1e300 overflows",
@@ -171,6 +174,20 @@ cases <- list(
        expr = quote(predict(lm_transformed(y ~ x1, dat, response = "none"),
                             transform(dat, x1 = as.character(x1)))),
        error = "x1"),
+  # a linear predictor beyond the double range (finite x of extreme magnitude): NA, flagged, said
+  list(what = "new predictor values whose x'b overflows",
+       expr = quote(predict(lm_transformed(y ~ x, data.frame(x = 1:10, y = 1000 * (1:10) + sin(1:10)),
+                                           response = "none"),
+                            data.frame(x = c(1e306, 2, -1e306)), interval = "prediction")),
+       warning = "overflows.*2 rows \\(1, 3\\)",
+       check = function(p) {
+         expect_true(all(is.na(p[c(1, 3), c("fit", "lwr", "upr")])))
+         # the ordinary row as base R's predict.lm gives it; 1e-10: two QRs, rounding only
+         ref <- predict(lm(y ~ x, data.frame(x = 1:10, y = 1000 * (1:10) + sin(1:10))),
+                        data.frame(x = 2), interval = "prediction")
+         expect_equal(unname(unlist(p[2, c("fit", "lwr", "upr")])), unname(ref[1, ]),
+                      tolerance = 1e-10)
+       }),
   list(what = "a matrix keeps its dimensions through a transform",
        expr = quote(apply_transform(new_transform("log"), matrix(1:4, 2))),
        check = function(v) expect_identical(dim(v), c(2L, 2L)))
@@ -180,6 +197,9 @@ for (cs in cases) {
   test_that(paste("bad input:", cs$what), {
     if (!is.null(cs$error)) {
       expect_error(eval(cs$expr), cs$error)
+    } else if (!is.null(cs$warning)) {
+      expect_warning(res <- eval(cs$expr), cs$warning)
+      cs$check(res)
     } else {
       res <- eval(cs$expr)
       cs$check(res)
