@@ -19,7 +19,8 @@ bool box_tidwell_tall_r(const Eigen::MatrixXd& x, const Eigen::VectorXd& y, Eige
                                static_cast<std::size_t>(k + 1), false, kRankTolerance);
     if (!f.aliased.empty()) return false;
     r = std::move(f.r);
-  } catch (const Error&) {
+  } catch (const Error& e) {
+    if (e.code() == ErrorCode::Cancelled) throw;  // a stop request is not a reason to fall back
     return false;
   }
   return true;

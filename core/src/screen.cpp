@@ -71,6 +71,7 @@ VariableScreen screen_variable(const double* x, std::size_t n, const ScreenOptio
     s.ml = estimate_lambda(x, n, fam, lo_opt);
     s.ml_done = true;
   } catch (const Error& e) {
+    if (e.code() == ErrorCode::Cancelled) throw;  // a stop request is not a failed estimate
     s.note = std::string("no ML alternative: ") + e.what();
     return s;
   }
