@@ -139,7 +139,7 @@ compare_transforms <- function(formula, data, candidates = c("none", "ladder", "
                                repeats = 1, seed = NULL, level = 0.95, progress = interactive(),
                                family = c("box-cox", "yeo-johnson"), groups = NULL,
                                stratify = TRUE, weights = NULL, subset = NULL) {
-  family <- match.arg(family)
+  family <- pwb_match_choice(family, "family")
   pwb_check_level(level)
   pwb_check_response_formula(formula)
   pwb_check_data_frame(data)

@@ -158,7 +158,7 @@ print.pwb_comparison <- function(x, digits = 4, ...) {
 plot.pwb_comparison <- function(x, score = c("rmse_median", "mae_median", "r2_median",
                                              "rmse_mean", "coverage", "width_median",
                                              "unbounded"), ...) {
-  score <- match.arg(score)
+  score <- pwb_match_choice(score, "score")
   if (is.null(x$folds) || nrow(x$folds) == 0L) stop("no fold was scored", call. = FALSE)
   cands <- x$summary$candidate
   f <- x$folds

@@ -88,7 +88,7 @@
 estimate_lambda <- function(x, family = c("box-cox", "yeo-johnson"), range = c(-3, 3),
                             level = 0.95, weights = NULL) {
   xname <- deparse1(substitute(x))
-  family <- match.arg(family)
+  family <- pwb_match_choice(family, "family")
   pwb_lambda_check_args(range, level)
   if (!is.numeric(x))
     stop(sprintf("`%s` must be numeric, not %s", xname, class(x)[1L]), call. = FALSE)
@@ -120,7 +120,7 @@ estimate_lambda <- function(x, family = c("box-cox", "yeo-johnson"), range = c(-
 estimate_response_lambda <- function(object, data = NULL, family = c("box-cox", "yeo-johnson"),
                                      range = c(-3, 3), level = 0.95, na.action = NULL,
                                      weights = NULL, subset = NULL) {
-  family <- match.arg(family)
+  family <- pwb_match_choice(family, "family")
   pwb_lambda_check_args(range, level)
   if (inherits(object, "lm")) {
     if (!missing(weights) || !missing(subset))

@@ -104,7 +104,7 @@ lm_transformed <- function(formula, data, response = "estimate", predictors = NU
     return(pwb_model_set_fit(formula, match.call(), parent.frame()))
   call <- match.call()
   pwb_check_level(level)
-  family <- match.arg(family, c("box-cox", "yeo-johnson"))
+  family <- pwb_match_choice(family, "family", c("box-cox", "yeo-johnson"))
   pwb_check_range(range)
   src <- pwb_model_source(formula, if (missing(data)) NULL else data, call, parent.frame(),
                           na.action)

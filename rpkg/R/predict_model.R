@@ -118,19 +118,19 @@ predict.pwb_model <- function(object, newdata, se.fit = FALSE,
                               mean_method = c("smearing", "normal"), invalid = c("error", "na"),
                               scale = NULL, mean_interval = c("delta", "bootstrap"), R = 999,
                               seed = NULL, by = NULL, ...) {
-  interval <- match.arg(interval)
-  type <- match.arg(type)
+  interval <- pwb_match_choice(interval, "interval")
+  type <- pwb_match_choice(type, "type")
   if (!is.null(scale)) {
-    scale <- match.arg(scale, c("original", "transformed"))
+    scale <- pwb_match_choice(scale, "scale", c("original", "transformed"))
     type <- if (scale == "original") "response" else "transformed"
   }
-  center <- match.arg(center)
-  mean_method <- match.arg(mean_method)
-  invalid <- match.arg(invalid)
+  center <- pwb_match_choice(center, "center")
+  mean_method <- pwb_match_choice(mean_method, "mean_method")
+  invalid <- pwb_match_choice(invalid, "invalid")
   pwb_check_level(level)
   if (!is.logical(se.fit) || length(se.fit) != 1L || is.na(se.fit))
     stop("`se.fit` must be TRUE or FALSE", call. = FALSE)
-  mean_interval <- match.arg(mean_interval)
+  mean_interval <- pwb_match_choice(mean_interval, "mean_interval")
   if (interval == "confidence" && center == "mean")
     return(pwb_predict_mean_interval(object, if (missing(newdata)) NULL else newdata, level,
                                      type, mean_method, mean_interval, R, seed, by, invalid,

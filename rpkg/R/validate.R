@@ -81,8 +81,8 @@ pwb_check_choice <- function(arg, choices, what) {
 # A character argument whose default lists its choices, as match.arg() reads it: the default
 # (or NULL) gives the first choice, a unique abbreviation the full name; anything else stops
 # with a message naming the argument and its choices. `what` is the argument's name in the caller.
-pwb_match_choice <- function(arg, what) {
-  choices <- eval(formals(sys.function(sys.parent()))[[what]])
+pwb_match_choice <- function(arg, what, choices = NULL) {
+  if (is.null(choices)) choices <- eval(formals(sys.function(sys.parent()))[[what]])
   if (is.null(arg) || identical(arg, choices)) return(choices[1L])
   i <- if (is.character(arg) && length(arg) == 1L && !is.na(arg)) pmatch(arg, choices) else NA
   if (is.na(i))

@@ -58,7 +58,7 @@ test_that("bad input gives clear errors", {
   expect_error(estimate_lambda(1:10, range = c(2, -2)), "lower < upper")
   expect_error(estimate_lambda(1:10, level = 1), "strictly between 0 and 1")
   expect_error(estimate_lambda(letters), "must be numeric")
-  expect_error(estimate_lambda(1:10, family = "log"), "should be one of")
+  expect_error(estimate_lambda(1:10, family = "log"), "`family` must be one of")
 })
 
 test_that("estimates at a range edge and flat profiles are flagged, not errors", {

@@ -55,3 +55,18 @@ test_that("entry points word a bad range, flag or tolerance the same way", {
   expect_error(apply_transform(new_transform("log"), 1:3, invalid = "drop"),
                "`invalid` must be one of \"error\", \"na\"")
 })
+
+test_that("choice arguments of the entry points are matched and worded alike", {
+  expect_error(lm_transformed(mpg ~ wt, datasets::mtcars, family = "log"),
+               "`family` must be one of \"box-cox\", \"yeo-johnson\"")
+  expect_error(estimate_response_lambda(mpg ~ wt, datasets::mtcars, family = "logit"),
+               "`family` must be one of")
+  m <- lm_transformed(mpg ~ wt, datasets::mtcars, response = "none")
+  expect_error(predict(m, datasets::mtcars[1:2, ], interval = "both"),
+               "`interval` must be one of \"none\", \"confidence\", \"prediction\"")
+  # a unique abbreviation is completed, as match.arg() does
+  expect_equal(predict(m, datasets::mtcars[1:2, ], interval = "pred")$lwr,
+               predict(m, datasets::mtcars[1:2, ], interval = "prediction")$lwr)
+  expect_equal(coef(lm_transformed(mpg ~ wt, datasets::mtcars, family = "yeo")),
+               coef(lm_transformed(mpg ~ wt, datasets::mtcars, family = "yeo-johnson")))
+})
