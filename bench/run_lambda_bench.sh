@@ -40,12 +40,13 @@ awk -v f="$t_fit" -v q="$t_qless" -v l="$t_lam" -v h="$t_hand" -v u="$t_uni" -v 
 
 # 3. (PWB_R_BENCH=1) the R front end against lm() on the same data, in one process, n = 1e6,
 #    p = 10 + a 5-level factor (lambda_r_bench.R); then peak resident memory at n = 1e7 of
-#    building the data, lm(formula) and estimate_response_lambda(formula), each in a fresh
+#    building the data, lm(formula), estimate_response_lambda(formula) and lm_transformed(formula)
+#    (response power estimated, and a fixed log response), each in a fresh
 #    process under /usr/bin/time -v (lambda_r_memory.R). Needs powerback installed where R finds
 #    it (e.g. R_LIBS=build/rdev/Rlib after tools/dev_rtest.sh).
 if [ "${PWB_R_BENCH:-0}" = 1 ]; then
   Rscript "$here/lambda_r_bench.R" 1000000 3
-  for what in data lm lambda; do
+  for what in ${PWB_MEMORY_WHAT:-data lm lambda model model_fixed}; do
     /usr/bin/time -v Rscript "$here/lambda_r_memory.R" "$what" 10000000 2>&1 |
       sed -n -e 's/^\t*Maximum resident set size (kbytes): /'"$what"'_peak_kb=/p' -e '/_seconds=/p'
   done
