@@ -267,15 +267,27 @@ PWB_API pwb_status pwb_transform_describe(const pwb_transform *t, int which, cha
  * pwb_lambda_error_rows). With weights the profile below uses the weighted residual sum of
  * squares RSS_w = sum w_i e_i^2 and gains 1/2 sum log w_i, so that at a fixed lambda it equals
  * the weighted normal log-likelihood of the transformed fit (R's logLik of a weighted lm) plus
- * the unweighted Jacobian. The binned fast path serves weighted data too (weighted bin sums). */
+ * the unweighted Jacobian. The binned fast path serves weighted data too (weighted bin sums).
+ * aliased_out, aliased_cap (appended in 0.2; a struct_size that ends before aliased_cap means
+ * NULL, 0): an optional caller-owned array of aliased_cap size_t that the response estimators
+ * (pwb_estimate_response_lambda, pwb_estimate_response_lambda_curve and
+ * pwb_estimate_response_lambdas) fill with the indices of the design columns dropped as aliased
+ * (0 = the intercept, 1..p = X's columns), in increasing order; their count is the result's
+ * n_aliased. When aliased_cap < n_aliased only the first aliased_cap indices are written (the
+ * count still says how many there are; p + 1 always suffices). Nothing is written when the call
+ * fails, nor by the univariate estimators. aliased_out may be NULL only when aliased_cap is 0
+ * (else PWB_ERR_ARGUMENT). */
 typedef struct pwb_lambda_options {
   size_t struct_size; /* sizeof(pwb_lambda_options) */
   double lower, upper; /* search range, default -3, 3 */
   double level;        /* CI level, default 0.95 */
   const double *weights; /* NULL (default) or n precision weights >= 0 */
+  size_t *aliased_out;   /* NULL (default) or aliased_cap caller-owned slots */
+  size_t aliased_cap;    /* 0 (default) */
 } pwb_lambda_options;
 
-/* Sets struct_size and the defaults (-3, 3, 0.95, no weights). NULL is ignored. Thread-safe. */
+/* Sets struct_size and the defaults (-3, 3, 0.95, no weights, no aliased-column output). NULL is
+ * ignored. Thread-safe. */
 PWB_API void pwb_lambda_options_init(pwb_lambda_options *opt);
 
 /* The result of a lambda estimate. lambda maximises the profile log-likelihood
@@ -392,8 +404,9 @@ PWB_API size_t pwb_lambda_error_rows(size_t *rows, size_t cap, int *input);
  * design [1 X] read and factored once: one blocked pass over X's rows builds its R and decides
  * its rank while every response's binned sums are gathered; then each response is searched on
  * its own. Y: n-by-q, column-major (column j is response j); X: n-by-p as for
- * pwb_estimate_response_lambda; opt as there (the weights are shared by every response). All
- * inputs are read during the call only.
+ * pwb_estimate_response_lambda; opt as there (the weights are shared by every response; the
+ * aliased columns of the shared design go to opt->aliased_out once, when at least one response
+ * was estimated). All inputs are read during the call only.
  * out: caller-owned array of q pwb_lambda_result. Set each element's struct_size (e.g. with
  *   pwb_lambda_result_init on each); the array's stride is taken as out[0].struct_size, so every
  *   element must carry the same value (at least sizeof(pwb_lambda_result) of this header).
@@ -502,6 +515,22 @@ PWB_API void pwb_ladder_info_init(pwb_ladder_info *info);
  * or a struct_size too small. Thread-safe. */
 PWB_API pwb_status pwb_ladder_recommend(const double *x, size_t n, pwb_transform_spec *spec,
                                         pwb_ladder_info *info);
+
+/* The thresholds of the ladder rule pwb_ladder_recommend applies, as the library holds them, so
+ * that front ends report them without copying the numbers. */
+typedef struct pwb_ladder_rule {
+  size_t struct_size;    /* sizeof(pwb_ladder_rule) */
+  size_t large_n;        /* from this n on, skew is judged by |G1|, below it by |z| (300) */
+  double z_cut;          /* |z| above this is skewed when n < large_n (3.29) */
+  double size_cut;       /* |G1| above this is skewed when n >= large_n (0.5) */
+  double log10_cut;      /* |G1| above this takes log10 instead of the square root (1) */
+  double reciprocal_cut; /* |G1| above this takes the reciprocal instead of log10 (2) */
+} pwb_ladder_rule;
+
+/* Writes the ladder rule's thresholds to *out, whose struct_size the caller sets to
+ * sizeof(pwb_ladder_rule). Errors: PWB_ERR_ARGUMENT for NULL out or a struct_size too small;
+ * nothing else. Thread-safe (constants only). */
+PWB_API pwb_status pwb_ladder_rule_get(pwb_ladder_rule *out);
 
 /* Options of the variable screen. */
 typedef struct pwb_screen_options {

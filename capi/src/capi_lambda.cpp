@@ -3,6 +3,7 @@
 #include <vector>
 
 #include "capi_internal.hpp"
+#include "capi_lambda_aliased.hpp"
 #include "capi_lambda_guard.hpp"
 #include "capi_lambda_result.hpp"
 #include "capi_sizes.hpp"
@@ -98,6 +99,8 @@ void pwb_lambda_options_init(pwb_lambda_options* opt) {
   opt->upper = d.upper;
   opt->level = d.level;
   opt->weights = nullptr;
+  opt->aliased_out = nullptr;
+  opt->aliased_cap = 0;
 }
 
 void pwb_lambda_result_init(pwb_lambda_result* res) {
@@ -124,7 +127,10 @@ pwb_status pwb_estimate_response_lambda(const double* y, const double* X, size_t
     check_out(out);
     capi::need_array(y, n, "y");
     capi::need_array(X, capi::checked_matrix_size(n, p, "X"), "X");
-    write_result(estimate_response_lambda(y, X, n, p, lambda_family(family), options_of(opt)), out);
+    const capi::AliasedOut aliased = capi::aliased_out_of(opt);
+    const LambdaEstimate e = estimate_response_lambda(y, X, n, p, lambda_family(family), options_of(opt));
+    write_result(e, out);
+    capi::write_aliased(e, aliased);
   });
 }
 
@@ -177,11 +183,13 @@ pwb_status pwb_estimate_response_lambda_curve(const double* y, const double* X, 
     capi::need_array(y, n, "y");
     capi::need_array(X, capi::checked_matrix_size(n, p, "X"), "X");
     check_curve(n_grid, grid_out, loglik_out);
+    const capi::AliasedOut aliased = capi::aliased_out_of(opt);
     std::vector<double> grid, loglik;
     const LambdaEstimate e = estimate_response_lambda_curve(
         y, X, n, p, lambda_family(family), options_of(opt), n_grid, &grid, &loglik);
     write_curve(grid, loglik, grid_out, loglik_out);
     write_result(e, out);
+    capi::write_aliased(e, aliased);
   });
 }
 

@@ -5,6 +5,7 @@
 #include <vector>
 
 #include "capi_internal.hpp"
+#include "capi_lambda_aliased.hpp"
 #include "capi_lambda_guard.hpp"
 #include "capi_lambda_result.hpp"
 #include "capi_sizes.hpp"
@@ -70,13 +71,19 @@ extern "C" pwb_status pwb_estimate_response_lambdas(const double* Y, size_t n, s
       capi::need_array(grid_out, cells, "grid_out");
       capi::need_array(loglik_out, cells, "loglik_out");
     }
+    const capi::AliasedOut aliased = capi::aliased_out_of(opt);
     const std::vector<ResponseLambdaOutcome> res =
         estimate_response_lambdas(Y, n, q, X, p, many_family(family), many_options(opt), n_grid);
     per_response = true;
     const ResponseLambdaOutcome* first_failure = nullptr;
+    bool aliased_written = false;  // the design is shared: its aliased columns go out once
     for (std::size_t j = 0; j < q; ++j) {
       const ResponseLambdaOutcome& r = res[j];
       if (status_out) status_out[j] = r.ok ? PWB_OK : capi::status_of(r.code);
+      if (r.ok && !aliased_written) {
+        capi::write_aliased(r.estimate, aliased);
+        aliased_written = true;
+      }
       if (r.ok) {
         capi::write_lambda_result(
             r.estimate,

@@ -84,6 +84,17 @@ void pwb_ladder_info_init(pwb_ladder_info* info) {
   info->n = 0;
 }
 
+pwb_status pwb_ladder_rule_get(pwb_ladder_rule* out) {
+  return capi::guarded([&] {
+    capi::need_sized(out, "out", "pwb_ladder_rule");
+    out->large_n = LadderRule::kLargeN;
+    out->z_cut = LadderRule::kZCut;
+    out->size_cut = LadderRule::kSizeCut;
+    out->log10_cut = LadderRule::kLog10Cut;
+    out->reciprocal_cut = LadderRule::kReciprocalCut;
+  });
+}
+
 pwb_status pwb_ladder_recommend(const double* x, size_t n, pwb_transform_spec* spec,
                                 pwb_ladder_info* info) {
   return capi::guarded([&] {
