@@ -113,6 +113,10 @@ rpwb_screen_variable <- function(x, level, lower, upper) {
     .Call(`_powerback_rpwb_screen_variable`, x, level, lower, upper)
 }
 
+rpwb_ladder_rule <- function() {
+    .Call(`_powerback_rpwb_ladder_rule`)
+}
+
 rpwb_spec_write_file <- function(transforms, names, path, model) {
     invisible(.Call(`_powerback_rpwb_spec_write_file`, transforms, names, path, model))
 }

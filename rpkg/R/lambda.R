@@ -150,11 +150,7 @@ estimate_response_lambda <- function(object, data = NULL, family = c("box-cox", 
   res <- rpwb_estimate_response_lambda(y, mm, family, range[1L], range[2L], level, 101L,
                                        if (is.null(w)) NULL else as.double(w), 1L)
   if (!is.null(res$error)) pwb_lambda_stop(res, pwb_lambda_frame_rows(mf), yname)
-  aliased <- character(0)
-  if (res$n_aliased > 0) {
-    q <- qr(if (is.null(w)) mm else mm[w > 0, , drop = FALSE] * sqrt(w[w > 0]), tol = 1e-7)
-    aliased <- colnames(mm)[q$pivot[-seq_len(q$rank)]]
-  }
+  aliased <- colnames(mm)[res$aliased + 1L]  # 0-based design columns, 0 the intercept
   rhs <- deparse1(mt[[3L]])
   out <- pwb_new_lambda(res, family, level, range, yname, rhs, attr(mf, "na.action"))
   out$rank <- as.integer(res$rank)

@@ -41,11 +41,7 @@ pwb_lambda_set_estimate <- function(mf, y, family, range, level) {
       msg <- sprintf("response `%s` (column %d of %s): %s", what, res$column, deparse1(lhs), msg)
     stop(msg, call. = FALSE)
   }
-  aliased <- character(0)
-  if (res$fits[[1L]]$n_aliased > 0) {
-    q <- qr(if (is.null(w)) mm else mm[w > 0, , drop = FALSE] * sqrt(w[w > 0]), tol = 1e-7)
-    aliased <- colnames(mm)[q$pivot[-seq_len(q$rank)]]
-  }
+  aliased <- colnames(mm)[res$aliased + 1L]  # the shared design's, 0-based, 0 the intercept
   rhs <- deparse1(mt[[3L]])
   fits <- lapply(seq_along(resp), function(j) {
     out <- pwb_new_lambda(res$fits[[j]], family, level, range, resp[j], rhs,

@@ -95,10 +95,8 @@ screen_skew <- function(data, vars = NULL, level = 0.95) {
             class = "pwb_screen")
 }
 
-# The ladder's thresholds, as documented in screen_skew().
-pwb_ladder_rule <- function() {
-  list(large_n = 300, z_cut = 3.29, size_cut = 0.5, log10_cut = 1, reciprocal_cut = 2)
-}
+# The ladder's thresholds (documented in screen_skew()), as the library holds them.
+pwb_ladder_rule <- function() rpwb_ladder_rule()
 
 # One variable: the table row and its two transforms (NULL when absent).
 pwb_screen_one <- function(x, name, level) {

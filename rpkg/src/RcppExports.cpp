@@ -425,6 +425,16 @@ BEGIN_RCPP
     return rcpp_result_gen;
 END_RCPP
 }
+// rpwb_ladder_rule
+Rcpp::List rpwb_ladder_rule();
+RcppExport SEXP _powerback_rpwb_ladder_rule() {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    rcpp_result_gen = Rcpp::wrap(rpwb_ladder_rule());
+    return rcpp_result_gen;
+END_RCPP
+}
 // rpwb_spec_write_file
 void rpwb_spec_write_file(Rcpp::List transforms, Rcpp::CharacterVector names, std::string path, Rcpp::List model);
 RcppExport SEXP _powerback_rpwb_spec_write_file(SEXP transformsSEXP, SEXP namesSEXP, SEXP pathSEXP, SEXP modelSEXP) {
@@ -515,6 +525,7 @@ static const R_CallMethodDef CallEntries[] = {
     {"_powerback_rpwb_model_predict", (DL_FUNC) &_powerback_rpwb_model_predict, 8},
     {"_powerback_rpwb_model_predict_fitted", (DL_FUNC) &_powerback_rpwb_model_predict_fitted, 6},
     {"_powerback_rpwb_screen_variable", (DL_FUNC) &_powerback_rpwb_screen_variable, 4},
+    {"_powerback_rpwb_ladder_rule", (DL_FUNC) &_powerback_rpwb_ladder_rule, 0},
     {"_powerback_rpwb_spec_write_file", (DL_FUNC) &_powerback_rpwb_spec_write_file, 4},
     {"_powerback_rpwb_spec_read_file", (DL_FUNC) &_powerback_rpwb_spec_read_file, 1},
     {"_powerback_rpwb_transform_normalise", (DL_FUNC) &_powerback_rpwb_transform_normalise, 1},

@@ -4,6 +4,7 @@
 #include <Rcpp.h>
 
 #include <cmath>
+#include <cstddef>
 #include <string>
 #include <vector>
 
@@ -89,6 +90,13 @@ inline pwb_lambda_options lambda_options(double lower, double upper, double leve
   o.level = level;
   o.weights = w;
   return o;
+}
+
+// The first `count` entries of the aliased-column buffer (0-based design columns, 0 = the
+// intercept) as an R numeric vector.
+inline Rcpp::NumericVector aliased_indices(const std::vector<std::size_t>& buf, std::size_t count) {
+  const std::size_t m = count < buf.size() ? count : buf.size();
+  return Rcpp::NumericVector(buf.begin(), buf.begin() + static_cast<std::ptrdiff_t>(m));
 }
 
 // A lambda estimate and its profile curve as the R list the estimators return.

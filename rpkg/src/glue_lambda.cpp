@@ -64,14 +64,20 @@ Rcpp::List rpwb_estimate_response_lambda(Rcpp::NumericVector y, Rcpp::NumericMat
   if (X.nrow() != y.size()) Rcpp::stop("the model matrix and the response differ in rows");
   if (skip < 0 || skip > X.ncol()) Rcpp::stop("skip must lie between 0 and the number of columns");
   Rcpp::NumericVector wk;
-  const pwb_lambda_options o =
+  pwb_lambda_options o =
       rpwb::lambda_options(lower, upper, level, rpwb::weights_or_null(weights, y.size(), &wk));
   CurveEstimate e(n_grid);
   const std::size_t n = static_cast<std::size_t>(y.size());
   const std::size_t p = static_cast<std::size_t>(X.ncol() - skip);
-  return e.list(pwb_estimate_response_lambda_curve(
+  std::vector<std::size_t> aliased(p + 1);  // the design has p + 1 columns with the intercept
+  o.aliased_out = aliased.data();
+  o.aliased_cap = aliased.size();
+  Rcpp::List out = e.list(pwb_estimate_response_lambda_curve(
       y.begin(), p > 0 ? X.begin() + static_cast<std::size_t>(skip) * n : nullptr, n, p,
       rpwb::family_of(family), &o, &e.r, e.m, e.grid.data(), e.ll.data()));
+  if (out.containsElementNamed("lambda"))
+    out["aliased"] = rpwb::aliased_indices(aliased, e.r.n_aliased);
+  return out;
 }
 
 // Profile log-likelihood at chosen lambdas; X = NULL for the univariate profile.

@@ -29,6 +29,9 @@ Rcpp::List rpwb_estimate_response_lambdas(Rcpp::NumericMatrix Y, Rcpp::NumericMa
     if (static_cast<std::size_t>(wk.size()) != n) Rcpp::stop("the weights and the responses differ in length");
     o.weights = wk.begin();
   }
+  std::vector<std::size_t> aliased(p + 1);  // the design has p + 1 columns with the intercept
+  o.aliased_out = aliased.data();
+  o.aliased_cap = aliased.size();
   pwb_family f;
   rpwb::check(pwb_family_from_name(family.c_str(), &f));
   const std::size_t m = n_grid < 2 ? 2 : static_cast<std::size_t>(n_grid);
@@ -57,7 +60,15 @@ Rcpp::List rpwb_estimate_response_lambdas(Rcpp::NumericMatrix Y, Rcpp::NumericMa
         Rcpp::Named("grid") = grid(Rcpp::_, static_cast<int>(j)),
         Rcpp::Named("grid_loglik") = ll(Rcpp::_, static_cast<int>(j)));
   }
-  if (s == PWB_OK) return Rcpp::List::create(Rcpp::Named("fits") = fits);
+  std::size_t n_aliased = 0;  // the shared design's count, from any estimated response
+  for (std::size_t j = 0; j < q; ++j)
+    if (st[j] == PWB_OK) {
+      n_aliased = res[j].n_aliased;
+      break;
+    }
+  const Rcpp::NumericVector aliased_idx = rpwb::aliased_indices(aliased, n_aliased);
+  if (s == PWB_OK)
+    return Rcpp::List::create(Rcpp::Named("fits") = fits, Rcpp::Named("aliased") = aliased_idx);
   const std::string message = pwb_last_error();
   std::size_t rows[8];
   int input = PWB_LAMBDA_INPUT_NONE;

@@ -88,3 +88,15 @@ Rcpp::List rpwb_screen_variable(Rcpp::NumericVector x, double level, double lowe
                             Rcpp::Named("moments") = moments, Rcpp::Named("sw") = sw,
                             Rcpp::Named("ladder") = ladder, Rcpp::Named("ml") = ml);
 }
+
+// The ladder rule's thresholds, as the library holds them.
+// [[Rcpp::export]]
+Rcpp::List rpwb_ladder_rule() {
+  pwb_ladder_rule r;
+  r.struct_size = sizeof(r);
+  rpwb::check(pwb_ladder_rule_get(&r));
+  return Rcpp::List::create(Rcpp::Named("large_n") = static_cast<double>(r.large_n),
+                            Rcpp::Named("z_cut") = r.z_cut, Rcpp::Named("size_cut") = r.size_cut,
+                            Rcpp::Named("log10_cut") = r.log10_cut,
+                            Rcpp::Named("reciprocal_cut") = r.reciprocal_cut);
+}
