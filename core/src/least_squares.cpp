@@ -250,7 +250,9 @@ Eigen::MatrixXd LeastSquares::unscaled_covariance() const {
 
 Eigen::VectorXd LeastSquares::leverages() const {
   if (qless_) {  // h_i = ||R^{-T} x_i||^2, as variance_factor at the design's own rows
-    Eigen::VectorXd h(design_.rows());
+    if (const auto kept = std::atomic_load(&leverages_)) return *kept;
+    auto made = std::make_shared<Eigen::VectorXd>(design_.rows());
+    Eigen::VectorXd& h = *made;
     const Eigen::Index k = static_cast<Eigen::Index>(rank());
     constexpr Eigen::Index kBlock = 4096;  // rows per block, so X_k R^{-1} is never formed whole
     Eigen::MatrixXd xk;
@@ -261,7 +263,9 @@ Eigen::VectorXd LeastSquares::leverages() const {
         xk.col(i) = design_.col(static_cast<Eigen::Index>(kept_[static_cast<std::size_t>(i)])).segment(r0, nr);
       h.segment(r0, nr) = (xk * r_inv_).rowwise().squaredNorm();
     }
-    return h;
+    std::shared_ptr<const Eigen::VectorXd> done = std::move(made);
+    std::atomic_store(&leverages_, done);
+    return *done;
   }
   const Eigen::Index n = design_.rows(), k = static_cast<Eigen::Index>(rank());
   const auto hh = householder();

@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 #include <limits>
+#include <memory>
 #include <string>
 
 #include "powerback/cancel.hpp"
@@ -18,6 +19,10 @@ LeastSquares::ResponseFit LeastSquares::factor_with_response(const Eigen::Vector
   require(y.size() == n, "the response has " + std::to_string(y.size()) +
                              " values but the design has " + std::to_string(n) + " rows");
   require(y.allFinite(), "the response has non-finite values");
+  // A new factor: whatever was built from an earlier one is dropped.
+  qless_ = true;
+  std::atomic_store(&householder_, std::shared_ptr<const Householder>());
+  std::atomic_store(&leverages_, std::shared_ptr<const Eigen::VectorXd>());
 
   // Exact power-of-two scales of the columns and of y (their largest magnitude in [0.5, 1)).
   const Eigen::VectorXd s = detail::column_scales(design_);

@@ -57,6 +57,7 @@ TEST_CASE("the one-pass fit equals the Householder fit", "[lsq][response]") {
   CHECK(rel_diff(f.coefficients, ref.coefficients(y)) < 1e-10);
   CHECK(std::fabs(f.rss - ref.rss(y)) < 1e-10 * ref.rss(y));
   CHECK(rel_diff(one.leverages(), ref.leverages()) < 1e-10);
+  CHECK(one.leverages() == one.leverages());  // kept after the first call
   const Eigen::MatrixXd ca = one.unscaled_covariance(), cb = ref.unscaled_covariance();
   CHECK(rel_diff(Eigen::Map<const Eigen::VectorXd>(ca.data(), ca.size()),
                  Eigen::Map<const Eigen::VectorXd>(cb.data(), cb.size())) < 1e-10);

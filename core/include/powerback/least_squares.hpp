@@ -81,7 +81,7 @@ class LeastSquares {
   // aliased rows/columns. Multiply by sigma^2 for the coefficient covariance.
   Eigen::MatrixXd unscaled_covariance() const;
   // Diagonal of the hat matrix H = Q1 Q1' (as ||R^{-T} x_i||^2 for a factor built by
-  // factor_with_response, which keeps no Q).
+  // factor_with_response, which keeps no Q; computed at the first call and kept).
   Eigen::VectorXd leverages() const;
   // x0' (X_k' X_k)^{-1} x0 for each row x0 of `rows` (m-by-columns(), same column layout as the
   // design, intercept included): the variance factor of a fitted value at new points.
@@ -110,6 +110,7 @@ class LeastSquares {
   bool qless_ = false;  // factored by factor_with_response
   std::vector<std::size_t> kept_, aliased_;
   mutable std::shared_ptr<const Householder> householder_;
+  mutable std::shared_ptr<const Eigen::VectorXd> leverages_;  // factor_with_response only
   Eigen::VectorXd kscale_;   // the power-of-two scale of each kept column
   Eigen::MatrixXd r_;
   Eigen::MatrixXd r_inv_;  // R^{-1}, rank x rank
