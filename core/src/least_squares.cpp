@@ -4,6 +4,7 @@
 #include <algorithm>
 #include <cmath>
 #include <limits>
+#include <memory>
 #include <string>
 
 #include "powerback/cancel.hpp"
@@ -11,17 +12,18 @@
 
 namespace powerback {
 
-LeastSquares::LeastSquares(const double* X, std::size_t n, std::size_t p, bool add_intercept,
-                           double tol)
-    : intercept_(add_intercept) {
+namespace {
+
+// [1 X] (or X), unscaled; Error(NonFinite) names the first non-finite entry.
+Eigen::MatrixXd build_design(const double* X, std::size_t n, std::size_t p, bool add_intercept) {
   require(n > 0, "the design has no rows");
   require(X != nullptr || p == 0, "the predictor matrix is NULL");
   const std::size_t cols = p + (add_intercept ? 1 : 0);
   require(cols > 0, "the design has no columns");
-  design_.resize(static_cast<Eigen::Index>(n), static_cast<Eigen::Index>(cols));
+  Eigen::MatrixXd design(static_cast<Eigen::Index>(n), static_cast<Eigen::Index>(cols));
   std::size_t c0 = 0;
   if (add_intercept) {
-    design_.col(0).setOnes();
+    design.col(0).setOnes();
     c0 = 1;
   }
   for (std::size_t j = 0; j < p; ++j) {
@@ -31,10 +33,29 @@ LeastSquares::LeastSquares(const double* X, std::size_t n, std::size_t p, bool a
         throw Error(ErrorCode::NonFinite, "predictor column " + std::to_string(j) + " has a " +
                                               "non-finite value at row " + std::to_string(i) +
                                               " (0-based): remove or impute it first");
-      design_(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(j + c0)) = v;
+      design(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(j + c0)) = v;
     }
   }
+  return design;
+}
+
+}  // namespace
+
+LeastSquares::LeastSquares(const double* X, std::size_t n, std::size_t p, bool add_intercept,
+                           double tol)
+    : design_(build_design(X, n, p, add_intercept)), intercept_(add_intercept) {
   factor(tol);
+}
+
+LeastSquares::LeastSquares(Deferred, const double* X, std::size_t n, std::size_t p,
+                           bool add_intercept)
+    : design_(build_design(X, n, p, add_intercept)), intercept_(add_intercept), qless_(true) {}
+
+LeastSquares::LeastSquares(Deferred, Eigen::MatrixXd design)
+    : design_(std::move(design)), qless_(true) {
+  require(design_.rows() > 0 && design_.cols() > 0, "the design is empty");
+  require(design_.allFinite(), "the design has non-finite entries");
+  intercept_ = (design_.col(0).array() == 1.0).all();
 }
 
 LeastSquares::LeastSquares(const Eigen::MatrixXd& design, double tol) : design_(design) {
@@ -57,16 +78,34 @@ void LeastSquares::factor(double tol) {
   detail::RankedQR q = detail::apply_rank_rule(scaled, norms, tol);
   kept_ = std::move(q.kept);
   aliased_ = std::move(q.aliased);
-  packed_ = std::move(q.packed);
-  hcoeffs_ = std::move(q.hcoeffs);
   const Eigen::Index k = static_cast<Eigen::Index>(kept_.size());
   kscale_.resize(k);
   for (Eigen::Index i = 0; i < k; ++i) kscale_(i) = s(static_cast<Eigen::Index>(kept_[static_cast<std::size_t>(i)]));
   // The scaled design is X S, so its R is R S: R = R_s S^-1 and R^-1 = S R_s^-1 (exact scalings).
-  const Eigen::MatrixXd rs = packed_.topLeftCorner(k, k).triangularView<Eigen::Upper>();
+  const Eigen::MatrixXd rs = q.packed.topLeftCorner(k, k).triangularView<Eigen::Upper>();
   r_ = rs * kscale_.cwiseInverse().asDiagonal();
   r_inv_ = kscale_.asDiagonal() *
            rs.triangularView<Eigen::Upper>().solve(Eigen::MatrixXd::Identity(k, k));
+  auto h = std::make_shared<Householder>();
+  h->packed = std::move(q.packed);
+  h->hcoeffs = std::move(q.hcoeffs);
+  householder_ = std::move(h);
+}
+
+std::shared_ptr<const LeastSquares::Householder> LeastSquares::householder() const {
+  std::shared_ptr<const Householder> h = std::atomic_load(&householder_);
+  if (h) return h;
+  // The kept columns of the scaled design, factored in order (their rank is decided already).
+  const Eigen::Index n = design_.rows(), k = static_cast<Eigen::Index>(kept_.size());
+  auto built = std::make_shared<Householder>();
+  built->packed.resize(n, k);
+  for (Eigen::Index i = 0; i < k; ++i)
+    built->packed.col(i) = design_.col(static_cast<Eigen::Index>(kept_[static_cast<std::size_t>(i)])) * kscale_(i);
+  const Eigen::HouseholderQR<Eigen::Ref<Eigen::MatrixXd>> qr(built->packed);
+  built->hcoeffs = qr.hCoeffs();
+  h = std::move(built);
+  std::atomic_store(&householder_, h);
+  return h;
 }
 
 namespace detail {
@@ -162,8 +201,9 @@ Eigen::VectorXd LeastSquares::rotate(const Eigen::VectorXd& y) const {
   require(y.size() == design_.rows(), "the response has " + std::to_string(y.size()) +
                                           " values but the design has " +
                                           std::to_string(design_.rows()) + " rows");
+  const auto h = householder();
   Eigen::VectorXd w = y;
-  w.applyOnTheLeft(HouseholderQ(packed_, hcoeffs_).adjoint());
+  w.applyOnTheLeft(HouseholderQ(h->packed, h->hcoeffs).adjoint());
   return w;
 }
 
@@ -178,7 +218,8 @@ double LeastSquares::rss(const Eigen::VectorXd& y) const {
 Eigen::VectorXd LeastSquares::fitted(const Eigen::VectorXd& y) const {
   Eigen::VectorXd w = rotate(y);
   w.tail(static_cast<Eigen::Index>(n() - rank())).setZero();
-  w.applyOnTheLeft(HouseholderQ(packed_, hcoeffs_));
+  const auto h = householder();
+  w.applyOnTheLeft(HouseholderQ(h->packed, h->hcoeffs));
   return w;
 }
 
@@ -187,9 +228,10 @@ Eigen::VectorXd LeastSquares::residuals(const Eigen::VectorXd& y) const { return
 Eigen::VectorXd LeastSquares::coefficients(const Eigen::VectorXd& y) const {
   // R^-1 = S R_s^-1: solved on the scaled factor, then scaled exactly.
   const Eigen::Index k = static_cast<Eigen::Index>(rank());
+  const auto h = householder();
   const Eigen::VectorXd bk =
       kscale_.asDiagonal() *
-      packed_.topLeftCorner(k, k).triangularView<Eigen::Upper>().solve(project(y));
+      h->packed.topLeftCorner(k, k).triangularView<Eigen::Upper>().solve(project(y));
   Eigen::VectorXd b = Eigen::VectorXd::Constant(design_.cols(), std::numeric_limits<double>::quiet_NaN());
   for (std::size_t i = 0; i < kept_.size(); ++i) b(static_cast<Eigen::Index>(kept_[i])) = bk(static_cast<Eigen::Index>(i));
   return b;
@@ -214,8 +256,27 @@ Eigen::VectorXd LeastSquares::unscaled_variances() const {
 }
 
 Eigen::VectorXd LeastSquares::leverages() const {
+  if (qless_) {  // h_i = ||R^{-T} x_i||^2, as variance_factor at the design's own rows
+    if (const auto kept = std::atomic_load(&leverages_)) return *kept;
+    auto made = std::make_shared<Eigen::VectorXd>(design_.rows());
+    Eigen::VectorXd& h = *made;
+    const Eigen::Index k = static_cast<Eigen::Index>(rank());
+    constexpr Eigen::Index kBlock = 4096;  // rows per block, so X_k R^{-1} is never formed whole
+    Eigen::MatrixXd xk;
+    for (Eigen::Index r0 = 0; r0 < design_.rows(); r0 += kBlock) {
+      const Eigen::Index nr = std::min(kBlock, design_.rows() - r0);
+      xk.resize(nr, k);
+      for (Eigen::Index i = 0; i < k; ++i)
+        xk.col(i) = design_.col(static_cast<Eigen::Index>(kept_[static_cast<std::size_t>(i)])).segment(r0, nr);
+      h.segment(r0, nr) = (xk * r_inv_).rowwise().squaredNorm();
+    }
+    std::shared_ptr<const Eigen::VectorXd> done = std::move(made);
+    std::atomic_store(&leverages_, done);
+    return *done;
+  }
   const Eigen::Index n = design_.rows(), k = static_cast<Eigen::Index>(rank());
-  const Eigen::MatrixXd q1 = HouseholderQ(packed_, hcoeffs_) * Eigen::MatrixXd::Identity(n, k);
+  const auto hh = householder();
+  const Eigen::MatrixXd q1 = HouseholderQ(hh->packed, hh->hcoeffs) * Eigen::MatrixXd::Identity(n, k);
   return q1.rowwise().squaredNorm();
 }
 

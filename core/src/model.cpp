@@ -4,6 +4,7 @@
 
 #include <cmath>
 #include <string>
+#include <utility>
 
 #include "powerback/errors.hpp"
 
@@ -32,7 +33,7 @@ void check_weights(const double* w, std::size_t n) {
 // The factorisation of [1 X] (unweighted) or of sqrt(w) [1 X] over the rows of positive weight.
 LeastSquares factor_design(const double* X, std::size_t n, std::size_t p, bool intercept,
                            const double* w, std::vector<std::size_t>& kept_rows) {
-  if (!w) return LeastSquares(X, n, p, intercept);
+  if (!w) return LeastSquares(LeastSquares::Deferred{}, X, n, p, intercept);
   require(n > 0, "the design has no rows");
   require(X != nullptr || p == 0, "the predictor matrix is NULL");
   check_weights(w, n);
@@ -55,7 +56,7 @@ LeastSquares factor_design(const double* X, std::size_t n, std::size_t p, bool i
     if (c0) d(r, 0) = s;
     for (std::size_t j = 0; j < p; ++j) d(r, static_cast<Eigen::Index>(j + c0)) = s * X[j * n + i];
   }
-  return LeastSquares(d);
+  return LeastSquares(LeastSquares::Deferred{}, std::move(d));
 }
 
 void require_residual_df(const LeastSquares& ls) {
@@ -78,7 +79,6 @@ Model::Model(const double* y, const double* X, std::size_t n, std::size_t p, boo
   std::vector<double> jac(n);
   const MapReport r = response_.log_abs_derivative(yv.data(), n, jac.data());
   response_.throw_if_failed(r, n, "y", false);
-  require_residual_df(ls_);
   z_ = Eigen::Map<const Eigen::VectorXd>(zv.data(), static_cast<Eigen::Index>(n));
   double sum_log_w = 0.0;
   jacobian_ = 0.0;
@@ -95,8 +95,10 @@ Model::Model(const double* y, const double* X, std::size_t n, std::size_t p, boo
       sum_log_w += std::log(weights[i]);
       jacobian_ += jac[i];
     }
-    coef_ = ls_.coefficients(zw);
-    rss_ = ls_.rss(zw);
+    LeastSquares::ResponseFit f = ls_.factor_with_response(zw);
+    require_residual_df(ls_);
+    coef_ = std::move(f.coefficients);
+    rss_ = f.rss;
     // Fitted values x'b for every row (zero-weight rows included, as lm reports them).
     const std::size_t c0 = intercept ? 1 : 0;
     fitted_ = Eigen::VectorXd::Zero(static_cast<Eigen::Index>(n));
@@ -127,8 +129,7 @@ Model::Model(const double* y, const double* X, std::size_t n, std::size_t p, boo
 }
 
 Model::Model(PreTransformed, const Eigen::VectorXd& z, const Eigen::MatrixXd& design)
-    : ls_(design), intercept_(ls_.has_intercept()) {
-  require_residual_df(ls_);
+    : ls_(LeastSquares::Deferred{}, design), intercept_(ls_.has_intercept()) {
   z_ = z;
   finish_unweighted();
   const double nd = static_cast<double>(ls_.n());
@@ -137,10 +138,16 @@ Model::Model(PreTransformed, const Eigen::VectorXd& z, const Eigen::MatrixXd& de
 }
 
 void Model::finish_unweighted() {
-  coef_ = ls_.coefficients(z_);
-  fitted_ = ls_.fitted(z_);
+  LeastSquares::ResponseFit f = ls_.factor_with_response(z_);
+  require_residual_df(ls_);
+  coef_ = std::move(f.coefficients);
+  rss_ = f.rss;
+  // Fitted values X b in one pass over the design (aliased columns contribute nothing).
+  Eigen::VectorXd b = coef_;
+  for (Eigen::Index j = 0; j < b.size(); ++j)
+    if (std::isnan(b(j))) b(j) = 0.0;
+  fitted_.noalias() = ls_.design() * b;
   resid_ = z_ - fitted_;
-  rss_ = ls_.rss(z_);
   sigma_ = std::sqrt(rss_ / static_cast<double>(ls_.df_residual()));
   se_ = sigma_ * ls_.unscaled_variances().array().sqrt().matrix();  // NaN stays NaN
 }

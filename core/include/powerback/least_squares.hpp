@@ -22,6 +22,7 @@
 
 #include <Eigen/Dense>
 #include <cstddef>
+#include <memory>
 #include <vector>
 
 namespace powerback {
@@ -41,6 +42,23 @@ class LeastSquares {
   // design: the full design (column 0 counts as an intercept when it is all ones). Throws
   // Error(Argument) for an empty or non-finite design; otherwise as above.
   explicit LeastSquares(const Eigen::MatrixXd& design, double tol = kRankTolerance);
+
+  // A design kept for one response fitted by factor_with_response(), which must be called
+  // before anything else: the rows are read once in blocks (the Q-less factor of [design | y],
+  // see tall_qr.hpp) and Q is built only if a later call needs it. Same validation as above.
+  struct Deferred {};
+  LeastSquares(Deferred, const double* X, std::size_t n, std::size_t p, bool add_intercept);
+  LeastSquares(Deferred, Eigen::MatrixXd design);
+  // The coefficients (NaN where aliased) and the residual sum of squares of y.
+  struct ResponseFit {
+    Eigen::VectorXd coefficients;
+    double rss = 0;
+  };
+  // Factors [design | y] block by block (R and Q'y of the appended column give the coefficients
+  // and the RSS; lm's rank rule on the design's part of R, as factor_tall applies it). Throws
+  // Error(Argument) when y's length differs from the rows or y is not finite, otherwise as the
+  // constructors above.
+  ResponseFit factor_with_response(const Eigen::VectorXd& y, double tol = kRankTolerance);
 
   std::size_t n() const { return static_cast<std::size_t>(design_.rows()); }
   std::size_t columns() const { return static_cast<std::size_t>(design_.cols()); }  // incl. intercept
@@ -65,7 +83,8 @@ class LeastSquares {
   // Its diagonal alone (NaN for aliased columns), without the columns() x columns() matrix: on
   // wide designs (10,000 columns, most of them aliased) that matrix alone is 800 MB.
   Eigen::VectorXd unscaled_variances() const;
-  // Diagonal of the hat matrix H = Q1 Q1'.
+  // Diagonal of the hat matrix H = Q1 Q1' (as ||R^{-T} x_i||^2 for a factor built by
+  // factor_with_response, which keeps no Q; computed at the first call and kept).
   Eigen::VectorXd leverages() const;
   // x0' (X_k' X_k)^{-1} x0 for each row x0 of `rows` (m-by-columns(), same column layout as the
   // design, intercept included): the variance factor of a fitted value at new points.
@@ -80,11 +99,21 @@ class LeastSquares {
 
  private:
   void factor(double tol);
+  // Householder vectors below the diagonal (kept columns of the scaled design, as Eigen packs
+  // them) and their coefficients; built at construction, or at first need after
+  // factor_with_response (set once through atomic shared_ptr operations: const calls stay safe
+  // from several threads).
+  struct Householder {
+    Eigen::MatrixXd packed;
+    Eigen::VectorXd hcoeffs;
+  };
+  std::shared_ptr<const Householder> householder() const;
   Eigen::MatrixXd design_;
   bool intercept_ = true;
+  bool qless_ = false;  // factored by factor_with_response
   std::vector<std::size_t> kept_, aliased_;
-  Eigen::MatrixXd packed_;   // Householder vectors below the diagonal (kept columns), as Eigen packs them
-  Eigen::VectorXd hcoeffs_;  // their coefficients
+  mutable std::shared_ptr<const Householder> householder_;
+  mutable std::shared_ptr<const Eigen::VectorXd> leverages_;  // factor_with_response only
   Eigen::VectorXd kscale_;   // the power-of-two scale of each kept column
   Eigen::MatrixXd r_;
   Eigen::MatrixXd r_inv_;  // R^{-1}, rank x rank

@@ -134,7 +134,8 @@ class Model {
  private:
   struct PreTransformed {};
   Model(PreTransformed, const Eigen::VectorXd& z, const Eigen::MatrixXd& design);
-  // Coefficients, fitted values, residuals, RSS, sigma and standard errors of z_ on ls_.
+  // Factors ls_ with z_ and sets the coefficients, fitted values, residuals, RSS, sigma and
+  // standard errors.
   void finish_unweighted();
   // The rows [1 x] of new data (intercept column when the model has one); non-finite rows are
   // zero and flagged kPredMissing in flags.
