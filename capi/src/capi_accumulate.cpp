@@ -5,6 +5,7 @@
 #include <vector>
 
 #include "capi_internal.hpp"
+#include "capi_lambda_guard.hpp"
 #include "capi_lambda_result.hpp"
 #include "capi_sizes.hpp"
 #include "capi_transform_handle.hpp"
@@ -32,16 +33,6 @@ Family lambda_family(pwb_family f) {
     throw Error(ErrorCode::Argument, "a lambda summary takes PWB_BOX_COX or PWB_YEO_JOHNSON only; got family code " +
                                          std::to_string(static_cast<int>(f)));
   return static_cast<Family>(f);
-}
-
-LambdaOptions options_of(const pwb_lambda_options* opt) {
-  LambdaOptions o;
-  if (!opt) return o;
-  capi::need_struct(opt->struct_size, sizeof(pwb_lambda_options), "pwb_lambda_options");
-  o.lower = opt->lower;
-  o.upper = opt->upper;
-  o.level = opt->level;
-  return o;
 }
 
 // weights may be NULL (every row weighs 1).
@@ -193,7 +184,7 @@ pwb_status pwb_lambda_summary_finish(const pwb_lambda_summary* s, const pwb_lamb
     if (n_grid == 1) throw Error(ErrorCode::Argument, "n_grid must be 0 or at least 2");
     capi::need_array(grid_out, n_grid, "grid_out");
     capi::need_array(loglik_out, n_grid, "loglik_out");
-    const SummaryLambdaResult r = s->impl.finish(options_of(opt), n_grid == 0 ? 2 : n_grid);
+    const SummaryLambdaResult r = s->impl.finish(capi::lambda_options_of(opt), n_grid == 0 ? 2 : n_grid);
     write_finish(r, out, n_grid, grid_out, loglik_out, info);
   });
 }
@@ -257,7 +248,7 @@ pwb_status pwb_lambda_pass_finish(const pwb_lambda_pass* pass, const pwb_lambda_
                                            std::to_string(pass->impl.grid().size()));
     capi::need_array(grid_out, n_grid, "grid_out");
     capi::need_array(loglik_out, n_grid, "loglik_out");
-    const SummaryLambdaResult r = pass->impl.finish(s->impl, options_of(opt));
+    const SummaryLambdaResult r = pass->impl.finish(s->impl, capi::lambda_options_of(opt));
     write_finish(r, out, n_grid, grid_out, loglik_out, info);
   });
 }

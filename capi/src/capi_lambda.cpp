@@ -25,17 +25,6 @@ Family lambda_family(pwb_family f) {
 // a header older than the weights, which then count as absent.
 constexpr std::size_t kOptionsBeforeWeights = offsetof(pwb_lambda_options, weights);
 
-LambdaOptions options_of(const pwb_lambda_options* opt) {
-  LambdaOptions o;
-  if (!opt) return o;
-  capi::need_struct(opt->struct_size, kOptionsBeforeWeights, "pwb_lambda_options");
-  o.lower = opt->lower;
-  o.upper = opt->upper;
-  o.level = opt->level;
-  if (opt->struct_size >= offsetof(pwb_lambda_options, weights) + sizeof(opt->weights))
-    o.weights = opt->weights;
-  return o;
-}
 
 void check_out(const pwb_lambda_result* out) {
   capi::need_sized(out, "out", "pwb_lambda_result");
@@ -89,6 +78,24 @@ void check_curve(std::size_t n_grid, const double* grid_out, const double* logli
 
 }  // namespace
 
+namespace powerback {
+namespace capi {
+
+LambdaOptions lambda_options_of(const pwb_lambda_options* opt) {
+  LambdaOptions o;
+  if (!opt) return o;
+  capi::need_struct(opt->struct_size, kOptionsBeforeWeights, "pwb_lambda_options");
+  o.lower = opt->lower;
+  o.upper = opt->upper;
+  o.level = opt->level;
+  if (opt->struct_size >= offsetof(pwb_lambda_options, weights) + sizeof(opt->weights))
+    o.weights = opt->weights;
+  return o;
+}
+
+}  // namespace capi
+}  // namespace powerback
+
 extern "C" {
 
 void pwb_lambda_options_init(pwb_lambda_options* opt) {
@@ -116,7 +123,7 @@ pwb_status pwb_estimate_lambda(const double* x, size_t n, pwb_family family,
   return lambda_guarded([&] {
     check_out(out);
     capi::need_array(x, n, "x");
-    write_result(estimate_lambda(x, n, lambda_family(family), options_of(opt)), out);
+    write_result(estimate_lambda(x, n, lambda_family(family), capi::lambda_options_of(opt)), out);
   });
 }
 
@@ -128,7 +135,7 @@ pwb_status pwb_estimate_response_lambda(const double* y, const double* X, size_t
     capi::need_array(y, n, "y");
     capi::need_array(X, capi::checked_matrix_size(n, p, "X"), "X");
     const capi::AliasedOut aliased = capi::aliased_out_of(opt);
-    const LambdaEstimate e = estimate_response_lambda(y, X, n, p, lambda_family(family), options_of(opt));
+    const LambdaEstimate e = estimate_response_lambda(y, X, n, p, lambda_family(family), capi::lambda_options_of(opt));
     write_result(e, out);
     capi::write_aliased(e, aliased);
   });
@@ -168,7 +175,7 @@ pwb_status pwb_estimate_lambda_curve(const double* x, size_t n, pwb_family famil
     check_curve(n_grid, grid_out, loglik_out);
     std::vector<double> grid, loglik;
     const LambdaEstimate e =
-        estimate_lambda_curve(x, n, lambda_family(family), options_of(opt), n_grid, &grid, &loglik);
+        estimate_lambda_curve(x, n, lambda_family(family), capi::lambda_options_of(opt), n_grid, &grid, &loglik);
     write_curve(grid, loglik, grid_out, loglik_out);
     write_result(e, out);
   });
@@ -186,7 +193,7 @@ pwb_status pwb_estimate_response_lambda_curve(const double* y, const double* X, 
     const capi::AliasedOut aliased = capi::aliased_out_of(opt);
     std::vector<double> grid, loglik;
     const LambdaEstimate e = estimate_response_lambda_curve(
-        y, X, n, p, lambda_family(family), options_of(opt), n_grid, &grid, &loglik);
+        y, X, n, p, lambda_family(family), capi::lambda_options_of(opt), n_grid, &grid, &loglik);
     write_curve(grid, loglik, grid_out, loglik_out);
     write_result(e, out);
     capi::write_aliased(e, aliased);

@@ -15,19 +15,6 @@ using namespace powerback;
 
 namespace {
 
-// Options as capi_lambda.cpp reads them: a struct ending before weights has none.
-LambdaOptions many_options(const pwb_lambda_options* opt) {
-  LambdaOptions o;
-  if (!opt) return o;
-  capi::need_struct(opt->struct_size, offsetof(pwb_lambda_options, weights), "pwb_lambda_options");
-  o.lower = opt->lower;
-  o.upper = opt->upper;
-  o.level = opt->level;
-  if (opt->struct_size >= offsetof(pwb_lambda_options, weights) + sizeof(opt->weights))
-    o.weights = opt->weights;
-  return o;
-}
-
 Family many_family(pwb_family f) {
   const int v = capi::enum_value(f);
   if (v != PWB_BOX_COX && v != PWB_YEO_JOHNSON)
@@ -73,7 +60,7 @@ extern "C" pwb_status pwb_estimate_response_lambdas(const double* Y, size_t n, s
     }
     const capi::AliasedOut aliased = capi::aliased_out_of(opt);
     const std::vector<ResponseLambdaOutcome> res =
-        estimate_response_lambdas(Y, n, q, X, p, many_family(family), many_options(opt), n_grid);
+        estimate_response_lambdas(Y, n, q, X, p, many_family(family), capi::lambda_options_of(opt), n_grid);
     per_response = true;
     const ResponseLambdaOutcome* first_failure = nullptr;
     bool aliased_written = false;  // the design is shared: its aliased columns go out once

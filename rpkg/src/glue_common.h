@@ -99,9 +99,10 @@ inline Rcpp::NumericVector aliased_indices(const std::vector<std::size_t>& buf, 
   return Rcpp::NumericVector(buf.begin(), buf.begin() + static_cast<std::ptrdiff_t>(m));
 }
 
-// A lambda estimate and its profile curve as the R list the estimators return.
-inline Rcpp::List lambda_result_list(const pwb_lambda_result& r, const std::vector<double>& grid,
-                                     const std::vector<double>& ll) {
+// A lambda estimate and its profile curve as the R list the estimators return (Grid: any
+// vector Rcpp can wrap, e.g. std::vector<double> or a column of a NumericMatrix).
+template <class Grid>
+inline Rcpp::List lambda_result_list(const pwb_lambda_result& r, const Grid& grid, const Grid& ll) {
   return Rcpp::List::create(
       Rcpp::Named("lambda") = r.lambda, Rcpp::Named("conf_low") = r.conf_low,
       Rcpp::Named("conf_high") = r.conf_high, Rcpp::Named("convenient") = r.convenient,

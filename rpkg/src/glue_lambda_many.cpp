@@ -48,17 +48,9 @@ Rcpp::List rpwb_estimate_response_lambdas(Rcpp::NumericMatrix Y, Rcpp::NumericMa
   int first_failed = 0;  // 1-based column of the first failing response; 0 none
   for (std::size_t j = 0; j < q; ++j) {
     if (st[j] != PWB_OK && first_failed == 0) first_failed = static_cast<int>(j) + 1;
-    const pwb_lambda_result& r = res[j];
-    fits[static_cast<int>(j)] = Rcpp::List::create(
-        Rcpp::Named("lambda") = r.lambda, Rcpp::Named("conf_low") = r.conf_low,
-        Rcpp::Named("conf_high") = r.conf_high, Rcpp::Named("convenient") = r.convenient,
-        Rcpp::Named("loglik") = r.loglik, Rcpp::Named("at_bound") = r.at_bound != 0,
-        Rcpp::Named("converged") = r.converged != 0, Rcpp::Named("n") = static_cast<double>(r.n),
-        Rcpp::Named("low_open") = r.low_open != 0, Rcpp::Named("high_open") = r.high_open != 0,
-        Rcpp::Named("rank") = static_cast<double>(r.rank),
-        Rcpp::Named("n_aliased") = static_cast<double>(r.n_aliased),
-        Rcpp::Named("grid") = grid(Rcpp::_, static_cast<int>(j)),
-        Rcpp::Named("grid_loglik") = ll(Rcpp::_, static_cast<int>(j)));
+    const int c = static_cast<int>(j);
+    fits[c] = rpwb::lambda_result_list(res[j], Rcpp::NumericVector(grid(Rcpp::_, c)),
+                                       Rcpp::NumericVector(ll(Rcpp::_, c)));
   }
   std::size_t n_aliased = 0;  // the shared design's count, from any estimated response
   for (std::size_t j = 0; j < q; ++j)

@@ -1,4 +1,5 @@
 // Summaries through the C ABI: chunks, bytes, merges and finishes against the one-pass calls.
+#include <cstddef>
 #include <catch2/catch.hpp>
 
 #include <cmath>
@@ -197,4 +198,30 @@ TEST_CASE("a fit summary and its checks equal pwb_model_fit and its checks", "[c
   pwb_fit_summary_free(b);
   pwb_model_free(m);
   pwb_transform_free(t);
+}
+
+TEST_CASE("a lambda summary finishes with options from an older, shorter header",
+          "[capi][accumulate]") {
+  const Rows d = simulate(6000, 63);
+  pwb_lambda_summary* s = nullptr;
+  REQUIRE(pwb_lambda_summary_create(d.p, PWB_BOX_COX, &s) == PWB_OK);
+  REQUIRE(pwb_lambda_summary_add(s, d.y.data(), d.X.data(), d.n, d.n, nullptr) == PWB_OK);
+  pwb_lambda_options full, old;
+  pwb_lambda_options_init(&full);
+  full.lower = -2.0;
+  old = full;
+  // A caller compiled before the aliased-column fields (and before the weights) were appended.
+  old.struct_size = offsetof(pwb_lambda_options, weights);
+  pwb_lambda_result a, b;
+  pwb_lambda_result_init(&a);
+  pwb_lambda_result_init(&b);
+  pwb_summary_pass_info info;
+  pwb_summary_pass_info_init(&info);
+  REQUIRE(pwb_lambda_summary_finish(s, &full, &a, 0, nullptr, nullptr, &info) == PWB_OK);
+  REQUIRE(pwb_lambda_summary_finish(s, &old, &b, 0, nullptr, nullptr, &info) == PWB_OK);
+  CHECK(b.lambda == a.lambda);  // same settings read, so the same search to the bit
+  CHECK(b.conf_low == a.conf_low);
+  old.struct_size = offsetof(pwb_lambda_options, level);  // too short to hold the settings
+  CHECK(pwb_lambda_summary_finish(s, &old, &b, 0, nullptr, nullptr, &info) == PWB_ERR_ARGUMENT);
+  pwb_lambda_summary_free(s);
 }
