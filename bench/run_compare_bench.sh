@@ -8,9 +8,5 @@ set -euo pipefail
 root=$(cd "$(dirname "$0")/.." && pwd)
 build=${1:-$root/build/rdev}
 shift || true
-if [ ! -d "$build/Rlib/powerback" ]; then
-  mkdir -p "$build"
-  tarball=$("$root/tools/build_rpkg.sh" "$build/rpkg" --no-build-vignettes | tail -n 1)
-  R CMD INSTALL --no-test-load -l "$build/Rlib" "$tarball" >"$build/install.log" 2>&1
-fi
+. "$root/bench/ensure_rlib.sh"
 R_LIBS="$build/Rlib" Rscript --vanilla "$root/bench/compare_bench.R" "$@"
