@@ -28,6 +28,11 @@
 #' on the left of the formula (one factorisation of the shared design for the powers; one model
 #' per response); [response_fits()] gives each response's own result.
 #'
+#' Threads: work that splits into independent pieces (the responses of a many-response call,
+#' the rows of a smearing mean) may run on several threads of the compiled code. The option
+#' `powerback.threads` sets how many (default 2, or 1 on a single-core machine); the results do
+#' not depend on it.
+#'
 #' @useDynLib powerback, .registration = TRUE
 #' @importFrom Rcpp evalCpp
 #' @importFrom stats coef confint predict residuals fitted logLik model.frame model.matrix
