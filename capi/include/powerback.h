@@ -618,14 +618,28 @@ typedef struct pwb_model_options {
                                   weight drops the row from the fit (it keeps a fitted value and a
                                   residual, leverage 0). Read only during pwb_model_fit (copied).
                                   Absent (NULL) when struct_size does not reach this field. */
+  int borrow_design;           /* 0 (default): X is copied and the caller may free it once
+                                  pwb_model_fit returns. Nonzero: X is the FULL design, n-by-
+                                  (p + 1) with a first column of ones when intercept is set
+                                  (checked: PWB_ERR_ARGUMENT otherwise), n-by-p without (p still
+                                  counts the predictors alone, as in pwb_model_predict), and an
+                                  unweighted model reads it in place instead of keeping its own
+                                  copy (n x columns doubles spared): X stays owned by the caller,
+                                  who must keep it alive and unchanged until pwb_model_free of the
+                                  handle. Reading the handle from several threads stays safe as
+                                  long as nobody writes X. A weighted model keeps its own weighted
+                                  rows and reads X only during pwb_model_fit. Results are the same
+                                  bit for bit either way. Absent (0) when struct_size does not
+                                  reach this field. */
 } pwb_model_options;
 
-/* Sets struct_size and the defaults (intercept 1, estimated_parameters 0, weights NULL). NULL is
- * ignored. */
+/* Sets struct_size and the defaults (intercept 1, estimated_parameters 0, weights NULL,
+ * borrow_design 0). NULL is ignored. */
 PWB_API void pwb_model_options_init(pwb_model_options *opt);
 
 /* Fits the model. y: n raw responses (original units); X: n-by-p predictors, column-major,
- * without an intercept column (X may be NULL when p is 0); response: the transform T of y, or
+ * without an intercept column (X may be NULL when p is 0), or the full design read in place
+ * when opt->borrow_design is set (see pwb_model_options); response: the transform T of y, or
  * NULL for none (it is copied; the caller may free it afterwards); opt may be NULL (defaults).
  * On success *out owns a new handle the caller releases with pwb_model_free; on failure *out is
  * NULL. Errors: PWB_ERR_ARGUMENT for NULL y or out, n == 0, a struct_size too small;
@@ -637,7 +651,8 @@ PWB_API void pwb_model_options_init(pwb_model_options *opt);
  * weight; sigma, rss (sum of w e^2), standard errors and the log-likelihood are those of R's lm
  * with the same weights (loglik: 1/2 sum log w - N/2 (log(2 pi) + 1 - log N + log rss) plus the
  * unweighted Jacobian, over the N rows of positive weight).
- * Thread-safe (touches only its arguments). */
+ * Thread-safe (touches only its arguments; a borrowed X is read again by later calls on the
+ * handle, so it must not be written while the handle lives). */
 PWB_API pwb_status pwb_model_fit(const double *y, const double *X, size_t n, size_t p,
                                  const pwb_transform *response, const pwb_model_options *opt,
                                  pwb_model **out);

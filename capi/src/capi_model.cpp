@@ -84,6 +84,7 @@ void pwb_model_options_init(pwb_model_options* opt) {
   opt->intercept = 1;
   opt->estimated_parameters = 0;
   opt->weights = nullptr;
+  opt->borrow_design = 0;
 }
 
 pwb_status pwb_model_fit(const double* y, const double* X, size_t n, size_t p,
@@ -106,8 +107,12 @@ pwb_status pwb_model_fit(const double* y, const double* X, size_t n, size_t p,
     }
     std::unique_ptr<Transform> tr;
     if (response) tr.reset(new Transform(capi::transform_of(response, "response")));
+    // A borrowed design holds the intercept column too.
+    const bool borrow = o.borrow_design != 0;
+    const std::size_t cols = p + (borrow && o.intercept != 0 ? 1 : 0);
+    capi::need_array(X, capi::checked_matrix_size(n, cols, "X"), "X");
     *out = new pwb_model{Model(y, X, n, p, o.intercept != 0, tr.get(), o.estimated_parameters,
-                               o.weights)};
+                               o.weights, borrow)};
   });
 }
 

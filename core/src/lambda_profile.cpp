@@ -170,7 +170,7 @@ LambdaProfile::LambdaProfile(const double* y, const LeastSquares& design, Family
   r_ = design.r();
   make_binned(design.columns());
   if (!binned_) return;
-  const Eigen::MatrixXd& D = design.design();
+  const auto D = design.design();  // a view, no copy
   for (Eigen::Index r0 = 0; r0 < D.rows(); r0 += static_cast<Eigen::Index>(kTallBlockRows)) {
     const Eigen::Index nr = std::min(static_cast<Eigen::Index>(kTallBlockRows), D.rows() - r0);
     binned_->add_rows(static_cast<std::size_t>(r0), D.middleRows(r0, nr));

@@ -44,21 +44,48 @@ Eigen::MatrixXd build_design(const double* X, std::size_t n, std::size_t p, bool
 LeastSquares::LeastSquares(const double* X, std::size_t n, std::size_t p, bool add_intercept,
                            double tol)
     : design_(build_design(X, n, p, add_intercept)), intercept_(add_intercept) {
+  set_shape();
   factor(tol);
 }
 
 LeastSquares::LeastSquares(Deferred, const double* X, std::size_t n, std::size_t p,
                            bool add_intercept)
-    : design_(build_design(X, n, p, add_intercept)), intercept_(add_intercept), qless_(true) {}
+    : design_(build_design(X, n, p, add_intercept)), intercept_(add_intercept), qless_(true) {
+  set_shape();
+}
 
 LeastSquares::LeastSquares(Deferred, Eigen::MatrixXd design)
     : design_(std::move(design)), qless_(true) {
+  set_shape();
   require(design_.rows() > 0 && design_.cols() > 0, "the design is empty");
   require(design_.allFinite(), "the design has non-finite entries");
   intercept_ = (design_.col(0).array() == 1.0).all();
 }
 
+LeastSquares::LeastSquares(Deferred, Borrowed, const double* design, std::size_t n,
+                           std::size_t columns, bool intercept_column)
+    : intercept_(intercept_column), qless_(true) {
+  require(n > 0, "the design has no rows");
+  require(columns > 0, "the design has no columns");
+  require(design != nullptr, "the design is NULL");
+  const std::size_t c0 = intercept_column ? 1 : 0;
+  for (std::size_t i = 0; i < c0 * n; ++i)
+    require(design[i] == 1.0, "the first column of the design must be all ones (the intercept)"
+                              ", but row " + std::to_string(i) + " (0-based) is not 1");
+  for (std::size_t j = c0; j < columns; ++j)
+    for (std::size_t i = 0; i < n; ++i)
+      if (!std::isfinite(design[j * n + i]))
+        throw Error(ErrorCode::NonFinite, "predictor column " + std::to_string(j - c0) +
+                                              " has a non-finite value at row " +
+                                              std::to_string(i) +
+                                              " (0-based): remove or impute it first");
+  borrowed_ = design;
+  rows_ = static_cast<Eigen::Index>(n);
+  cols_ = static_cast<Eigen::Index>(columns);
+}
+
 LeastSquares::LeastSquares(const Eigen::MatrixXd& design, double tol) : design_(design) {
+  set_shape();
   require(design_.rows() > 0 && design_.cols() > 0, "the design is empty");
   require(design_.allFinite(), "the design has non-finite entries");
   intercept_ = (design_.col(0).array() == 1.0).all();
@@ -70,9 +97,9 @@ using HouseholderQ = Eigen::HouseholderSequence<Eigen::MatrixXd, Eigen::VectorXd
 }  // namespace
 
 void LeastSquares::factor(double tol) {
-  const Eigen::Index p = design_.cols();
-  const Eigen::VectorXd s = detail::column_scales(design_);
-  const Eigen::MatrixXd scaled = design_ * s.asDiagonal();
+  const Eigen::Index p = design().cols();
+  const Eigen::VectorXd s = detail::column_scales(design());
+  const Eigen::MatrixXd scaled = design() * s.asDiagonal();
   Eigen::VectorXd norms(p);
   for (Eigen::Index j = 0; j < p; ++j) norms(j) = scaled.col(j).norm();
   detail::RankedQR q = detail::apply_rank_rule(scaled, norms, tol);
@@ -96,11 +123,11 @@ std::shared_ptr<const LeastSquares::Householder> LeastSquares::householder() con
   std::shared_ptr<const Householder> h = std::atomic_load(&householder_);
   if (h) return h;
   // The kept columns of the scaled design, factored in order (their rank is decided already).
-  const Eigen::Index n = design_.rows(), k = static_cast<Eigen::Index>(kept_.size());
+  const Eigen::Index n = design().rows(), k = static_cast<Eigen::Index>(kept_.size());
   auto built = std::make_shared<Householder>();
   built->packed.resize(n, k);
   for (Eigen::Index i = 0; i < k; ++i)
-    built->packed.col(i) = design_.col(static_cast<Eigen::Index>(kept_[static_cast<std::size_t>(i)])) * kscale_(i);
+    built->packed.col(i) = design().col(static_cast<Eigen::Index>(kept_[static_cast<std::size_t>(i)])) * kscale_(i);
   const Eigen::HouseholderQR<Eigen::Ref<Eigen::MatrixXd>> qr(built->packed);
   built->hcoeffs = qr.hCoeffs();
   h = std::move(built);
@@ -110,7 +137,7 @@ std::shared_ptr<const LeastSquares::Householder> LeastSquares::householder() con
 
 namespace detail {
 
-Eigen::VectorXd column_scales(const Eigen::MatrixXd& a) {
+Eigen::VectorXd column_scales(const Eigen::Ref<const Eigen::MatrixXd>& a) {
   Eigen::VectorXd s(a.cols());
   for (Eigen::Index j = 0; j < a.cols(); ++j) {
     const double m = a.col(j).cwiseAbs().maxCoeff();
@@ -198,9 +225,9 @@ RankedQR apply_rank_rule(const Eigen::MatrixXd& a, const Eigen::VectorXd& norms,
 }  // namespace detail
 
 Eigen::VectorXd LeastSquares::rotate(const Eigen::VectorXd& y) const {
-  require(y.size() == design_.rows(), "the response has " + std::to_string(y.size()) +
+  require(y.size() == design().rows(), "the response has " + std::to_string(y.size()) +
                                           " values but the design has " +
-                                          std::to_string(design_.rows()) + " rows");
+                                          std::to_string(design().rows()) + " rows");
   const auto h = householder();
   Eigen::VectorXd w = y;
   w.applyOnTheLeft(HouseholderQ(h->packed, h->hcoeffs).adjoint());
@@ -232,14 +259,14 @@ Eigen::VectorXd LeastSquares::coefficients(const Eigen::VectorXd& y) const {
   const Eigen::VectorXd bk =
       kscale_.asDiagonal() *
       h->packed.topLeftCorner(k, k).triangularView<Eigen::Upper>().solve(project(y));
-  Eigen::VectorXd b = Eigen::VectorXd::Constant(design_.cols(), std::numeric_limits<double>::quiet_NaN());
+  Eigen::VectorXd b = Eigen::VectorXd::Constant(design().cols(), std::numeric_limits<double>::quiet_NaN());
   for (std::size_t i = 0; i < kept_.size(); ++i) b(static_cast<Eigen::Index>(kept_[i])) = bk(static_cast<Eigen::Index>(i));
   return b;
 }
 
 Eigen::MatrixXd LeastSquares::unscaled_covariance() const {
   const Eigen::MatrixXd ck = r_inv_ * r_inv_.transpose();
-  const Eigen::Index p = design_.cols();
+  const Eigen::Index p = design().cols();
   Eigen::MatrixXd c = Eigen::MatrixXd::Constant(p, p, std::numeric_limits<double>::quiet_NaN());
   for (std::size_t a = 0; a < kept_.size(); ++a)
     for (std::size_t b = 0; b < kept_.size(); ++b)
@@ -249,7 +276,7 @@ Eigen::MatrixXd LeastSquares::unscaled_covariance() const {
 }
 
 Eigen::VectorXd LeastSquares::unscaled_variances() const {
-  Eigen::VectorXd v = Eigen::VectorXd::Constant(design_.cols(), std::numeric_limits<double>::quiet_NaN());
+  Eigen::VectorXd v = Eigen::VectorXd::Constant(design().cols(), std::numeric_limits<double>::quiet_NaN());
   for (std::size_t a = 0; a < kept_.size(); ++a)
     v(static_cast<Eigen::Index>(kept_[a])) = r_inv_.row(static_cast<Eigen::Index>(a)).squaredNorm();
   return v;
@@ -258,32 +285,32 @@ Eigen::VectorXd LeastSquares::unscaled_variances() const {
 Eigen::VectorXd LeastSquares::leverages() const {
   if (qless_) {  // h_i = ||R^{-T} x_i||^2, as variance_factor at the design's own rows
     if (const auto kept = std::atomic_load(&leverages_)) return *kept;
-    auto made = std::make_shared<Eigen::VectorXd>(design_.rows());
+    auto made = std::make_shared<Eigen::VectorXd>(design().rows());
     Eigen::VectorXd& h = *made;
     const Eigen::Index k = static_cast<Eigen::Index>(rank());
     constexpr Eigen::Index kBlock = 4096;  // rows per block, so X_k R^{-1} is never formed whole
     Eigen::MatrixXd xk;
-    for (Eigen::Index r0 = 0; r0 < design_.rows(); r0 += kBlock) {
-      const Eigen::Index nr = std::min(kBlock, design_.rows() - r0);
+    for (Eigen::Index r0 = 0; r0 < design().rows(); r0 += kBlock) {
+      const Eigen::Index nr = std::min(kBlock, design().rows() - r0);
       xk.resize(nr, k);
       for (Eigen::Index i = 0; i < k; ++i)
-        xk.col(i) = design_.col(static_cast<Eigen::Index>(kept_[static_cast<std::size_t>(i)])).segment(r0, nr);
+        xk.col(i) = design().col(static_cast<Eigen::Index>(kept_[static_cast<std::size_t>(i)])).segment(r0, nr);
       h.segment(r0, nr) = (xk * r_inv_).rowwise().squaredNorm();
     }
     std::shared_ptr<const Eigen::VectorXd> done = std::move(made);
     std::atomic_store(&leverages_, done);
     return *done;
   }
-  const Eigen::Index n = design_.rows(), k = static_cast<Eigen::Index>(rank());
+  const Eigen::Index n = design().rows(), k = static_cast<Eigen::Index>(rank());
   const auto hh = householder();
   const Eigen::MatrixXd q1 = HouseholderQ(hh->packed, hh->hcoeffs) * Eigen::MatrixXd::Identity(n, k);
   return q1.rowwise().squaredNorm();
 }
 
-Eigen::VectorXd LeastSquares::variance_factor(const Eigen::MatrixXd& rows) const {
-  require(rows.cols() == design_.cols(), "new rows have " + std::to_string(rows.cols()) +
+Eigen::VectorXd LeastSquares::variance_factor(const Eigen::Ref<const Eigen::MatrixXd>& rows) const {
+  require(rows.cols() == design().cols(), "new rows have " + std::to_string(rows.cols()) +
                                              " columns; the design has " +
-                                             std::to_string(design_.cols()));
+                                             std::to_string(design().cols()));
   Eigen::MatrixXd xk(rows.rows(), static_cast<Eigen::Index>(kept_.size()));
   for (std::size_t i = 0; i < kept_.size(); ++i)
     xk.col(static_cast<Eigen::Index>(i)) = rows.col(static_cast<Eigen::Index>(kept_[i]));

@@ -15,7 +15,7 @@ namespace powerback {
 
 LeastSquares::ResponseFit LeastSquares::factor_with_response(const Eigen::VectorXd& y, double tol) {
   using Eigen::Index;
-  const Index n = design_.rows(), c = design_.cols();
+  const Index n = design().rows(), c = design().cols();
   require(y.size() == n, "the response has " + std::to_string(y.size()) +
                              " values but the design has " + std::to_string(n) + " rows");
   require(y.allFinite(), "the response has non-finite values");
@@ -25,7 +25,7 @@ LeastSquares::ResponseFit LeastSquares::factor_with_response(const Eigen::Vector
   std::atomic_store(&leverages_, std::shared_ptr<const Eigen::VectorXd>());
 
   // Exact power-of-two scales of the columns and of y (their largest magnitude in [0.5, 1)).
-  const Eigen::VectorXd s = detail::column_scales(design_);
+  const Eigen::VectorXd s = detail::column_scales(design());
   double ymax = y.cwiseAbs().maxCoeff();
   int e = 0;
   if (ymax > 0) std::frexp(ymax, &e);
@@ -37,7 +37,7 @@ LeastSquares::ResponseFit LeastSquares::factor_with_response(const Eigen::Vector
   for (Index r0 = 0; r0 < n; r0 += static_cast<Index>(kTallBlockRows)) {
     const Index nr = std::min(static_cast<Index>(kTallBlockRows), n - r0), k = r_all.rows();
     if (work.rows() != k + nr) work.resize(k + nr, c + 1);
-    work.block(k, 0, nr, c) = design_.middleRows(r0, nr) * s.asDiagonal();
+    work.block(k, 0, nr, c) = design().middleRows(r0, nr) * s.asDiagonal();
     work.block(k, c, nr, 1) = y.segment(r0, nr) * sy;
     work.topRows(k) = r_all;
     poll_cancel();

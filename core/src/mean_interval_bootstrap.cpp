@@ -28,7 +28,7 @@ MeanIntervals bootstrap_mean_intervals(const Model& model, const Eigen::MatrixXd
                                        const std::vector<char>& /*missing*/, const Grouping& g,
                                        const MeanIntervals& point, const MeanIntervalOptions& opt) {
   const LeastSquares& ls = model.least_squares();
-  const Eigen::MatrixXd& design = ls.design();
+  const auto design = ls.design();  // a view (owned or borrowed), no copy
   const Eigen::VectorXd& e = model.smearing_residuals();
   const std::size_t n = static_cast<std::size_t>(e.size());
   const double df = static_cast<double>(model.df_residual());

@@ -51,7 +51,7 @@ ResidualTerms residual_terms(const Model& model, const MeanEvaluator& ev, const 
                              const std::vector<double>& mean_slope) {
   const Transform& t = model.response();
   const Eigen::VectorXd& e = model.smearing_residuals();
-  const Eigen::MatrixXd& D = model.least_squares().design();
+  const auto D = model.least_squares().design();  // a view (owned or borrowed), no copy
   const std::size_t G = g.rows.size(), n = static_cast<std::size_t>(e.size());
   const double sign = t.spec().reflect ? -1.0 : 1.0, nd = static_cast<double>(n);
   ResidualTerms out;

@@ -30,11 +30,27 @@ void check_weights(const double* w, std::size_t n) {
                        count, bad);
 }
 
-// The factorisation of [1 X] (unweighted) or of sqrt(w) [1 X] over the rows of positive weight.
+// The predictors of X: X itself, or the columns after its intercept column when X is a borrowed
+// full design with one (whose first column must then be all ones).
+const double* predictors_of(const double* X, std::size_t n, bool intercept, bool borrowed) {
+  if (!borrowed || !intercept) return X;
+  require(X != nullptr, "the design is NULL");
+  for (std::size_t i = 0; i < n; ++i)
+    require(X[i] == 1.0, "the first column of the design must be all ones (the intercept), but "
+                         "row " + std::to_string(i) + " (0-based) is not 1");
+  return X + n;
+}
+
+// The factorisation of [1 X] (unweighted; X read in place when borrowed) or of sqrt(w) [1 X]
+// over the rows of positive weight.
 LeastSquares factor_design(const double* X, std::size_t n, std::size_t p, bool intercept,
-                           const double* w, std::vector<std::size_t>& kept_rows) {
+                           const double* w, std::vector<std::size_t>& kept_rows, bool borrowed) {
+  if (!w && borrowed)
+    return LeastSquares(LeastSquares::Deferred{}, LeastSquares::Borrowed{}, X, n,
+                        p + (intercept ? 1 : 0), intercept);
   if (!w) return LeastSquares(LeastSquares::Deferred{}, X, n, p, intercept);
   require(n > 0, "the design has no rows");
+  X = predictors_of(X, n, intercept, borrowed);
   require(X != nullptr || p == 0, "the predictor matrix is NULL");
   check_weights(w, n);
   for (std::size_t j = 0; j < p; ++j)
@@ -69,17 +85,18 @@ void require_residual_df(const LeastSquares& ls) {
 }  // namespace
 
 Model::Model(const double* y, const double* X, std::size_t n, std::size_t p, bool intercept,
-             const Transform* response, std::size_t estimated_parameters, const double* weights)
+             const Transform* response, std::size_t estimated_parameters, const double* weights,
+             bool borrow_design)
     : response_(response ? *response : Transform()),
-      ls_(factor_design(X, n, p, intercept, weights, kept_rows_)),
+      ls_(factor_design(X, n, p, intercept, weights, kept_rows_, borrow_design)),
       intercept_(intercept) {
   require(y != nullptr, "the response y is NULL");
-  const std::vector<double> yv(y, y + n);
-  const std::vector<double> zv = response_.apply_checked(yv, "y");
+  // z = T(y) written in place, and log |dT/dy|, from the caller's y (no copies of it).
+  z_.resize(static_cast<Eigen::Index>(n));
+  response_.throw_if_failed(response_.apply(y, n, z_.data()), n, "y", false);
   std::vector<double> jac(n);
-  const MapReport r = response_.log_abs_derivative(yv.data(), n, jac.data());
+  const MapReport r = response_.log_abs_derivative(y, n, jac.data());
   response_.throw_if_failed(r, n, "y", false);
-  z_ = Eigen::Map<const Eigen::VectorXd>(zv.data(), static_cast<Eigen::Index>(n));
   double sum_log_w = 0.0;
   jacobian_ = 0.0;
   if (!weights) {
@@ -109,7 +126,7 @@ Model::Model(const double* y, const double* X, std::size_t n, std::size_t p, boo
         fitted_.array() += b;
         continue;
       }
-      const double* col = X + (j - c0) * n;
+      const double* col = (borrow_design ? X + c0 * n : X) + (j - c0) * n;
       for (std::size_t i = 0; i < n; ++i) fitted_(static_cast<Eigen::Index>(i)) += b * col[i];
     }
     resid_ = z_ - fitted_;
@@ -128,8 +145,8 @@ Model::Model(const double* y, const double* X, std::size_t n, std::size_t p, boo
   loglik_df_ = static_cast<double>(ls_.rank() + 1 + estimated_parameters);
 }
 
-Model::Model(PreTransformed, const Eigen::VectorXd& z, const Eigen::MatrixXd& design)
-    : ls_(LeastSquares::Deferred{}, design), intercept_(ls_.has_intercept()) {
+Model::Model(PreTransformed, const Eigen::VectorXd& z, Eigen::MatrixXd design)
+    : ls_(LeastSquares::Deferred{}, std::move(design)), intercept_(ls_.has_intercept()) {
   z_ = z;
   finish_unweighted();
   const double nd = static_cast<double>(ls_.n());

@@ -67,7 +67,7 @@ Prediction Model::predict_fitted(const PredictOptions& opt) const {
   const Eigen::Index ni = static_cast<Eigen::Index>(n());
   Eigen::MatrixXd rows = Eigen::MatrixXd::Zero(ni, static_cast<Eigen::Index>(columns()));
   std::vector<unsigned> flags(n(), kPredMissing);
-  const Eigen::MatrixXd& d = ls_.design();
+  const auto d = ls_.design();
   for (std::size_t k = 0; k < kept_rows_.size(); ++k) {
     const std::size_t i = kept_rows_[k];
     const double s = std::sqrt(weights_(static_cast<Eigen::Index>(i)));
@@ -88,7 +88,8 @@ std::shared_ptr<const Smearing> Model::smearing() const {
   return have;
 }
 
-Prediction Model::predict_rows(const Eigen::MatrixXd& rows, std::vector<unsigned> flags,
+Prediction Model::predict_rows(const Eigen::Ref<const Eigen::MatrixXd>& rows,
+                               std::vector<unsigned> flags,
                                const PredictOptions& opt) const {
   const std::size_t m = static_cast<std::size_t>(rows.rows());
   Prediction out;

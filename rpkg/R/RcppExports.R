@@ -85,8 +85,8 @@ rpwb_model_mean_interval <- function(handle, Xnew, group, n_groups, level, mean_
     .Call(`_powerback_rpwb_model_mean_interval`, handle, Xnew, group, n_groups, level, mean_method, method, replicates, seed)
 }
 
-rpwb_model_new <- function(y, X, intercept, response, estimated, weights) {
-    .Call(`_powerback_rpwb_model_new`, y, X, intercept, response, estimated, weights)
+rpwb_model_new <- function(y, X, intercept, response, estimated, weights, borrow = FALSE) {
+    .Call(`_powerback_rpwb_model_new`, y, X, intercept, response, estimated, weights, borrow)
 }
 
 rpwb_model_is_live <- function(handle) {

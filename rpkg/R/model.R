@@ -119,7 +119,7 @@ lm_transformed <- function(formula, data, response = "estimate", predictors = NU
   ptrs <- pwb_choose_predictor_transforms(predictors, vars_df, formula, xvars, yname, response,
                                           level, w)
   tdata <- pwb_transform_columns(vars_df, ptrs)
-  design <- pwb_model_design(list(formula = formula, contrasts = NULL), tdata)
+  design <- pwb_model_design(list(formula = formula, contrasts = NULL), tdata, full = TRUE)
   resp <- pwb_choose_response_transform(response, formula, tdata, family, level, range, w,
                                         design)
   if (isTRUE(resp$lambda$at_bound))
@@ -132,8 +132,7 @@ lm_transformed <- function(formula, data, response = "estimate", predictors = NU
                  predictors = ptrs, response_lambda = resp$lambda, estimated = resp$estimated,
                  yname = yname, xvars = xvars, na.action = attr(frame, "na.action"),
                  contrasts = NULL)
-  handle <- rpwb_model_new(design$y, design$X, design$intercept,
-                           pwb_spec_or_null(resp$transform), resp$estimated, w)
+  handle <- pwb_fit_core_model(design, resp$transform, resp$estimated, w)
   s <- rpwb_model_summary(handle)
   nm <- design$names
   names(s$coefficients) <- names(s$se) <- names(s$aliased) <- nm

@@ -7,8 +7,9 @@
 # column (whose names that call works out) or any error (whose message names rows there).
 pwb_lambda_on_design <- function(design, formula, family, level, range, w) {
   if (!isTRUE(design$intercept)) return(NULL)
-  res <- rpwb_estimate_response_lambda(design$y, design$X, family, range[1L], range[2L], level,
-                                       101L, if (is.null(w)) NULL else as.double(w), 0L)
+  # the predictors are the columns of the full design D after its intercept column
+  res <- rpwb_estimate_response_lambda(design$y, design$D, family, range[1L], range[2L], level,
+                                       101L, if (is.null(w)) NULL else as.double(w), 1L)
   if (!is.null(res$error) || res$n_aliased > 0) return(NULL)
   tt <- design$terms
   out <- pwb_new_lambda(res, family, level, range, deparse1(attr(tt, "variables")[[2L]]),

@@ -83,8 +83,10 @@ pwb_variables_frame <- function(src) {
 # The design of a pwb_model from its transformed variables `tdata` (the frame's variables with
 # the predictor transforms applied): the raw response y, the design X without its intercept
 # column, and what prediction needs (terms, xlevels, contrasts). The same steps rebuild the core
-# model after a reload, so the design is the same bit for bit.
-pwb_model_design <- function(object, tdata) {
+# model after a reload, so the design is the same bit for bit. With `full = TRUE` the design is
+# returned whole as `D` (the model matrix, intercept column included) and no X is made: the core
+# model reads D in place (one copy of the design in all).
+pwb_model_design <- function(object, tdata, full = FALSE) {
   tt <- stats::terms(object$formula)
   vars <- as.list(attr(tt, "variables"))[-1L]
   if (all(vapply(vars, is.symbol, logical(1)))) {
@@ -96,20 +98,36 @@ pwb_model_design <- function(object, tdata) {
   }
   mm <- stats::model.matrix(attr(mf, "terms"), mf, contrasts.arg = object$contrasts)
   intercept <- ncol(mm) > 0L && colnames(mm)[1L] == "(Intercept)"
-  X <- if (intercept) mm[, -1L, drop = FALSE] else mm
-  storage.mode(X) <- "double"
   y <- .subset2(mf, 1L)  # the response column (model.response() would name 1e6 rows)
   if (!is.double(y)) y <- as.double(y)
-  list(y = y, X = X, intercept = intercept,
-       names = colnames(mm), terms = attr(mf, "terms"), xlevels = stats::.getXlevels(tt, mf),
-       contrasts = attr(mm, "contrasts"), assign = attr(mm, "assign"))
+  out <- list(y = y, X = NULL, D = NULL, intercept = intercept,
+              names = colnames(mm), terms = attr(mf, "terms"),
+              xlevels = stats::.getXlevels(tt, mf), contrasts = attr(mm, "contrasts"),
+              assign = attr(mm, "assign"))
+  if (full) {
+    # mm itself, unmodified: changing it (even its attributes) would copy it.
+    if (!is.double(mm)) storage.mode(mm) <- "double"
+    out$D <- mm
+  } else {
+    X <- if (intercept) mm[, -1L, drop = FALSE] else mm
+    storage.mode(X) <- "double"
+    out$X <- X
+  }
+  out
 }
 
 # The design of a pwb_model rebuilt from its stored frame and predictor transforms.
-pwb_stored_design <- function(object) {
+pwb_stored_design <- function(object, full = FALSE) {
   tdata <- pwb_transform_columns(pwb_frame_variables(.subset2(object, "frame")),
                                  .subset2(object, "predictors"))
-  pwb_model_design(unclass(object), tdata)
+  pwb_model_design(unclass(object), tdata, full)
+}
+
+# The live core model of a design made with full = TRUE: the model reads design$D in place and
+# the returned handle keeps that matrix alive.
+pwb_fit_core_model <- function(design, transform, estimated, w) {
+  rpwb_model_new(design$y, design$D, design$intercept, pwb_spec_or_null(transform), estimated,
+                 w, TRUE)
 }
 
 # An environment holding the external pointer of the core model. An environment is shared by
@@ -126,11 +144,10 @@ pwb_handle <- function(object) {
   env <- .subset2(object, "handle")
   if (!is.environment(env)) stop("`object` is not a pwb_model made by lm_transformed()", call. = FALSE)
   if (!is.null(env$ptr) && rpwb_model_is_live(env$ptr)) return(env$ptr)
-  design <- pwb_stored_design(object)
-  env$ptr <- rpwb_model_new(design$y, design$X, design$intercept,
-                            pwb_spec_or_null(.subset2(object, "response")),
-                            .subset2(object, "estimated"),
-                            stats::model.weights(.subset2(object, "frame")))
+  design <- pwb_stored_design(object, full = TRUE)
+  env$ptr <- pwb_fit_core_model(design, .subset2(object, "response"),
+                                .subset2(object, "estimated"),
+                                stats::model.weights(.subset2(object, "frame")))
   env$ptr
 }
 

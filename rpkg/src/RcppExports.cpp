@@ -328,8 +328,8 @@ BEGIN_RCPP
 END_RCPP
 }
 // rpwb_model_new
-SEXP rpwb_model_new(Rcpp::NumericVector y, Rcpp::NumericMatrix X, bool intercept, Rcpp::Nullable<Rcpp::List> response, int estimated, Rcpp::Nullable<Rcpp::NumericVector> weights);
-RcppExport SEXP _powerback_rpwb_model_new(SEXP ySEXP, SEXP XSEXP, SEXP interceptSEXP, SEXP responseSEXP, SEXP estimatedSEXP, SEXP weightsSEXP) {
+SEXP rpwb_model_new(Rcpp::NumericVector y, Rcpp::NumericMatrix X, bool intercept, Rcpp::Nullable<Rcpp::List> response, int estimated, Rcpp::Nullable<Rcpp::NumericVector> weights, bool borrow);
+RcppExport SEXP _powerback_rpwb_model_new(SEXP ySEXP, SEXP XSEXP, SEXP interceptSEXP, SEXP responseSEXP, SEXP estimatedSEXP, SEXP weightsSEXP, SEXP borrowSEXP) {
 BEGIN_RCPP
     Rcpp::RObject rcpp_result_gen;
     Rcpp::RNGScope rcpp_rngScope_gen;
@@ -339,7 +339,8 @@ BEGIN_RCPP
     Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::List> >::type response(responseSEXP);
     Rcpp::traits::input_parameter< int >::type estimated(estimatedSEXP);
     Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::NumericVector> >::type weights(weightsSEXP);
-    rcpp_result_gen = Rcpp::wrap(rpwb_model_new(y, X, intercept, response, estimated, weights));
+    Rcpp::traits::input_parameter< bool >::type borrow(borrowSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_model_new(y, X, intercept, response, estimated, weights, borrow));
     return rcpp_result_gen;
 END_RCPP
 }
@@ -518,7 +519,7 @@ static const R_CallMethodDef CallEntries[] = {
     {"_powerback_rpwb_lambda_profile", (DL_FUNC) &_powerback_rpwb_lambda_profile, 5},
     {"_powerback_rpwb_estimate_response_lambdas", (DL_FUNC) &_powerback_rpwb_estimate_response_lambdas, 9},
     {"_powerback_rpwb_model_mean_interval", (DL_FUNC) &_powerback_rpwb_model_mean_interval, 9},
-    {"_powerback_rpwb_model_new", (DL_FUNC) &_powerback_rpwb_model_new, 6},
+    {"_powerback_rpwb_model_new", (DL_FUNC) &_powerback_rpwb_model_new, 7},
     {"_powerback_rpwb_model_is_live", (DL_FUNC) &_powerback_rpwb_model_is_live, 1},
     {"_powerback_rpwb_model_summary", (DL_FUNC) &_powerback_rpwb_model_summary, 1},
     {"_powerback_rpwb_model_vector", (DL_FUNC) &_powerback_rpwb_model_vector, 2},

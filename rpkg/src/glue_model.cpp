@@ -19,11 +19,13 @@ pwb_model_info info_of(const pwb_model* m) {
 }
 }  // namespace
 
+// borrow = TRUE: X is the full design (its intercept column included when `intercept`), read
+// in place by the model and kept alive by the returned handle (no copy in the core).
 // [[Rcpp::export]]
 SEXP rpwb_model_new(Rcpp::NumericVector y, Rcpp::NumericMatrix X, bool intercept,
                     Rcpp::Nullable<Rcpp::List> response, int estimated,
-                    Rcpp::Nullable<Rcpp::NumericVector> weights) {
-  return rpwb::fit_model(y, X, intercept, response, estimated, weights);
+                    Rcpp::Nullable<Rcpp::NumericVector> weights, bool borrow = false) {
+  return rpwb::fit_model(y, X, intercept, response, estimated, weights, borrow);
 }
 
 // TRUE when the handle points at a model (FALSE after saveRDS/readRDS or serialize).

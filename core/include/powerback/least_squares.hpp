@@ -49,6 +49,15 @@ class LeastSquares {
   struct Deferred {};
   LeastSquares(Deferred, const double* X, std::size_t n, std::size_t p, bool add_intercept);
   LeastSquares(Deferred, Eigen::MatrixXd design);
+  // A borrowed design, read in place and never copied: `design` is the full n-by-columns design
+  // (column-major; its first column all ones when `intercept_column`, checked), and the caller
+  // keeps it alive and unchanged for the life of this object and of every copy of it (copies
+  // share the same buffer). Throws Error(Argument) for n == 0, no columns, a NULL design or a
+  // first column that is not all ones when `intercept_column`; Error(NonFinite) naming the first
+  // non-finite predictor (its column counted without the intercept, 0-based).
+  struct Borrowed {};
+  LeastSquares(Deferred, Borrowed, const double* design, std::size_t n, std::size_t columns,
+               bool intercept_column);
   // The coefficients (NaN where aliased) and the residual sum of squares of y.
   struct ResponseFit {
     Eigen::VectorXd coefficients;
@@ -60,14 +69,19 @@ class LeastSquares {
   // constructors above.
   ResponseFit factor_with_response(const Eigen::VectorXd& y, double tol = kRankTolerance);
 
-  std::size_t n() const { return static_cast<std::size_t>(design_.rows()); }
-  std::size_t columns() const { return static_cast<std::size_t>(design_.cols()); }  // incl. intercept
+  std::size_t n() const { return static_cast<std::size_t>(rows_); }
+  std::size_t columns() const { return static_cast<std::size_t>(cols_); }  // incl. intercept
   std::size_t rank() const { return kept_.size(); }
   std::size_t df_residual() const { return n() - rank(); }
   bool has_intercept() const { return intercept_; }
   const std::vector<std::size_t>& kept() const { return kept_; }        // design columns used
   const std::vector<std::size_t>& aliased() const { return aliased_; }  // design columns dropped
-  const Eigen::MatrixXd& design() const { return design_; }              // unscaled
+  // The unscaled design, owned or borrowed: bind it as `const auto d = ls.design();` (binding it
+  // to a `const Eigen::MatrixXd&` would copy it).
+  Eigen::Map<const Eigen::MatrixXd> design() const {
+    return Eigen::Map<const Eigen::MatrixXd>(borrowed_ ? borrowed_ : design_.data(), rows_, cols_);
+  }
+  bool borrowed_design() const { return borrowed_ != nullptr; }
 
   // Q1' y (rank values): the response's coordinates in the column space.
   Eigen::VectorXd project(const Eigen::VectorXd& y) const;
@@ -88,7 +102,7 @@ class LeastSquares {
   Eigen::VectorXd leverages() const;
   // x0' (X_k' X_k)^{-1} x0 for each row x0 of `rows` (m-by-columns(), same column layout as the
   // design, intercept included): the variance factor of a fitted value at new points.
-  Eigen::VectorXd variance_factor(const Eigen::MatrixXd& rows) const;
+  Eigen::VectorXd variance_factor(const Eigen::Ref<const Eigen::MatrixXd>& rows) const;
 
   // Q' y (all n values): the first rank() are the coordinates in the column space, the rest
   // span the residual space, so rss(y) is the squared norm of the tail.
@@ -108,7 +122,13 @@ class LeastSquares {
     Eigen::VectorXd hcoeffs;
   };
   std::shared_ptr<const Householder> householder() const;
-  Eigen::MatrixXd design_;
+  void set_shape() {
+    rows_ = design_.rows();
+    cols_ = design_.cols();
+  }
+  Eigen::MatrixXd design_;              // the design when owned (empty when borrowed)
+  const double* borrowed_ = nullptr;    // the caller's design when borrowed
+  Eigen::Index rows_ = 0, cols_ = 0;    // the design's shape, owned or borrowed
   bool intercept_ = true;
   bool qless_ = false;  // factored by factor_with_response
   std::vector<std::size_t> kept_, aliased_;
@@ -123,7 +143,7 @@ namespace detail {
 
 // Powers of two that bring each column's largest magnitude into [0.5, 1) (1 for a zero column).
 // Multiplying by them is exact.
-Eigen::VectorXd column_scales(const Eigen::MatrixXd& a);
+Eigen::VectorXd column_scales(const Eigen::Ref<const Eigen::MatrixXd>& a);
 
 // The Householder QR of a matrix's kept columns, packed as Eigen's HouseholderQR packs it.
 struct RankedQR {

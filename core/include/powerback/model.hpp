@@ -73,9 +73,18 @@ class Model {
   // IndexedError(Domain) naming the rows of negative or non-finite weights,
   // Error(Singular) when the rank is not below the rows of positive weight (no residual
   // degrees of freedom) or no row has a positive weight.
+  //
+  // borrow_design: X is then the full design, n-by-(p + 1) with a first column of ones when
+  // `intercept` (checked: Error(Argument) otherwise), n-by-p without; an unweighted model reads
+  // it in place for its whole life instead of keeping a copy (leverages, residual checks, mean
+  // intervals and predictions at its own rows read it later), so the caller keeps X alive and
+  // unchanged until the model and every copy of it are destroyed (copies share the buffer).
+  // A weighted model factors sqrt(w) [1 X] over its rows of positive weight, which it builds
+  // and keeps as before; it reads the borrowed X only during construction. Results are the
+  // same bit for bit as with a copied design.
   Model(const double* y, const double* X, std::size_t n, std::size_t p, bool intercept,
         const Transform* response, std::size_t estimated_parameters = 0,
-        const double* weights = nullptr);
+        const double* weights = nullptr, bool borrow_design = false);
 
   std::size_t n() const { return static_cast<std::size_t>(z_.size()); }  // every row given
   std::size_t nobs() const { return ls_.n(); }  // rows in the fit (positive weight)
@@ -86,8 +95,8 @@ class Model {
   bool weighted() const { return weights_.size() > 0; }
   const Eigen::VectorXd& weights() const { return weights_; }  // empty when unweighted
   const Transform& response() const { return response_; }
-  // The factorisation of the fitted design: [1 X] (unweighted), or sqrt(w) [1 X] over the rows
-  // of positive weight.
+  // The factorisation of the fitted design: [1 X] (unweighted; the caller's buffer when
+  // borrowed), or sqrt(w) [1 X] over the rows of positive weight.
   const LeastSquares& least_squares() const { return ls_; }
 
   const Eigen::VectorXd& transformed_response() const { return z_; }
@@ -133,7 +142,7 @@ class Model {
 
  private:
   struct PreTransformed {};
-  Model(PreTransformed, const Eigen::VectorXd& z, const Eigen::MatrixXd& design);
+  Model(PreTransformed, const Eigen::VectorXd& z, Eigen::MatrixXd design);
   // Factors ls_ with z_ and sets the coefficients, fitted values, residuals, RSS, sigma and
   // standard errors.
   void finish_unweighted();
@@ -142,7 +151,8 @@ class Model {
   Eigen::MatrixXd design_rows(const double* Xnew, std::size_t m, std::size_t p,
                               std::vector<unsigned>& flags) const;
   // Predictions at the rows of a design (intercept column included when the model has one).
-  Prediction predict_rows(const Eigen::MatrixXd& rows, std::vector<unsigned> flags,
+  Prediction predict_rows(const Eigen::Ref<const Eigen::MatrixXd>& rows,
+                          std::vector<unsigned> flags,
                           const PredictOptions& opt) const;
 
   Transform response_;
