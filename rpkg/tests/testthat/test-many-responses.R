@@ -75,6 +75,29 @@ test_that("each response's lambda equals a separate single-response call", {
   expect_identical(response_fits(set, 2:3), fits[2:3])
 })
 
+test_that("the results do not depend on the number of threads", {
+  s <- simulate_five(6000, 37)  # 6000 rows: the binned sums, over two blocks of the design
+  f <- cbind(y1, y2, y3, y4, y5) ~ x1 + x2
+  old <- options(powerback.threads = 1)
+  on.exit(options(old))
+  one <- estimate_response_lambda(f, s$data)
+  fits1 <- response_fits(one)
+  for (k in 2:3) {
+    options(powerback.threads = k)
+    got <- estimate_response_lambda(f, s$data)
+    expect_identical(as.data.frame(got), as.data.frame(one))
+    # a fit asked for alone, before the others, is the one built with all of them
+    expect_identical(response_fits(got, "y4"), fits1$y4)
+    expect_identical(response_fits(got), fits1)
+  }
+  # a failing response keeps its own name and rows on several threads
+  d <- s$data
+  d$y4[c(3, 8)] <- c(-1, 0)
+  options(powerback.threads = 3)
+  expect_error(estimate_response_lambda(f, d),
+               "response `y4` \\(column 4 of cbind.*y4 > 0.*rows 3, 8")
+})
+
 test_that("airquality: rows missing in any response leave every response (na.action)", {
   # Data: datasets::airquality (Ozone has 37 missing values, Solar.R 7, Wind none).
   aq <- datasets::airquality
