@@ -189,7 +189,7 @@ pwb_lambda_formula_frame <- function(formula, data, na.action, wexpr, sexpr, env
     if (is.data.frame(data)) args$pwb_row <- seq_len(nrow(data))
   }
   if (!is.null(na.action)) args$na.action <- na.action
-  mf <- do.call(stats::model.frame, args)
+  mf <- pwb_model_frame(args)  # model_frame_na.R: no copy of complete data
   if (!is.null(stats::model.offset(mf)))
     stop("offsets are not supported: move the offset into the response first", call. = FALSE)
   mf

@@ -98,6 +98,29 @@ test_that("the results do not depend on the number of threads", {
                "response `y4` \\(column 4 of cbind.*y4 > 0.*rows 3, 8")
 })
 
+test_that("complete data: the frame kept without a copy is model.frame's", {
+  # Reference: stats::model.frame with the standard na.action (base R).
+  mk <- get("pwb_model_frame", envir = asNamespace("powerback"))
+  d <- datasets::mtcars
+  args <- list(formula = cbind(mpg, qsec) ~ wt + factor(cyl), data = d, drop.unused.levels = TRUE)
+  for (act in list(NULL, "na.omit", stats::na.exclude, "na.fail")) {
+    a <- args
+    a$na.action <- act
+    got <- mk(a)
+    want <- do.call(stats::model.frame, a)
+    expect_identical(unclass(got), unclass(want))
+    expect_identical(rownames(got), rownames(want))
+    expect_identical(attr(got, "terms"), attr(want, "terms"))
+    expect_null(attr(got, "na.action"))
+  }
+  # with a missing value the standard action runs as usual
+  d$qsec[5] <- NA
+  args$data <- d
+  got <- mk(args)
+  expect_identical(nrow(got), 31L)
+  expect_identical(unname(unclass(attr(got, "na.action"))), 5L)
+})
+
 test_that("airquality: rows missing in any response leave every response (na.action)", {
   # Data: datasets::airquality (Ozone has 37 missing values, Solar.R 7, Wind none).
   aq <- datasets::airquality
