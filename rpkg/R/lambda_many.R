@@ -85,7 +85,7 @@ pwb_lambda_set_fits <- function(x, idx) {
   if (length(todo)) {
     mf <- src$mf
     mt <- attr(mf, "terms")
-    y <- stats::model.response(mf)
+    y <- pwb_frame_response(mf)
     mm <- stats::model.matrix(mt, mf)
     family <- attr(x, "family")
     level <- attr(x, "level")

@@ -98,7 +98,7 @@ test_that("the results do not depend on the number of threads", {
                "response `y4` \\(column 4 of cbind.*y4 > 0.*rows 3, 8")
 })
 
-test_that("complete data: the frame kept without a copy is model.frame's", {
+test_that("complete data: the frame and response kept without a copy are model.frame's", {
   # Reference: stats::model.frame with the standard na.action (base R).
   mk <- get("pwb_model_frame", envir = asNamespace("powerback"))
   d <- datasets::mtcars
@@ -113,6 +113,15 @@ test_that("complete data: the frame kept without a copy is model.frame's", {
     expect_identical(attr(got, "terms"), attr(want, "terms"))
     expect_null(attr(got, "na.action"))
   }
+  # the response as stored: model.response()'s values (base R), without its row names
+  resp <- get("pwb_frame_response", envir = asNamespace("powerback"))
+  mf <- mk(args)
+  want <- stats::model.response(mf)
+  dimnames(want) <- list(NULL, colnames(want))
+  expect_identical(resp(mf), want)
+  one <- stats::model.frame(cbind(mpg) ~ wt, d)
+  expect_identical(resp(one), unname(stats::model.response(one)))
+  expect_null(resp(stats::model.frame(~ wt, d)))
   # with a missing value the standard action runs as usual
   d$qsec[5] <- NA
   args$data <- d

@@ -1,4 +1,4 @@
-# Model frames without a copy of complete data.
+# Model frames and their responses without copies.
 #
 # stats::na.omit() and na.exclude() copy every column of a model frame (a row subset) even when
 # no row is dropped; with a matrix of many responses that copy is most of the frame's cost.
@@ -20,4 +20,15 @@ pwb_model_frame <- function(args) {
     if (!anyNA(mf, recursive = TRUE)) return(mf)
   }
   do.call(stats::model.frame, args)
+}
+
+# The response of a model frame as it is stored (NULL without one). stats::model.response()
+# attaches the frame's row names to it, which converts every row number to text and copies the
+# response (for a matrix of many responses, tens of milliseconds); the library reads the values
+# only. A one-column matrix becomes a vector, as model.response() makes it.
+pwb_frame_response <- function(mf) {
+  if (!isTRUE(attr(attr(mf, "terms"), "response") == 1L)) return(NULL)
+  v <- mf[[1L]]
+  if (is.matrix(v) && ncol(v) == 1L) dim(v) <- NULL
+  v
 }
