@@ -276,7 +276,11 @@ PWB_API pwb_status pwb_transform_describe(const pwb_transform *t, int which, cha
  * n_aliased. When aliased_cap < n_aliased only the first aliased_cap indices are written (the
  * count still says how many there are; p + 1 always suffices). Nothing is written when the call
  * fails, nor by the univariate estimators. aliased_out may be NULL only when aliased_cap is 0
- * (else PWB_ERR_ARGUMENT). */
+ * (else PWB_ERR_ARGUMENT).
+ * threads (appended in 0.2; a struct_size that ends before it means 1): how many threads
+ * pwb_estimate_response_lambdas may use, the calling one included; 0 and 1 both mean the calling
+ * thread only (the default). The other estimators ignore it. Results are the same bit for bit
+ * for every value. */
 typedef struct pwb_lambda_options {
   size_t struct_size; /* sizeof(pwb_lambda_options) */
   double lower, upper; /* search range, default -3, 3 */
@@ -284,10 +288,11 @@ typedef struct pwb_lambda_options {
   const double *weights; /* NULL (default) or n precision weights >= 0 */
   size_t *aliased_out;   /* NULL (default) or aliased_cap caller-owned slots */
   size_t aliased_cap;    /* 0 (default) */
+  size_t threads;        /* 1 (default): the calling thread only */
 } pwb_lambda_options;
 
-/* Sets struct_size and the defaults (-3, 3, 0.95, no weights, no aliased-column output). NULL is
- * ignored. Thread-safe. */
+/* Sets struct_size and the defaults (-3, 3, 0.95, no weights, no aliased-column output, one
+ * thread). NULL is ignored. Thread-safe. */
 PWB_API void pwb_lambda_options_init(pwb_lambda_options *opt);
 
 /* The result of a lambda estimate. lambda maximises the profile log-likelihood
@@ -425,7 +430,14 @@ PWB_API size_t pwb_lambda_error_rows(size_t *rows, size_t cap, int *input);
  *   non-finite X, n <= rank + 1, an element's struct_size too small or unequal) stop the call:
  *   nothing is written to out, every status_out[j] (when given) is set to the returned status.
  * Returns PWB_OK when every response was estimated. Thread-safe (no shared state; the error
- * text and rows are per thread). */
+ * text and rows are per thread).
+ * Threads: with opt->threads > 1 the responses are prepared, gathered and searched on up to that
+ *   many threads started for the call and joined before it returns (the calling thread among
+ *   them); every output, status and message is the same as with one thread. Only the calling
+ *   thread asks the check installed with pwb_set_interrupt_check (so a check that calls into an
+ *   interpreter stays on that interpreter's thread); the other threads stop at their next
+ *   step when it says stop, and the call returns PWB_ERR_CANCELLED. The inputs must not change
+ *   during the call. */
 PWB_API pwb_status pwb_estimate_response_lambdas(const double *Y, size_t n, size_t q,
                                                  const double *X, size_t p, pwb_family family,
                                                  const pwb_lambda_options *opt,

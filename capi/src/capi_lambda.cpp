@@ -108,6 +108,7 @@ void pwb_lambda_options_init(pwb_lambda_options* opt) {
   opt->weights = nullptr;
   opt->aliased_out = nullptr;
   opt->aliased_cap = 0;
+  opt->threads = 1;
 }
 
 void pwb_lambda_result_init(pwb_lambda_result* res) {

@@ -38,6 +38,14 @@ std::size_t result_stride(pwb_lambda_result* out, std::size_t q) {
   return stride;
 }
 
+// opt->threads: 1 when opt is NULL or its struct_size ends before the field (an older header);
+// 0 means 1; more than the core's unsigned can hold is capped (far beyond any machine's).
+unsigned threads_of(const pwb_lambda_options* opt) {
+  if (!opt || opt->struct_size < offsetof(pwb_lambda_options, threads) + sizeof(opt->threads)) return 1;
+  if (opt->threads == 0) return 1;
+  return opt->threads > 1024 ? 1024u : static_cast<unsigned>(opt->threads);
+}
+
 }  // namespace
 
 extern "C" pwb_status pwb_estimate_response_lambdas(const double* Y, size_t n, size_t q,
@@ -60,7 +68,8 @@ extern "C" pwb_status pwb_estimate_response_lambdas(const double* Y, size_t n, s
     }
     const capi::AliasedOut aliased = capi::aliased_out_of(opt);
     const std::vector<ResponseLambdaOutcome> res =
-        estimate_response_lambdas(Y, n, q, X, p, many_family(family), capi::lambda_options_of(opt), n_grid);
+        estimate_response_lambdas(Y, n, q, X, p, many_family(family), capi::lambda_options_of(opt), n_grid,
+                                  threads_of(opt));
     per_response = true;
     const ResponseLambdaOutcome* first_failure = nullptr;
     bool aliased_written = false;  // the design is shared: its aliased columns go out once

@@ -121,6 +121,11 @@ std::size_t BinnedProfile::bin_of(Eigen::Index i) const {
 
 void BinnedProfile::add_rows(std::size_t r0, const Eigen::Ref<const Eigen::MatrixXd>& block) {
   if (!useful_ || columns_ == 0) return;
+  add_predictor_rows(r0, block.rightCols(static_cast<Eigen::Index>(columns_ - 1)));
+}
+
+void BinnedProfile::add_predictor_rows(std::size_t r0, const Eigen::Ref<const Eigen::MatrixXd>& block) {
+  if (!useful_ || columns_ == 0) return;
   const auto column = [&](std::size_t c) { return &block.coeffRef(0, static_cast<Eigen::Index>(c)); };
   constexpr int K = kColumnTerms;
   static_assert(K == 8, "column_terms writes 8 terms");
@@ -175,8 +180,8 @@ void BinnedProfile::add_rows(std::size_t r0, const Eigen::Ref<const Eigen::Matri
     for (; j + 1 < P; j += 2) {  // two columns at a time: each row's terms loaded once
       Eigen::Map<Slot> sums(rec + (j + 1) * S);
       Eigen::Map<Slot> sums2(rec + (j + 2) * S);
-      const double* x = column(j + 1);
-      const double* x2 = column(j + 2);
+      const double* x = column(j);
+      const double* x2 = column(j + 1);
       Slot a = sums, a2 = sums2;
       for (std::size_t k = k0; k < k1; ++k) {
         const Eigen::Map<const Slot> terms(tw + k * S);
@@ -188,7 +193,7 @@ void BinnedProfile::add_rows(std::size_t r0, const Eigen::Ref<const Eigen::Matri
     }
     for (; j < P; ++j) {
       Eigen::Map<Slot> sums(rec + (j + 1) * S);
-      const double* x = column(j + 1);
+      const double* x = column(j);
       Slot a = sums;
       for (std::size_t k = k0; k < k1; ++k) a += x[ord[k]] * Eigen::Map<const Slot>(tw + k * S);
       sums = a;

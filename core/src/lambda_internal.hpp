@@ -76,6 +76,10 @@ class BinnedProfile {
   // intercept first; scaled by sqrt(w) when weighted), then, once every row is in, name the columns kept (kept[0] must be the
   // intercept, 0) and their R. A design without that intercept makes the object not useful.
   void add_rows(std::size_t r0, const Eigen::Ref<const Eigen::MatrixXd>& block);
+  // The same with the design's columns after the intercept only (x: block rows by columns - 1),
+  // for callers that read them in place from the predictors (the intercept's sums are the
+  // counts and power sums, never read from the block).
+  void add_predictor_rows(std::size_t r0, const Eigen::Ref<const Eigen::MatrixXd>& x);
   void set_design(const std::vector<std::size_t>& kept, const Eigen::MatrixXd& r);
   // log RSS at lambda; false when lambda is outside what the bins cover or the result would
   // lose accuracy (the caller then evaluates directly).
@@ -142,6 +146,14 @@ class LambdaProfile {
     if (binned_) binned_->add_rows(r0, block);
   }
   void adopt_design(const TallFactor& f, const std::string& what);
+  // The binned sums still need the design's rows (after DeferDesign).
+  bool gathers_design_rows() const { return static_cast<bool>(binned_); }
+  // Many responses (lambda_many.cpp): the design's rows, block by block as factor_design shows
+  // them to its visitor (the same rows, values and block boundaries, so every sum is the same),
+  // added to the binned sums of each of the count profiles in group (NULL entries skipped). The
+  // profiles must share X and the weights with this one. Only reads X and this object, so
+  // several threads may feed disjoint groups at once; polls the cancel check once per block.
+  void feed_design_rows(LambdaProfile* const* group, std::size_t count) const;
   ~LambdaProfile();
   // The binned sums refer to this object's members: neither copied nor moved.
   LambdaProfile(const LambdaProfile&) = delete;

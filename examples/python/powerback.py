@@ -56,7 +56,10 @@ class _PredictOptions(ctypes.Structure):
 
 class _LambdaOptions(ctypes.Structure):
     _fields_ = [("struct_size", _size_t), ("lower", ctypes.c_double), ("upper", ctypes.c_double),
-                ("level", ctypes.c_double), ("weights", ctypes.POINTER(ctypes.c_double))]
+                ("level", ctypes.c_double), ("weights", ctypes.POINTER(ctypes.c_double)),
+                # every field of the header: pwb_lambda_options_init writes them all
+                ("aliased_out", ctypes.POINTER(_size_t)), ("aliased_cap", _size_t),
+                ("threads", _size_t)]
 
 
 class _LambdaResult(ctypes.Structure):

@@ -77,8 +77,8 @@ rpwb_lambda_profile <- function(y, X, family, grid, weights = NULL) {
     .Call(`_powerback_rpwb_lambda_profile`, y, X, family, grid, weights)
 }
 
-rpwb_estimate_response_lambdas <- function(Y, X, family, lower, upper, level, n_grid, weights = NULL, skip = 0L) {
-    .Call(`_powerback_rpwb_estimate_response_lambdas`, Y, X, family, lower, upper, level, n_grid, weights, skip)
+rpwb_estimate_response_lambdas <- function(Y, X, family, lower, upper, level, n_grid, weights = NULL, skip = 0L, threads = 1L) {
+    .Call(`_powerback_rpwb_estimate_response_lambdas`, Y, X, family, lower, upper, level, n_grid, weights, skip, threads)
 }
 
 rpwb_model_mean_interval <- function(handle, Xnew, group, n_groups, level, mean_method, method, replicates, seed) {

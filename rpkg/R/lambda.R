@@ -133,7 +133,7 @@ estimate_response_lambda <- function(object, data = NULL, family = c("box-cox", 
   }
   mt <- attr(mf, "terms")
   yname <- deparse1(attr(mt, "variables")[[2L]])
-  y <- stats::model.response(mf)
+  y <- pwb_frame_response(mf)  # model_frame_nocopy.R
   if (is.null(y))
     stop("the model needs a response on the left of `~`", call. = FALSE)
   if (is.matrix(y) && is.numeric(y))  # many responses, one design: lambda_many.R
@@ -189,7 +189,7 @@ pwb_lambda_formula_frame <- function(formula, data, na.action, wexpr, sexpr, env
     if (is.data.frame(data)) args$pwb_row <- seq_len(nrow(data))
   }
   if (!is.null(na.action)) args$na.action <- na.action
-  mf <- do.call(stats::model.frame, args)
+  mf <- pwb_model_frame(args)  # model_frame_nocopy.R: no copy of complete data
   if (!is.null(stats::model.offset(mf)))
     stop("offsets are not supported: move the offset into the response first", call. = FALSE)
   mf

@@ -290,8 +290,8 @@ BEGIN_RCPP
 END_RCPP
 }
 // rpwb_estimate_response_lambdas
-Rcpp::List rpwb_estimate_response_lambdas(Rcpp::NumericMatrix Y, Rcpp::NumericMatrix X, std::string family, double lower, double upper, double level, int n_grid, Rcpp::Nullable<Rcpp::NumericVector> weights, int skip);
-RcppExport SEXP _powerback_rpwb_estimate_response_lambdas(SEXP YSEXP, SEXP XSEXP, SEXP familySEXP, SEXP lowerSEXP, SEXP upperSEXP, SEXP levelSEXP, SEXP n_gridSEXP, SEXP weightsSEXP, SEXP skipSEXP) {
+Rcpp::List rpwb_estimate_response_lambdas(Rcpp::NumericMatrix Y, Rcpp::NumericMatrix X, std::string family, double lower, double upper, double level, int n_grid, Rcpp::Nullable<Rcpp::NumericVector> weights, int skip, int threads);
+RcppExport SEXP _powerback_rpwb_estimate_response_lambdas(SEXP YSEXP, SEXP XSEXP, SEXP familySEXP, SEXP lowerSEXP, SEXP upperSEXP, SEXP levelSEXP, SEXP n_gridSEXP, SEXP weightsSEXP, SEXP skipSEXP, SEXP threadsSEXP) {
 BEGIN_RCPP
     Rcpp::RObject rcpp_result_gen;
     Rcpp::RNGScope rcpp_rngScope_gen;
@@ -304,7 +304,8 @@ BEGIN_RCPP
     Rcpp::traits::input_parameter< int >::type n_grid(n_gridSEXP);
     Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::NumericVector> >::type weights(weightsSEXP);
     Rcpp::traits::input_parameter< int >::type skip(skipSEXP);
-    rcpp_result_gen = Rcpp::wrap(rpwb_estimate_response_lambdas(Y, X, family, lower, upper, level, n_grid, weights, skip));
+    Rcpp::traits::input_parameter< int >::type threads(threadsSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_estimate_response_lambdas(Y, X, family, lower, upper, level, n_grid, weights, skip, threads));
     return rcpp_result_gen;
 END_RCPP
 }
@@ -517,7 +518,7 @@ static const R_CallMethodDef CallEntries[] = {
     {"_powerback_rpwb_estimate_lambda", (DL_FUNC) &_powerback_rpwb_estimate_lambda, 7},
     {"_powerback_rpwb_estimate_response_lambda", (DL_FUNC) &_powerback_rpwb_estimate_response_lambda, 9},
     {"_powerback_rpwb_lambda_profile", (DL_FUNC) &_powerback_rpwb_lambda_profile, 5},
-    {"_powerback_rpwb_estimate_response_lambdas", (DL_FUNC) &_powerback_rpwb_estimate_response_lambdas, 9},
+    {"_powerback_rpwb_estimate_response_lambdas", (DL_FUNC) &_powerback_rpwb_estimate_response_lambdas, 10},
     {"_powerback_rpwb_model_mean_interval", (DL_FUNC) &_powerback_rpwb_model_mean_interval, 9},
     {"_powerback_rpwb_model_new", (DL_FUNC) &_powerback_rpwb_model_new, 7},
     {"_powerback_rpwb_model_is_live", (DL_FUNC) &_powerback_rpwb_model_is_live, 1},

@@ -187,3 +187,98 @@ TEST_CASE("shared-input failures are thrown", "[lambda][many]") {
     CHECK_THROWS_AS(estimate_response_lambdas(d.Y.data(), d.n, d.q, d.X.data(), d.p, Family::BoxCox, o), Error);
   }
 }
+
+namespace {
+
+// Every field of two outcomes, compared exactly: the threads change who computes a response,
+// never how.
+void check_identical(const ResponseLambdaOutcome& a, const ResponseLambdaOutcome& b) {
+  REQUIRE(a.ok == b.ok);
+  CHECK(a.code == b.code);
+  CHECK(a.message == b.message);
+  CHECK(a.count == b.count);
+  CHECK(a.first_rows == b.first_rows);
+  CHECK(a.input == b.input);
+  if (!a.ok) return;
+  CHECK(a.estimate.lambda == b.estimate.lambda);
+  CHECK(a.estimate.conf_low == b.estimate.conf_low);
+  CHECK(a.estimate.conf_high == b.estimate.conf_high);
+  CHECK(a.estimate.loglik == b.estimate.loglik);
+  CHECK(a.estimate.convenient == b.estimate.convenient);
+  CHECK(a.estimate.at_bound == b.estimate.at_bound);
+  CHECK(a.estimate.converged == b.estimate.converged);
+  CHECK(a.estimate.n == b.estimate.n);
+  CHECK(a.estimate.rank == b.estimate.rank);
+  CHECK(a.grid == b.grid);
+  CHECK(a.loglik == b.loglik);
+}
+
+}  // namespace
+
+TEST_CASE("many responses on 1, 2 and 3 threads give identical results", "[lambda][many][threads]") {
+  // 11 responses: groups of uneven size on every thread count; n spans three design blocks.
+  ManyData d = simulate(9000, 3, 11, 78, true);
+  d.Y[4 * d.n + 10] = -3.0;   // response 4: a value <= 0 at row 10 (weight > 0 there)
+  d.Y[9 * d.n + 20] = std::numeric_limits<double>::infinity();  // response 9: at row 20
+  for (bool weighted : {false, true}) {
+    LambdaOptions o;
+    if (weighted) o.weights = d.w.data();
+    const auto serial = estimate_response_lambdas(d.Y.data(), d.n, d.q, d.X.data(), d.p,
+                                                  Family::BoxCox, o, 21, 1);
+    for (unsigned threads : {0u, 2u, 3u}) {
+      INFO("weighted " << weighted << " threads " << threads);
+      const auto par = estimate_response_lambdas(d.Y.data(), d.n, d.q, d.X.data(), d.p,
+                                                 Family::BoxCox, o, 21, threads);
+      REQUIRE(par.size() == d.q);
+      for (std::size_t j = 0; j < d.q; ++j) {
+        INFO("response " << j);
+        check_identical(par[j], serial[j]);
+      }
+      // The failures stay with their own responses.
+      CHECK(par[4].code == ErrorCode::Domain);
+      CHECK(par[4].first_rows == std::vector<std::size_t>{10});
+      CHECK_THAT(par[4].message, Contains("Y column 4 (0-based)"));
+      CHECK(par[9].code == ErrorCode::NonFinite);
+      CHECK(par[9].first_rows == std::vector<std::size_t>{20});
+      CHECK_THAT(par[9].message, Contains("Y column 9 (0-based)"));
+      for (std::size_t j : {0u, 3u, 5u, 10u}) CHECK(par[j].ok);
+    }
+    // And each equals its single-response call (1e-10 as above).
+    for (std::size_t j : {0u, 7u}) {
+      std::vector<double> grid, ll;
+      const LambdaEstimate one = estimate_response_lambda_curve(d.Y.data() + j * d.n, d.X.data(),
+                                                                d.n, d.p, Family::BoxCox, o, 21,
+                                                                &grid, &ll);
+      check_same(serial[j], one, grid, ll);
+    }
+  }
+}
+
+TEST_CASE("shared failures on several threads are those of the serial call", "[lambda][many][threads]") {
+  ManyData d = simulate(5000, 2, 6, 79, false);
+  d.X[d.n + 33] = std::numeric_limits<double>::quiet_NaN();
+  for (unsigned threads : {1u, 2u, 3u}) {
+    INFO("threads " << threads);
+    try {
+      estimate_response_lambdas(d.Y.data(), d.n, d.q, d.X.data(), d.p, Family::BoxCox, {}, 0, threads);
+      FAIL("no error");
+    } catch (const LambdaRowsError& e) {
+      CHECK(e.input() == LambdaInput::Predictors);
+      CHECK(e.first_indices() == std::vector<std::size_t>{33});
+    }
+  }
+  d.X[d.n + 33] = 0.0;
+  d.w[2] = -1.0;
+  LambdaOptions o;
+  o.weights = d.w.data();
+  for (unsigned threads : {1u, 3u}) {
+    INFO("threads " << threads);
+    try {
+      estimate_response_lambdas(d.Y.data(), d.n, d.q, d.X.data(), d.p, Family::BoxCox, o, 0, threads);
+      FAIL("no error");
+    } catch (const LambdaRowsError& e) {
+      CHECK(e.input() == LambdaInput::Weights);
+      CHECK(e.first_indices() == std::vector<std::size_t>{2});
+    }
+  }
+}

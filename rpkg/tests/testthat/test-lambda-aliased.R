@@ -40,13 +40,13 @@ test_that("many responses name the shared design's aliased columns", {
   set <- estimate_response_lambda(f, data = mtcars)
   want <- lm_aliased(stats::lm(g, data = mtcars))
   expect_identical(want, c("I(3 * hp)", "I(wt + hp)"))
-  expect_length(attr(set, "fits"), 2L)
-  for (fit in attr(set, "fits")) expect_identical(fit$aliased, want)
+  expect_length(response_fits(set), 2L)
+  for (fit in response_fits(set)) expect_identical(fit$aliased, want)
   d <- mtcars
   d$w <- d$carb
   ws <- estimate_response_lambda(f, data = d, weights = w)
-  expect_length(attr(ws, "fits"), 2L)
-  for (fit in attr(ws, "fits"))
+  expect_length(response_fits(ws), 2L)
+  for (fit in response_fits(ws))
     expect_identical(fit$aliased,
                      lm_aliased(stats::lm(g, data = d, weights = w)))
 })

@@ -75,6 +75,61 @@ test_that("each response's lambda equals a separate single-response call", {
   expect_identical(response_fits(set, 2:3), fits[2:3])
 })
 
+test_that("the results do not depend on the number of threads", {
+  s <- simulate_five(6000, 37)  # 6000 rows: the binned sums, over two blocks of the design
+  f <- cbind(y1, y2, y3, y4, y5) ~ x1 + x2
+  old <- options(powerback.threads = 1)
+  on.exit(options(old))
+  one <- estimate_response_lambda(f, s$data)
+  fits1 <- response_fits(one)
+  for (k in 2:3) {
+    options(powerback.threads = k)
+    got <- estimate_response_lambda(f, s$data)
+    expect_identical(as.data.frame(got), as.data.frame(one))
+    # a fit asked for alone, before the others, is the one built with all of them
+    expect_identical(response_fits(got, "y4"), fits1$y4)
+    expect_identical(response_fits(got), fits1)
+  }
+  # a failing response keeps its own name and rows on several threads
+  d <- s$data
+  d$y4[c(3, 8)] <- c(-1, 0)
+  options(powerback.threads = 3)
+  expect_error(estimate_response_lambda(f, d),
+               "response `y4` \\(column 4 of cbind.*y4 > 0.*rows 3, 8")
+})
+
+test_that("complete data: the frame and response kept without a copy are model.frame's", {
+  # Reference: stats::model.frame with the standard na.action (base R).
+  mk <- get("pwb_model_frame", envir = asNamespace("powerback"))
+  d <- datasets::mtcars
+  args <- list(formula = cbind(mpg, qsec) ~ wt + factor(cyl), data = d, drop.unused.levels = TRUE)
+  for (act in list(NULL, "na.omit", stats::na.exclude, "na.fail")) {
+    a <- args
+    a$na.action <- act
+    got <- mk(a)
+    want <- do.call(stats::model.frame, a)
+    expect_identical(unclass(got), unclass(want))
+    expect_identical(rownames(got), rownames(want))
+    expect_identical(attr(got, "terms"), attr(want, "terms"))
+    expect_null(attr(got, "na.action"))
+  }
+  # the response as stored: model.response()'s values (base R), without its row names
+  resp <- get("pwb_frame_response", envir = asNamespace("powerback"))
+  mf <- mk(args)
+  want <- stats::model.response(mf)
+  dimnames(want) <- list(NULL, colnames(want))
+  expect_identical(resp(mf), want)
+  one <- stats::model.frame(cbind(mpg) ~ wt, d)
+  expect_identical(resp(one), unname(stats::model.response(one)))
+  expect_null(resp(stats::model.frame(~ wt, d)))
+  # with a missing value the standard action runs as usual
+  d$qsec[5] <- NA
+  args$data <- d
+  got <- mk(args)
+  expect_identical(nrow(got), 31L)
+  expect_identical(unname(unclass(attr(got, "na.action"))), 5L)
+})
+
 test_that("airquality: rows missing in any response leave every response (na.action)", {
   # Data: datasets::airquality (Ozone has 37 missing values, Solar.R 7, Wind none).
   aq <- datasets::airquality
