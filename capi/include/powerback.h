@@ -13,8 +13,12 @@
  *   - Objects are opaque handles created by pwb_X_new and released by pwb_X_free; free functions
  *     accept NULL and do nothing with it.
  *   - Every struct passed in or out starts with `size_t struct_size`, which the caller sets to
- *     sizeof(the struct) (the _init functions do it). A struct_size smaller than this version's
- *     struct gives PWB_ERR_ARGUMENT; a larger one (from a newer header) is accepted.
+ *     sizeof(the struct) (the _init functions do it). Fields appended in a later version are
+ *     listed as such beside the struct; a struct_size that ends before such a field leaves it at
+ *     its default. A struct_size smaller than the struct's first version gives PWB_ERR_ARGUMENT;
+ *     a larger one (from a newer header) is accepted. The _init functions write this version's
+ *     whole struct, so a program calls them only on structs declared by this header (within one
+ *     SONAME the structs do not change; see the stability note).
  *   - Arrays are owned by the caller: inputs are read, outputs are written, neither is kept after
  *     the call returns. An array of length 0 may be NULL.
  *   - Indices in messages are 0-based.
