@@ -65,10 +65,22 @@ double binomial_reach(double p) {
   return 0.0;
 }
 
+// Asks for the node's power sums ahead of their use (they are read after the Taylor
+// coefficients, whose transcendental functions hide the memory latency).
+inline void prefetch_moments(const double* m) {
+#if defined(__GNUC__) || defined(__clang__)
+  for (int k = 0; k < K; k += 8) __builtin_prefetch(m + k);
+  __builtin_prefetch(m + K - 1);
+#else
+  (void)m;
+#endif
+}
+
 }  // namespace
 
 Smearing::Smearing(const Transform& t, const double* residuals, std::size_t n) : t_(t) {
   require(n > 0 && residuals != nullptr, "smearing needs at least one training residual");
+  require(n <= 0xFFFFFFFFu, "smearing takes at most 4294967295 training residuals");
   e_.assign(residuals, residuals + n);
   for (std::size_t j = 0; j < n; ++j)
     if (!std::isfinite(e_[j]))
@@ -122,45 +134,47 @@ Smearing::Smearing(const Transform& t, const double* residuals, std::size_t n) :
     default:
       break;
   }
-  nodes_.reserve(2 * n / kLeaf + 2);
-  build(0, n, 0);
+  pairs_.reserve(2 * n / kLeaf + 2);
+  pairs_.emplace_back();
+  mom_.assign(2 * K, 0.0);
+  build(0, 0, n, 0);
 }
 
-int Smearing::build(std::size_t i0, std::size_t i1, int depth) {
+void Smearing::build(int id, std::size_t i0, std::size_t i1, int depth) {
   if (depth > kMaxDepth) throw Error(ErrorCode::Internal, "smearing tree deeper than expected");
   depth_ = std::max(depth_, depth);
-  const int idx = static_cast<int>(nodes_.size());
-  Node nd;
-  nd.i0 = i0;
-  nd.i1 = i1;
-  nd.c = 0.5 * e_[i0] + 0.5 * e_[i1 - 1];
-  nd.r = std::max(e_[i1 - 1] - nd.c, nd.c - e_[i0]);
-  nodes_.push_back(nd);
-  mom_.resize(nodes_.size() * K, 0.0);
+  Node& nd = node(id);
+  nd.lo = e_[i0];
+  nd.hi = e_[i1 - 1];
+  nd.i0 = static_cast<std::uint32_t>(i0);
+  nd.i1 = static_cast<std::uint32_t>(i1);
+  const double c = nd.centre();
   const std::size_t cnt = i1 - i0;
-  if (cnt <= kLeaf || nd.r == 0.0) {
-    moments_of_leaf(static_cast<std::size_t>(idx));
-    return idx;
+  if (cnt <= kLeaf || nd.lo == nd.hi) {
+    moments_of_leaf(id);
+    return;
   }
   // Split at the centre value when both sides keep at least an eighth (depth O(log n)),
   // otherwise at the middle index.
   std::size_t m = static_cast<std::size_t>(std::lower_bound(e_.begin() + static_cast<std::ptrdiff_t>(i0),
-                                                            e_.begin() + static_cast<std::ptrdiff_t>(i1), nd.c) -
+                                                            e_.begin() + static_cast<std::ptrdiff_t>(i1), c) -
                                            e_.begin());
   if (m - i0 < cnt / 8 || i1 - m < cnt / 8) m = i0 + cnt / 2;
-  const int l = build(i0, m, depth + 1);
-  const int r = build(m, i1, depth + 1);
-  nodes_[static_cast<std::size_t>(idx)].left = l;
-  nodes_[static_cast<std::size_t>(idx)].right = r;
-  moments_from_children(static_cast<std::size_t>(idx));
-  return idx;
+  const int kids = static_cast<int>(2 * pairs_.size());
+  pairs_.emplace_back();  // invalidates nd
+  mom_.resize(2 * pairs_.size() * K, 0.0);
+  node(id).kids = kids;
+  build(kids, i0, m, depth + 1);
+  build(kids + 1, m, i1, depth + 1);
+  moments_from_children(id);
 }
 
-void Smearing::moments_of_leaf(std::size_t node) {
-  const Node& nd = nodes_[node];
-  double* m = &mom_[node * K];
+void Smearing::moments_of_leaf(int id) {
+  const Node& nd = node(id);
+  const double c = nd.centre();
+  double* m = &mom_[static_cast<std::size_t>(id) * K];
   for (std::size_t j = nd.i0; j < nd.i1; ++j) {
-    const double d = e_[j] - nd.c;
+    const double d = e_[j] - c;
     double p = d;
     for (int k = 0; k < K; ++k) {
       m[k] += p;
@@ -170,15 +184,15 @@ void Smearing::moments_of_leaf(std::size_t node) {
 }
 
 // Power sums about the parent's centre from the children's: (d + delta)^k expanded.
-void Smearing::moments_from_children(std::size_t node) {
+void Smearing::moments_from_children(int id) {
   const Tables& tb = tables();
-  const Node nd = nodes_[node];
-  double* m = &mom_[node * K];
+  const Node& nd = node(id);
+  double* m = &mom_[static_cast<std::size_t>(id) * K];
   for (int side = 0; side < 2; ++side) {
-    const std::size_t ch = static_cast<std::size_t>(side ? nd.right : nd.left);
-    const Node& cn = nodes_[ch];
-    const double* mc = &mom_[ch * K];
-    const double delta = cn.c - nd.c;
+    const int ch = nd.kids + side;
+    const Node& cn = node(ch);
+    const double* mc = &mom_[static_cast<std::size_t>(ch) * K];
+    const double delta = cn.centre() - nd.centre();
     double dp[K + 1];
     dp[0] = 1.0;
     for (int k = 1; k <= K; ++k) dp[k] = dp[k - 1] * delta;
@@ -207,10 +221,12 @@ double Smearing::direct(std::size_t i0, std::size_t i1, double mu, bool* bounded
   return sum;
 }
 
-bool Smearing::series(const Node& nd, double mu, bool check_ends, double* vsum) const {
+bool Smearing::series(const Node& nd, const double* mom, double mu, bool check_ends, double* vsum,
+                      SmearingWork* work) const {
   const TransformSpec& s = t_.spec();
   const double lambda = s.lambda;
-  const double w = mu + nd.c, r = nd.r;
+  const double ctr = nd.centre();
+  const double w = mu + ctr, r = std::max(nd.hi - ctr, ctr - nd.lo);
   const double cnt = static_cast<double>(nd.i1 - nd.i0);
   const Tables& tb = tables();
   double c0 = 0.0;
@@ -240,10 +256,10 @@ bool Smearing::series(const Node& nd, double mu, bool check_ends, double* vsum) 
     }
     return true;
   };
-  // An exponential branch g(w + d) = A + B exp(sl (w + d)): c_k = B exp(sl w) sl^k / k!.
-  auto exp_branch = [&](double sl, double B) {
+  // An exponential branch g(w + d) = A + B exp(sl (w + d)): c_k = B E sl^k / k!, E = exp(sl w).
+  auto exp_branch = [&](double sl, double B, double E) {
     if (r * std::fabs(sl) > kExpReach) return false;
-    double xp = B * std::exp(sl * w), rk = 1.0, prev = kInf;
+    double xp = B * E, rk = 1.0, prev = kInf;
     for (int k = 1; k <= K; ++k) {
       xp *= sl;
       rk *= r;
@@ -290,29 +306,32 @@ bool Smearing::series(const Node& nd, double mu, bool check_ends, double* vsum) 
     }
     case Family::YeoJohnson: {
       // Each side of the branch point z = 0 separately; near it, terms change sign, so the
-      // node must also stay within rho |w| of its centre.
+      // node must also stay within rho |w| of its centre. One log1p and one expm1 per node:
+      // c0 = +-expm1(L) keeps full precision near w = 0, and W^p = exp(L) = 1 +- c0 (no
+      // cancellation: the two terms have the same sign).
       if (r > kRho * std::fabs(w)) return false;
-      // From |w| = 1/2 on, the power W^p is at least 1.3 times its distance from 1, so
-      // c0 = +-(W^p - 1) loses at most a few ulp and saves the separate expm1 evaluation.
-      const bool far = std::fabs(w) >= 0.5;
       if (w > 0.0) {
         if (lambda == 0.0) {
+          if (r > kExpReach) return false;
           c0 = std::expm1(w);
-          ok = exp_branch(1.0, 1.0);
+          ok = exp_branch(1.0, 1.0, 1.0 + c0);
         } else {
-          const double Wp = std::exp(std::log1p(lambda * w) / lambda);
-          c0 = far ? Wp - 1.0 : math::yeo_johnson_inverse(w, lambda);
-          ok = power_branch(1.0 + lambda * w, lambda, 1.0, Wp, 0);
+          const double W = 1.0 + lambda * w;
+          if (!(W > 0.0) || r * std::fabs(lambda) > reach_[0] * W) return false;
+          c0 = std::expm1(std::log1p(lambda * w) / lambda);
+          ok = power_branch(W, lambda, 1.0, 1.0 + c0, 0);
         }
       } else {
         const double m = 2.0 - lambda;
         if (m == 0.0) {
+          if (r > kExpReach) return false;
           c0 = -std::expm1(-w);
-          ok = exp_branch(-1.0, -1.0);
+          ok = exp_branch(-1.0, -1.0, 1.0 - c0);
         } else {
-          const double Wp = std::exp(std::log1p(-m * w) / m);
-          c0 = far ? 1.0 - Wp : math::yeo_johnson_inverse(w, lambda);
-          ok = power_branch(1.0 - m * w, -m, -1.0, Wp, 1);
+          const double W = 1.0 - m * w;
+          if (!(W > 0.0) || r * std::fabs(m) > reach_[1] * W) return false;
+          c0 = -std::expm1(std::log1p(-m * w) / m);
+          ok = power_branch(W, -m, -1.0, 1.0 - c0, 1);
         }
       }
       break;
@@ -346,14 +365,14 @@ bool Smearing::series(const Node& nd, double mu, bool check_ends, double* vsum) 
       return false;
   }
   if (!ok || !std::isfinite(c0)) return false;
-  if (check_ends && (invert_bounded(t_, mu + e_[nd.i0]).bounded || invert_bounded(t_, mu + e_[nd.i1 - 1]).bounded))
+  if (check_ends && (invert_bounded(t_, mu + nd.lo).bounded || invert_bounded(t_, mu + nd.hi).bounded))
     return false;
-  const double* m = &mom_[static_cast<std::size_t>(&nd - nodes_.data()) * K];
   double tail = 0.0;
-  for (int k = kmax; k >= 1; --k) tail += c[k] * m[k - 1];
+  for (int k = kmax; k >= 1; --k) tail += c[k] * mom[k - 1];
   const double sum = cnt * c0 + tail;
   if (!std::isfinite(sum)) return false;
   *vsum = sum;
+  if (work) work->series_terms += static_cast<std::size_t>(kmax);
   return true;
 }
 
@@ -410,14 +429,17 @@ BackValue Smearing::mean(double mu, SmearingWork* work) const {
 
   double xs = 0.0;
   bool bounded = false;
-  std::array<int, 2 * kMaxDepth + 4> stack{};
+  std::array<int, 2 * kMaxDepth + 4> stack;  // no initialisation needed: read only below top
   int top = 0;
   stack[static_cast<std::size_t>(top++)] = 0;
   while (top > 0) {
-    const Node& nd = nodes_[static_cast<std::size_t>(stack[static_cast<std::size_t>(--top)])];
+    const int id = stack[static_cast<std::size_t>(--top)];
+    const Node& nd = node(id);
     const double cnt = static_cast<double>(nd.i1 - nd.i0);
-    const double zlo = mu + e_[nd.i0], zhi = mu + e_[nd.i1 - 1];
-    const bool in_lo = math::in_range(s.family, zlo, s.lambda), in_hi = math::in_range(s.family, zhi, s.lambda);
+    const double zlo = mu + nd.lo, zhi = mu + nd.hi;
+    // In range exactly when the index lies in [a, z), found above with the same test.
+    const std::size_t j0 = nd.i0, j1 = nd.i1 - 1u;
+    const bool in_lo = j0 >= a && j0 < z, in_hi = j1 >= a && j1 < z;
     if (!in_lo && !in_hi) {
       const BackValue u = invert_bounded(t_, zlo), v = invert_bounded(t_, zhi);
       if (u.value == v.value) {  // wholly beyond the limit: every term is the limit value
@@ -427,27 +449,29 @@ BackValue Smearing::mean(double mu, SmearingWork* work) const {
         continue;
       }
     } else if (in_lo && in_hi) {
-      if (nd.r == 0.0) {
+      if (nd.lo == nd.hi) {
         const BackValue u = invert_bounded(t_, zlo);
         xs += cnt * u.value;
         bounded = bounded || u.bounded;
         if (work) ++work->series_nodes;
         continue;
       }
+      const double* mom = &mom_[static_cast<std::size_t>(id) * K];
+      prefetch_moments(mom);
       double vs = 0.0;
-      if (series(nd, mu, check_ends, &vs)) {
+      if (series(nd, mom, mu, check_ends, &vs, work)) {
         xs += x_sum(vs, cnt);
         if (work) ++work->series_nodes;
         continue;
       }
     }
-    if (nd.left < 0) {
+    if (nd.kids < 0) {
       xs += direct(nd.i0, nd.i1, mu, &bounded);
       if (work) work->direct_terms += nd.i1 - nd.i0;
       continue;
     }
-    stack[static_cast<std::size_t>(top++)] = nd.left;
-    stack[static_cast<std::size_t>(top++)] = nd.right;
+    stack[static_cast<std::size_t>(top++)] = nd.kids;
+    stack[static_cast<std::size_t>(top++)] = nd.kids + 1;
   }
   b.value = xs / n;
   b.bounded = bounded;

@@ -38,6 +38,7 @@
 #pragma once
 
 #include <cstddef>
+#include <cstdint>
 #include <vector>
 
 #include "powerback/backtransform.hpp"
@@ -48,6 +49,7 @@ namespace powerback {
 // How a query was evaluated (for tests and benchmarks).
 struct SmearingWork {
   std::size_t series_nodes = 0;   // nodes summed by their power series
+  std::size_t series_terms = 0;   // Taylor terms (beyond the constant) those nodes used
   std::size_t direct_terms = 0;   // residuals summed one by one
   std::size_t limit_nodes = 0;    // nodes wholly beyond the range limit
 };
@@ -66,17 +68,27 @@ class Smearing {
 
  private:
   enum class Kind { Identity, Exponential, Tree };
+  // One node of the residual tree in 32 bytes; the two children of a node sit side by side in
+  // one 64-byte line, since a query reads both (the node ends are stored so that a query need
+  // not fetch them from the residuals).
   struct Node {
-    std::size_t i0 = 0, i1 = 0;  // sorted residuals [i0, i1)
-    int left = -1, right = -1;   // children; -1 for a leaf
-    double c = 0, r = 0;         // centre and half-width of the value range
+    double lo = 0, hi = 0;          // its smallest and largest residual
+    std::uint32_t i0 = 0, i1 = 0;   // sorted residuals [i0, i1)
+    std::int32_t kids = -1;         // id of the left child (the right one is kids + 1); -1: leaf
+    std::uint32_t unused = 0;
+    double centre() const { return 0.5 * lo + 0.5 * hi; }
   };
-  int build(std::size_t i0, std::size_t i1, int depth);
-  void moments_of_leaf(std::size_t node);
-  void moments_from_children(std::size_t node);
+  struct alignas(64) NodePair {
+    Node side[2];
+  };
+  const Node& node(int id) const { return pairs_[static_cast<std::size_t>(id) >> 1].side[id & 1]; }
+  Node& node(int id) { return pairs_[static_cast<std::size_t>(id) >> 1].side[id & 1]; }
+  void build(int id, std::size_t i0, std::size_t i1, int depth);
+  void moments_of_leaf(int id);
+  void moments_from_children(int id);
   // sum over the node of g(mu + e_j) on the v scale by its series; false when the node is not
   // accepted at this mu (then the caller splits it).
-  bool series(const Node& nd, double mu, bool check_ends, double* vsum) const;
+  bool series(const Node& nd, const double* mom, double mu, bool check_ends, double* vsum, SmearingWork* work) const;
   // sum of x (original units) over residuals [i0, i1) one by one.
   double direct(std::size_t i0, std::size_t i1, double mu, bool* bounded) const;
   // sum of x over `count` terms whose v-sum is vsum.
@@ -88,8 +100,8 @@ class Smearing {
   double e_sum_ = 0;             // identity: sum of residuals
   double exp_sum_ = 0;           // exponential: sum of base^(e_j - e_max)
   double top_ = 0;               // exponential: e_max
-  std::vector<Node> nodes_;
-  std::vector<double> mom_;      // nodes_.size() x kTerms power sums about each node's centre
+  std::vector<NodePair> pairs_;  // node ids 2 p and 2 p + 1; the root is id 0 (id 1 unused)
+  std::vector<double> mom_;      // K power sums about each node's centre, by node id
   std::vector<double> binom_[2]; // binom(p, k) of the two power branches (Yeo-Johnson: z>=0, z<0)
   double reach_[2] = {0, 0};     // largest accepted |s r / W| of each power branch
   std::vector<double> logistic_; // coefficients of the logistic's k-th derivative / k!, by k
