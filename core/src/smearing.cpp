@@ -159,7 +159,7 @@ void Smearing::build(int id, std::size_t i0, std::size_t i1, int depth) {
   std::size_t m = static_cast<std::size_t>(std::lower_bound(e_.begin() + static_cast<std::ptrdiff_t>(i0),
                                                             e_.begin() + static_cast<std::ptrdiff_t>(i1), c) -
                                            e_.begin());
-  if (m - i0 < cnt / 8 || i1 - m < cnt / 8) m = i0 + cnt / 2;
+  m = std::min(std::max(m, i0 + cnt / 8), i1 - cnt / 8);
   const int kids = static_cast<int>(2 * pairs_.size());
   pairs_.emplace_back();  // invalidates nd
   mom_.resize(2 * pairs_.size() * K, 0.0);
@@ -211,7 +211,13 @@ double Smearing::x_sum(double vsum, double count) const {
   return s.shift == 0.0 ? vsum : vsum - count * s.shift;
 }
 
-double Smearing::direct(std::size_t i0, std::size_t i1, double mu, bool* bounded) const {
+double Smearing::direct(std::size_t i0, std::size_t i1, double mu, bool in_range, bool* bounded) const {
+  const TransformSpec& s = t_.spec();
+  if (in_range) {  // every term in range: sum the inverse itself; a finite sum has no bounded term
+    double vs = 0.0;
+    for (std::size_t j = i0; j < i1; ++j) vs += math::inverse(s.family, mu + e_[j], s.lambda);
+    if (std::isfinite(vs)) return x_sum(vs, static_cast<double>(i1 - i0));
+  }
   double sum = 0.0;
   for (std::size_t j = i0; j < i1; ++j) {
     const BackValue v = invert_bounded(t_, mu + e_[j]);
@@ -230,43 +236,40 @@ bool Smearing::series(const Node& nd, const double* mom, double mu, bool check_e
   const double cnt = static_cast<double>(nd.i1 - nd.i0);
   const Tables& tb = tables();
   double c0 = 0.0;
-  double c[K + 1];  // c[k], k >= 1: k-th Taylor coefficient of g at w
+  double c[K + 1];  // c[k], k >= 1: k-th Taylor coefficient of g at w (asinh, logistic)
   int kmax = K;     // terms used: the series stops once its terms are decreasing and negligible
+  double tail = 0.0;
+  bool summed = false;  // tail already summed (the power and exponential branches)
   // |c_k| r^k bounds the k-th term per residual; below 2^-60 |c0| (the node sum is at least
   // |c0| / 64 per residual in an accepted node) and past the terms' peak, the rest cannot count.
-  auto done = [&](double ck, double rk, double* prev) {
-    const double bound = std::fabs(ck) * rk;
-    const bool stop = bound < 8.673617379884035e-19 * std::fabs(c0) && bound <= *prev;
-    *prev = bound;
-    return stop;
+  // The branches below compute c_k by a recurrence and add c_k M_k as they go.
+  auto sum_terms = [&](double first, double x, const double* coef) {
+    const double stop = 8.673617379884035e-19 * std::fabs(c0);
+    double xp = first, rk = 1.0, prev = kInf, t = 0.0;
+    int k = 1;
+    for (;; ++k) {
+      xp *= x;
+      rk *= r;
+      const double ck = coef[k] * xp;
+      t += ck * mom[k - 1];
+      const double bound = std::fabs(ck) * rk;
+      if (k == K || (bound < stop && bound <= prev)) break;
+      prev = bound;
+    }
+    kmax = k;
+    tail = t;
+    summed = true;
   };
-
   // A power branch g(w + d) = A + B (W + s d)^p with base W > 0: c_k = B W^p binom(p, k) (s/W)^k.
   auto power_branch = [&](double W, double sl, double B, double Wp, int br) {
     if (!(W > 0.0) || r * std::fabs(sl) > reach_[br] * W) return false;
-    const std::vector<double>& bn = binom_[br];
-    const double x = sl / W;
-    double xp = B * Wp, rk = 1.0, prev = kInf;
-    for (int k = 1; k <= K; ++k) {
-      xp *= x;
-      rk *= r;
-      c[k] = bn[static_cast<std::size_t>(k)] * xp;
-      kmax = k;
-      if (done(c[k], rk, &prev)) break;
-    }
+    sum_terms(B * Wp, sl / W, binom_[br].data());
     return true;
   };
   // An exponential branch g(w + d) = A + B exp(sl (w + d)): c_k = B E sl^k / k!, E = exp(sl w).
   auto exp_branch = [&](double sl, double B, double E) {
     if (r * std::fabs(sl) > kExpReach) return false;
-    double xp = B * E, rk = 1.0, prev = kInf;
-    for (int k = 1; k <= K; ++k) {
-      xp *= sl;
-      rk *= r;
-      c[k] = xp * tb.inv_fact[k];
-      kmax = k;
-      if (done(c[k], rk, &prev)) break;
-    }
+    sum_terms(B * E, sl, tb.inv_fact);
     return true;
   };
 
@@ -367,8 +370,8 @@ bool Smearing::series(const Node& nd, const double* mom, double mu, bool check_e
   if (!ok || !std::isfinite(c0)) return false;
   if (check_ends && (invert_bounded(t_, mu + nd.lo).bounded || invert_bounded(t_, mu + nd.hi).bounded))
     return false;
-  double tail = 0.0;
-  for (int k = kmax; k >= 1; --k) tail += c[k] * mom[k - 1];
+  if (!summed)
+    for (int k = kmax; k >= 1; --k) tail += c[k] * mom[k - 1];
   const double sum = cnt * c0 + tail;
   if (!std::isfinite(sum)) return false;
   *vsum = sum;
@@ -466,7 +469,7 @@ BackValue Smearing::mean(double mu, SmearingWork* work) const {
       }
     }
     if (nd.kids < 0) {
-      xs += direct(nd.i0, nd.i1, mu, &bounded);
+      xs += direct(nd.i0, nd.i1, mu, in_lo && in_hi, &bounded);
       if (work) work->direct_terms += nd.i1 - nd.i0;
       continue;
     }

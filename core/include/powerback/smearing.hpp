@@ -89,8 +89,9 @@ class Smearing {
   // sum over the node of g(mu + e_j) on the v scale by its series; false when the node is not
   // accepted at this mu (then the caller splits it).
   bool series(const Node& nd, const double* mom, double mu, bool check_ends, double* vsum, SmearingWork* work) const;
-  // sum of x (original units) over residuals [i0, i1) one by one.
-  double direct(std::size_t i0, std::size_t i1, double mu, bool* bounded) const;
+  // sum of x (original units) over residuals [i0, i1) one by one; in_range: all of them lie in
+  // the inverse's range.
+  double direct(std::size_t i0, std::size_t i1, double mu, bool in_range, bool* bounded) const;
   // sum of x over `count` terms whose v-sum is vsum.
   double x_sum(double vsum, double count) const;
 
