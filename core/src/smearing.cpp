@@ -22,6 +22,7 @@ constexpr double kLogisticReach = 0.25 * 3.141592653589793;  // a quarter of the
 constexpr double kEps = 1.1102230246251565e-16;               // 2^-53
 constexpr double kConditioning = 64.0;  // sum |terms| / smallest value accepted in a node
 constexpr int kMaxDepth = 250;
+constexpr int kZeroDegree = 10;       // degree of the Yeo-Johnson polynomials at z = 0
 constexpr double kInf = std::numeric_limits<double>::infinity();
 
 struct Tables {
@@ -63,6 +64,46 @@ double binomial_reach(double p) {
     if (tail <= kEps * floor_value && head <= kConditioning * floor_value) return X;
   }
   return 0.0;
+}
+
+// Yeo-Johnson near its branch point z = 0. On each side the inverse is g(z) = sg h_s(sg z) with
+// h_s(u) = (1 + s u)^(1/s) - 1 (expm1(u) for s = 0): s = lambda, sg = 1 for z >= 0 and
+// s = 2 - lambda, sg = -1 for z < 0. The Taylor coefficients of h_s at 0 are h_1 = 1,
+// h_k = h_{k-1} (1 - (k - 1) s) / k, so g's are sg^(k+1) h_k; returned for k = 0..kZeroDegree.
+std::vector<double> zero_polynomial(double s, double sg) {
+  std::vector<double> a(kZeroDegree + 1, 0.0);
+  a[1] = 1.0;
+  for (int k = 2; k <= kZeroDegree; ++k) a[static_cast<std::size_t>(k)] = a[static_cast<std::size_t>(k - 1)] * (1.0 - (k - 1) * s) / k * sg;
+  return a;
+}
+
+// The largest X (from a geometric grid) such that for 0 < sg z <= X the polynomial leaves a
+// tail below 2^-54 |g(z)| and its terms beyond the first sum to at most |g(z)| / 2 (so Horner's
+// rule stays within a few ulp). Both bounds are checked at X only: the tail and head divided by
+// |z| grow with |z| (absolute terms), and |g(z)| / |z| >= min(1, |g(X)| / X) because g is convex
+// or concave on each side with g(0) = 0, g'(0) = 1. 0 when no grid point qualifies.
+double zero_reach(double s, double sg, double lambda) {
+  for (double X = 0.5; X > 1e-6; X *= 0.9) {
+    const double g = std::fabs(math::yeo_johnson_inverse(sg * X, lambda));
+    if (!std::isfinite(g)) continue;
+    const double floor_value = std::min(X, g);
+    double t = X, head = 0.0, tail = 0.0;
+    for (int k = 2; k <= kZeroDegree + 400; ++k) {
+      t *= std::fabs(1.0 - (k - 1) * s) / k * X;
+      if (k <= kZeroDegree) head += t;
+      else tail += t;
+    }
+    if (tail <= 0.5 * kEps * floor_value && head <= 0.5 * floor_value) return X;
+  }
+  return 0.0;
+}
+
+inline void prefetch_line(const void* p) {
+#if defined(__GNUC__) || defined(__clang__)
+  __builtin_prefetch(p);
+#else
+  (void)p;
+#endif
 }
 
 // Asks for the node's power sums ahead of their use (they are read after the Taylor
@@ -114,6 +155,10 @@ Smearing::Smearing(const Transform& t, const double* residuals, std::size_t n) :
         binom_[1] = binomials(1.0 / (2.0 - s.lambda));
         reach_[1] = binomial_reach(1.0 / (2.0 - s.lambda));
       }
+      zpoly_[0] = zero_polynomial(s.lambda, 1.0);
+      zpoly_[1] = zero_polynomial(2.0 - s.lambda, -1.0);
+      zreach_[0] = zero_reach(s.lambda, 1.0, s.lambda);
+      zreach_[1] = zero_reach(2.0 - s.lambda, -1.0, s.lambda);
       break;
     case Family::Logit: {
       // P_0(y) = y, P_{k+1}(y) = P_k'(y) y (1 - y) gives the k-th derivative of the logistic
@@ -211,8 +256,22 @@ double Smearing::x_sum(double vsum, double count) const {
   return s.shift == 0.0 ? vsum : vsum - count * s.shift;
 }
 
-double Smearing::direct(std::size_t i0, std::size_t i1, double mu, bool in_range, bool* bounded) const {
+double Smearing::near_zero(double z) const {
+  const std::vector<double>& a = zpoly_[z >= 0.0 ? 0 : 1];
+  double v = a[kZeroDegree];
+  for (int k = kZeroDegree - 1; k >= 1; --k) v = v * z + a[static_cast<std::size_t>(k)];
+  return v * z;
+}
+
+double Smearing::direct(std::size_t i0, std::size_t i1, double mu, bool in_range, bool* bounded,
+                        SmearingWork* work) const {
   const TransformSpec& s = t_.spec();
+  if (in_range && !zpoly_[0].empty() && mu + e_[i0] >= -zreach_[1] && mu + e_[i1 - 1] <= zreach_[0]) {
+    double vs = 0.0;  // Yeo-Johnson next to its branch point: the polynomials at z = 0
+    for (std::size_t j = i0; j < i1; ++j) vs += near_zero(mu + e_[j]);
+    if (work) work->zero_polynomial += i1 - i0;
+    return x_sum(vs, static_cast<double>(i1 - i0));
+  }
   if (in_range) {  // every term in range: sum the inverse itself; a finite sum has no bounded term
     double vs = 0.0;
     for (std::size_t j = i0; j < i1; ++j) vs += math::inverse(s.family, mu + e_[j], s.lambda);
@@ -316,24 +375,24 @@ bool Smearing::series(const Node& nd, const double* mom, double mu, bool check_e
       if (w > 0.0) {
         if (lambda == 0.0) {
           if (r > kExpReach) return false;
-          c0 = std::expm1(w);
+          c0 = w <= zreach_[0] ? near_zero(w) : std::expm1(w);
           ok = exp_branch(1.0, 1.0, 1.0 + c0);
         } else {
           const double W = 1.0 + lambda * w;
           if (!(W > 0.0) || r * std::fabs(lambda) > reach_[0] * W) return false;
-          c0 = std::expm1(std::log1p(lambda * w) / lambda);
+          c0 = w <= zreach_[0] ? near_zero(w) : std::expm1(std::log1p(lambda * w) / lambda);
           ok = power_branch(W, lambda, 1.0, 1.0 + c0, 0);
         }
       } else {
         const double m = 2.0 - lambda;
         if (m == 0.0) {
           if (r > kExpReach) return false;
-          c0 = -std::expm1(-w);
+          c0 = -w <= zreach_[1] ? near_zero(w) : -std::expm1(-w);
           ok = exp_branch(-1.0, -1.0, 1.0 - c0);
         } else {
           const double W = 1.0 - m * w;
           if (!(W > 0.0) || r * std::fabs(m) > reach_[1] * W) return false;
-          c0 = -std::expm1(std::log1p(-m * w) / m);
+          c0 = -w <= zreach_[1] ? near_zero(w) : -std::expm1(std::log1p(-m * w) / m);
           ok = power_branch(W, -m, -1.0, 1.0 - c0, 1);
         }
       }
@@ -375,7 +434,10 @@ bool Smearing::series(const Node& nd, const double* mom, double mu, bool check_e
   const double sum = cnt * c0 + tail;
   if (!std::isfinite(sum)) return false;
   *vsum = sum;
-  if (work) work->series_terms += static_cast<std::size_t>(kmax);
+  if (work) {
+    work->series_terms += static_cast<std::size_t>(kmax);
+    if (!zpoly_[0].empty() && std::fabs(w) <= zreach_[w > 0.0 ? 0 : 1]) ++work->zero_polynomial;
+  }
   return true;
 }
 
@@ -438,6 +500,7 @@ BackValue Smearing::mean(double mu, SmearingWork* work) const {
   while (top > 0) {
     const int id = stack[static_cast<std::size_t>(--top)];
     const Node& nd = node(id);
+    if (nd.kids >= 0) prefetch_line(&node(nd.kids));  // in case the node is split
     const double cnt = static_cast<double>(nd.i1 - nd.i0);
     const double zlo = mu + nd.lo, zhi = mu + nd.hi;
     // In range exactly when the index lies in [a, z), found above with the same test.
@@ -469,7 +532,7 @@ BackValue Smearing::mean(double mu, SmearingWork* work) const {
       }
     }
     if (nd.kids < 0) {
-      xs += direct(nd.i0, nd.i1, mu, in_lo && in_hi, &bounded);
+      xs += direct(nd.i0, nd.i1, mu, in_lo && in_hi, &bounded, work);
       if (work) work->direct_terms += nd.i1 - nd.i0;
       continue;
     }

@@ -52,6 +52,8 @@ struct SmearingWork {
   std::size_t series_terms = 0;   // Taylor terms (beyond the constant) those nodes used
   std::size_t direct_terms = 0;   // residuals summed one by one
   std::size_t limit_nodes = 0;    // nodes wholly beyond the range limit
+  std::size_t zero_polynomial = 0;  // Yeo-Johnson: node centres and residuals evaluated by the
+                                    // polynomials at the branch point
 };
 
 class Smearing {
@@ -91,7 +93,9 @@ class Smearing {
   bool series(const Node& nd, const double* mom, double mu, bool check_ends, double* vsum, SmearingWork* work) const;
   // sum of x (original units) over residuals [i0, i1) one by one; in_range: all of them lie in
   // the inverse's range.
-  double direct(std::size_t i0, std::size_t i1, double mu, bool in_range, bool* bounded) const;
+  double direct(std::size_t i0, std::size_t i1, double mu, bool in_range, bool* bounded, SmearingWork* work) const;
+  // Yeo-Johnson's inverse by its polynomial at the branch point (|z| within zreach_ of its side).
+  double near_zero(double z) const;
   // sum of x over `count` terms whose v-sum is vsum.
   double x_sum(double vsum, double count) const;
 
@@ -105,6 +109,8 @@ class Smearing {
   std::vector<double> mom_;      // K power sums about each node's centre, by node id
   std::vector<double> binom_[2]; // binom(p, k) of the two power branches (Yeo-Johnson: z>=0, z<0)
   double reach_[2] = {0, 0};     // largest accepted |s r / W| of each power branch
+  std::vector<double> zpoly_[2]; // Yeo-Johnson: Taylor coefficients at z = 0 of each side
+  double zreach_[2] = {-1, -1};  // ... and the largest |z| where they are exact to rounding
   std::vector<double> logistic_; // coefficients of the logistic's k-th derivative / k!, by k
   int depth_ = 0;
 };
