@@ -10,12 +10,21 @@
 //     mean(exp(e_j - e_max)) (10^ for log10), e_max the largest residual so that no term
 //     overflows unless the pairwise sum would;
 //   - every other family: the residuals are sorted and grouped into a binary tree of value
-//     ranges. A node whose range [c - r, c + r] lies inside one smooth branch of the inverse g
-//     (on the family's argument v) and far enough from its range limit and branch point adds
+//     ranges. A node is split at its centre value, moved if needed so that each child keeps at
+//     least an eighth of its residuals (depth at most log(n / 16) / log(8 / 7); in a long tail
+//     the spine towards the extreme residuals stays short). A node whose range [c - r, c + r]
+//     lies inside one smooth branch of the inverse g (on the family's argument v) and far enough
+//     from its range limit and branch point adds
 //       sum_j g(w + d_j) = sum_{k=0..K} g^(k)(w)/k! * M_k,  w = mu + c, d_j = e_j - c,
-//     with the node's residual power sums M_k = sum_j d_j^k stored at construction (K = 26).
+//     with the node's residual power sums M_k = sum_j d_j^k stored at construction (K = 26);
+//     g^(k)(w)/k! comes from g(w) by a recurrence (two transcendental calls per node at most).
 //     Nodes too close to a limit are split; leaves (at most 16 residuals) there are summed
 //     directly; nodes wholly beyond the range limit add their count times the limit value.
+//   - Yeo-Johnson near its branch point z = 0: each side's inverse is analytic there, and its
+//     Taylor polynomial of degree 10 at z = 0 replaces log1p/expm1 for leaf terms and node
+//     centres within a reach computed at construction: the largest |z| (from a grid) where the
+//     polynomial's tail is below 2^-54 |g(z)| and its terms beyond the first sum to at most
+//     |g(z)| / 2 (so Horner's rule loses a few ulp at most).
 //
 // Accuracy. A node is accepted only where its series is both short and well conditioned:
 // powers (W + s d)^p need |s r / W| <= X(p), the largest |x| for which the binomial series of
@@ -24,17 +33,21 @@
 // (tail 2^27/27! = 1e-20, conditioning e^4); the logistic needs r <= pi/4, a quarter of the
 // distance to its nearest complex pole; near a sign change of the terms (Yeo-Johnson's and
 // the sign-preserving power's branch point, sinh at 0) a node must stay within 0.9 |w| of its
-// centre. The result agrees with the pairwise mean to well within 1e-12 relative to
-// mean_j |T^{-1}(mu + e_j)| (checked in the tests against the pairwise sum, itself exact only to
-// ~n ulp). Which terms lie beyond the range limit, and so the `bounded` flag, is decided with
+// centre. A node's series stops at the first k past the terms' peak with |g^(k)(w)/k!| r^k
+// below 2^-60 |g(w)| (the node's sum is at least |g(w)| / 64 per residual). The result agrees
+// with the pairwise mean to well within 1e-12 relative to mean_j |T^{-1}(mu + e_j)| (checked in
+// the tests against the pairwise sum, itself exact only to ~n ulp). Which terms lie beyond the range limit, and so the `bounded` flag, is decided with
 // the same floating-point test as the pairwise mean: the range is an interval in z and
-// z = mu + e_j is monotone in e_j, so a node's two end residuals decide it.
+// z = mu + e_j is monotone in e_j, so one binary search per row finds the in-range residuals
+// and a node's two end indices decide it.
 // Overflow: when the extreme terms of a row overflow, accepted nodes must have finite ends,
 // else they are summed directly, so non-finite terms give the same Inf and flag.
 //
-// Cost: O(n log n) to build, O(n K) memory; per row the number of accepted nodes (a handful when
-// the residual spread is small against the distance to the limit, more for rows near it) times
-// K, plus at most a few leaves near a limit or branch point.
+// Cost: O(n log n) to build, O(n K) memory (nodes of 32 bytes, the two children of a node in one
+// cache line, their power sums fetched ahead of use); per row the number of accepted nodes (a
+// handful when the residual spread is small against the distance to the limit, about one per
+// tree level on each side of a limit or branch point inside the residuals) times the terms each
+// needs, plus at most a few leaves there. At most 2^32 - 1 residuals.
 #pragma once
 
 #include <cstddef>
