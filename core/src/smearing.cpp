@@ -121,7 +121,8 @@ inline void prefetch_moments(const double* m) {
 
 Smearing::Smearing(const Transform& t, const double* residuals, std::size_t n) : t_(t) {
   require(n > 0 && residuals != nullptr, "smearing needs at least one training residual");
-  require(n <= 0xFFFFFFFFu, "smearing takes at most 4294967295 training residuals");
+  // Node ids (at most n + 1: every leaf below the root keeps two residuals) fit an int32_t.
+  require(n <= 2147483646u, "smearing takes at most 2147483646 training residuals");
   e_.assign(residuals, residuals + n);
   for (std::size_t j = 0; j < n; ++j)
     if (!std::isfinite(e_[j]))

@@ -47,7 +47,7 @@
 // cache line, their power sums fetched ahead of use); per row the number of accepted nodes (a
 // handful when the residual spread is small against the distance to the limit, about one per
 // tree level on each side of a limit or branch point inside the residuals) times the terms each
-// needs, plus at most a few leaves there. At most 2^32 - 1 residuals.
+// needs, plus at most a few leaves there. At most 2^31 - 2 residuals.
 #pragma once
 
 #include <cstddef>
