@@ -15,7 +15,7 @@ namespace powerback {
 namespace {
 
 constexpr int K = 26;                 // series terms kept
-constexpr std::size_t kLeaf = 16;     // residuals at most in a leaf
+constexpr std::size_t kLeaf = 32;     // residuals at most in a leaf
 constexpr double kRho = 0.9;          // node half-width / distance to a sign change, at most
 constexpr double kExpReach = 2.0;     // half-width limit for exponential-type inverses
 constexpr double kLogisticReach = 0.25 * 3.141592653589793;  // a quarter of the pole distance
@@ -121,7 +121,7 @@ inline void prefetch_moments(const double* m) {
 
 Smearing::Smearing(const Transform& t, const double* residuals, std::size_t n) : t_(t) {
   require(n > 0 && residuals != nullptr, "smearing needs at least one training residual");
-  // Node ids (at most n + 1: every leaf below the root keeps two residuals) fit an int32_t.
+  // Node ids (at most n + 1: every leaf below the root keeps four residuals) fit an int32_t.
   require(n <= 2147483646u, "smearing takes at most 2147483646 training residuals");
   e_.assign(residuals, residuals + n);
   for (std::size_t j = 0; j < n; ++j)

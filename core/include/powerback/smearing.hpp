@@ -11,14 +11,14 @@
 //     overflows unless the pairwise sum would;
 //   - every other family: the residuals are sorted and grouped into a binary tree of value
 //     ranges. A node is split at its centre value, moved if needed so that each child keeps at
-//     least an eighth of its residuals (depth at most log(n / 16) / log(8 / 7); in a long tail
+//     least an eighth of its residuals (depth at most log(n / 32) / log(8 / 7); in a long tail
 //     the spine towards the extreme residuals stays short). A node whose range [c - r, c + r]
 //     lies inside one smooth branch of the inverse g (on the family's argument v) and far enough
 //     from its range limit and branch point adds
 //       sum_j g(w + d_j) = sum_{k=0..K} g^(k)(w)/k! * M_k,  w = mu + c, d_j = e_j - c,
 //     with the node's residual power sums M_k = sum_j d_j^k stored at construction (K = 26);
 //     g^(k)(w)/k! comes from g(w) by a recurrence (two transcendental calls per node at most).
-//     Nodes too close to a limit are split; leaves (at most 16 residuals) there are summed
+//     Nodes too close to a limit are split; leaves (at most 32 residuals) there are summed
 //     directly; nodes wholly beyond the range limit add their count times the limit value.
 //   - Yeo-Johnson near its branch point z = 0: each side's inverse is analytic there, and its
 //     Taylor polynomial of degree 10 at z = 0 replaces log1p/expm1 for leaf terms and node
