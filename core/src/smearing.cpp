@@ -180,10 +180,40 @@ Smearing::Smearing(const Transform& t, const double* residuals, std::size_t n) :
     default:
       break;
   }
+  find_safe_interval();
   pairs_.reserve(2 * n / kLeaf + 2);
   pairs_.emplace_back();
   mom_.assign(2 * K, 0.0);
   build(0, 0, n, 0);
+}
+
+// The terms T^{-1}(z) that are neither beyond the range nor overflowing form an interval of z
+// (the range is an interval and the inverse is monotone on it); its ends are found by doubling
+// steps from a point inside, then bisection down to adjacent doubles. Rows whose extreme terms
+// lie inside it need not evaluate them to know that no term is flagged.
+void Smearing::find_safe_interval() {
+  auto good = [&](double z) { return std::isfinite(z) && !invert_bounded(t_, z).bounded; };
+  double z0 = 0.0;
+  if (!good(z0)) z0 = -1.0;
+  if (!good(z0)) z0 = 1.0;
+  if (!good(z0)) return;  // empty: every row tests its extreme terms
+  for (int dir = -1; dir <= 1; dir += 2) {
+    double in = z0, step = 1.0, out = kInf;
+    while (std::isfinite(z0 + dir * step)) {
+      if (!good(z0 + dir * step)) {
+        out = z0 + dir * step;
+        break;
+      }
+      in = z0 + dir * step;
+      step *= 2.0;
+    }
+    for (int it = 0; it < 2100 && std::isfinite(out); ++it) {
+      const double mid = in + 0.5 * (out - in);
+      if (mid == in || mid == out) break;
+      (good(mid) ? in : out) = mid;
+    }
+    (dir < 0 ? safe_lo_ : safe_hi_) = in;  // the last point tested good
+  }
 }
 
 void Smearing::build(int id, std::size_t i0, std::size_t i1, int depth) {
@@ -490,8 +520,12 @@ BackValue Smearing::mean(double mu, SmearingWork* work) const {
     a = lo;
     z = N;
   }
-  const bool check_ends =
-      z > a && (invert_bounded(t_, mu + e_[a]).bounded || invert_bounded(t_, mu + e_[z - 1]).bounded);
+  bool check_ends = false;
+  if (z > a) {
+    const double za = mu + e_[a], zz = mu + e_[z - 1];
+    if (!(za >= safe_lo_ && zz <= safe_hi_))  // beyond the interval known to be unflagged
+      check_ends = invert_bounded(t_, za).bounded || invert_bounded(t_, zz).bounded;
+  }
 
   double xs = 0.0;
   bool bounded = false;

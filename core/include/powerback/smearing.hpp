@@ -99,6 +99,7 @@ class Smearing {
   const Node& node(int id) const { return pairs_[static_cast<std::size_t>(id) >> 1].side[id & 1]; }
   Node& node(int id) { return pairs_[static_cast<std::size_t>(id) >> 1].side[id & 1]; }
   void build(int id, std::size_t i0, std::size_t i1, int depth);
+  void find_safe_interval();
   void moments_of_leaf(int id);
   void moments_from_children(int id);
   // sum over the node of g(mu + e_j) on the v scale by its series; false when the node is not
@@ -124,6 +125,8 @@ class Smearing {
   double reach_[2] = {0, 0};     // largest accepted |s r / W| of each power branch
   std::vector<double> zpoly_[2]; // Yeo-Johnson: Taylor coefficients at z = 0 of each side
   double zreach_[2] = {-1, -1};  // ... and the largest |z| where they are exact to rounding
+  // Every z in [safe_lo_, safe_hi_] has an in-range, finite inverse (empty when safe_lo_ > safe_hi_).
+  double safe_lo_ = 1.0, safe_hi_ = -1.0;
   std::vector<double> logistic_; // coefficients of the logistic's k-th derivative / k!, by k
   int depth_ = 0;
 };
