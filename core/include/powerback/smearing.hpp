@@ -41,7 +41,9 @@
 // z = mu + e_j is monotone in e_j, so one binary search per row finds the in-range residuals
 // and a node's two end indices decide it.
 // Overflow: when the extreme terms of a row overflow, accepted nodes must have finite ends,
-// else they are summed directly, so non-finite terms give the same Inf and flag.
+// else they are summed directly, so non-finite terms give the same Inf and flag. (The unflagged
+// z form an interval, found to adjacent doubles at construction; a row whose extreme terms lie
+// in it need not evaluate them.)
 //
 // Cost: O(n log n) to build, O(n K) memory (nodes of 32 bytes, the two children of a node in one
 // cache line, their power sums fetched ahead of use); per row the number of accepted nodes (a
