@@ -73,7 +73,8 @@ double binomial_reach(double p) {
 std::vector<double> zero_polynomial(double s, double sg) {
   std::vector<double> a(kZeroDegree + 1, 0.0);
   a[1] = 1.0;
-  for (int k = 2; k <= kZeroDegree; ++k) a[static_cast<std::size_t>(k)] = a[static_cast<std::size_t>(k - 1)] * (1.0 - (k - 1) * s) / k * sg;
+  for (std::size_t k = 2; k <= static_cast<std::size_t>(kZeroDegree); ++k)
+    a[k] = a[k - 1] * (1.0 - static_cast<double>(k - 1) * s) / static_cast<double>(k) * sg;
   return a;
 }
 

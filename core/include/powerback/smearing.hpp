@@ -36,10 +36,10 @@
 // centre. A node's series stops at the first k past the terms' peak with |g^(k)(w)/k!| r^k
 // below 2^-60 |g(w)| (the node's sum is at least |g(w)| / 64 per residual). The result agrees
 // with the pairwise mean to well within 1e-12 relative to mean_j |T^{-1}(mu + e_j)| (checked in
-// the tests against the pairwise sum, itself exact only to ~n ulp). Which terms lie beyond the range limit, and so the `bounded` flag, is decided with
-// the same floating-point test as the pairwise mean: the range is an interval in z and
-// z = mu + e_j is monotone in e_j, so one binary search per row finds the in-range residuals
-// and a node's two end indices decide it.
+// the tests against the pairwise sum, itself exact only to ~n ulp). Which terms lie beyond the
+// range limit, and so the `bounded` flag, is decided with the same floating-point test as the
+// pairwise mean: the range is an interval in z and z = mu + e_j is monotone in e_j, so one
+// binary search per row finds the in-range residuals and a node's two end indices decide it.
 // Overflow: when the extreme terms of a row overflow, accepted nodes must have finite ends,
 // else they are summed directly, so non-finite terms give the same Inf and flag. (The unflagged
 // z form an interval, found to adjacent doubles at construction; a row whose extreme terms lie
@@ -106,10 +106,12 @@ class Smearing {
   void moments_from_children(int id);
   // sum over the node of g(mu + e_j) on the v scale by its series; false when the node is not
   // accepted at this mu (then the caller splits it).
-  bool series(const Node& nd, const double* mom, double mu, bool check_ends, double* vsum, SmearingWork* work) const;
+  bool series(const Node& nd, const double* mom, double mu, bool check_ends, double* vsum,
+              SmearingWork* work) const;
   // sum of x (original units) over residuals [i0, i1) one by one; in_range: all of them lie in
   // the inverse's range.
-  double direct(std::size_t i0, std::size_t i1, double mu, bool in_range, bool* bounded, SmearingWork* work) const;
+  double direct(std::size_t i0, std::size_t i1, double mu, bool in_range, bool* bounded,
+                SmearingWork* work) const;
   // Yeo-Johnson's inverse by its polynomial at the branch point (|z| within zreach_ of its side).
   double near_zero(double z) const;
   // sum of x over `count` terms whose v-sum is vsum.
