@@ -7,4 +7,7 @@ here=$(cd "$(dirname "$0")" && pwd)
 build=${1:-/tmp/pwb-bench}
 cmake -S "$here" -B "$build" -DCMAKE_BUILD_TYPE=Release >/dev/null
 cmake --build "$build" -j2 --target smearing_bench >/dev/null
+# The load beside the figures: on a shared machine the wall-clock times inflate with it.
+if command -v uptime >/dev/null; then echo "before: $(uptime)"; fi
 "$build/smearing_bench" "${2:-1000000}"
+if command -v uptime >/dev/null; then echo "after: $(uptime)"; fi

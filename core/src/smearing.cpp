@@ -15,13 +15,14 @@ namespace powerback {
 namespace {
 
 constexpr int K = 26;                 // series terms kept
-constexpr std::size_t kLeaf = 16;     // residuals at most in a leaf
+constexpr std::size_t kLeaf = 32;     // residuals at most in a leaf
 constexpr double kRho = 0.9;          // node half-width / distance to a sign change, at most
 constexpr double kExpReach = 2.0;     // half-width limit for exponential-type inverses
 constexpr double kLogisticReach = 0.25 * 3.141592653589793;  // a quarter of the pole distance
 constexpr double kEps = 1.1102230246251565e-16;               // 2^-53
 constexpr double kConditioning = 64.0;  // sum |terms| / smallest value accepted in a node
 constexpr int kMaxDepth = 250;
+constexpr int kZeroDegree = 10;       // degree of the Yeo-Johnson polynomials at z = 0
 constexpr double kInf = std::numeric_limits<double>::infinity();
 
 struct Tables {
@@ -65,10 +66,64 @@ double binomial_reach(double p) {
   return 0.0;
 }
 
+// Yeo-Johnson near its branch point z = 0. On each side the inverse is g(z) = sg h_s(sg z) with
+// h_s(u) = (1 + s u)^(1/s) - 1 (expm1(u) for s = 0): s = lambda, sg = 1 for z >= 0 and
+// s = 2 - lambda, sg = -1 for z < 0. The Taylor coefficients of h_s at 0 are h_1 = 1,
+// h_k = h_{k-1} (1 - (k - 1) s) / k, so g's are sg^(k+1) h_k; returned for k = 0..kZeroDegree.
+std::vector<double> zero_polynomial(double s, double sg) {
+  std::vector<double> a(kZeroDegree + 1, 0.0);
+  a[1] = 1.0;
+  for (std::size_t k = 2; k <= static_cast<std::size_t>(kZeroDegree); ++k)
+    a[k] = a[k - 1] * (1.0 - static_cast<double>(k - 1) * s) / static_cast<double>(k) * sg;
+  return a;
+}
+
+// The largest X (from a geometric grid) such that for 0 < sg z <= X the polynomial leaves a
+// tail below 2^-54 |g(z)| and its terms beyond the first sum to at most |g(z)| / 2 (so Horner's
+// rule stays within a few ulp). Both bounds are checked at X only: the tail and head divided by
+// |z| grow with |z| (absolute terms), and |g(z)| / |z| >= min(1, |g(X)| / X) because g is convex
+// or concave on each side with g(0) = 0, g'(0) = 1. 0 when no grid point qualifies.
+double zero_reach(double s, double sg, double lambda) {
+  for (double X = 0.5; X > 1e-6; X *= 0.9) {
+    const double g = std::fabs(math::yeo_johnson_inverse(sg * X, lambda));
+    if (!std::isfinite(g)) continue;
+    const double floor_value = std::min(X, g);
+    double t = X, head = 0.0, tail = 0.0;
+    for (int k = 2; k <= kZeroDegree + 400; ++k) {
+      t *= std::fabs(1.0 - (k - 1) * s) / k * X;
+      if (k <= kZeroDegree) head += t;
+      else tail += t;
+    }
+    if (tail <= 0.5 * kEps * floor_value && head <= 0.5 * floor_value) return X;
+  }
+  return 0.0;
+}
+
+inline void prefetch_line(const void* p) {
+#if defined(__GNUC__) || defined(__clang__)
+  __builtin_prefetch(p);
+#else
+  (void)p;
+#endif
+}
+
+// Asks for the node's power sums ahead of their use (they are read after the Taylor
+// coefficients, whose transcendental functions hide the memory latency).
+inline void prefetch_moments(const double* m) {
+#if defined(__GNUC__) || defined(__clang__)
+  for (int k = 0; k < K; k += 8) __builtin_prefetch(m + k);
+  __builtin_prefetch(m + K - 1);
+#else
+  (void)m;
+#endif
+}
+
 }  // namespace
 
 Smearing::Smearing(const Transform& t, const double* residuals, std::size_t n) : t_(t) {
   require(n > 0 && residuals != nullptr, "smearing needs at least one training residual");
+  // Node ids (at most n + 1: every leaf below the root keeps four residuals) fit an int32_t.
+  require(n <= 2147483646u, "smearing takes at most 2147483646 training residuals");
   e_.assign(residuals, residuals + n);
   for (std::size_t j = 0; j < n; ++j)
     if (!std::isfinite(e_[j]))
@@ -102,6 +157,10 @@ Smearing::Smearing(const Transform& t, const double* residuals, std::size_t n) :
         binom_[1] = binomials(1.0 / (2.0 - s.lambda));
         reach_[1] = binomial_reach(1.0 / (2.0 - s.lambda));
       }
+      zpoly_[0] = zero_polynomial(s.lambda, 1.0);
+      zpoly_[1] = zero_polynomial(2.0 - s.lambda, -1.0);
+      zreach_[0] = zero_reach(s.lambda, 1.0, s.lambda);
+      zreach_[1] = zero_reach(2.0 - s.lambda, -1.0, s.lambda);
       break;
     case Family::Logit: {
       // P_0(y) = y, P_{k+1}(y) = P_k'(y) y (1 - y) gives the k-th derivative of the logistic
@@ -122,45 +181,77 @@ Smearing::Smearing(const Transform& t, const double* residuals, std::size_t n) :
     default:
       break;
   }
-  nodes_.reserve(2 * n / kLeaf + 2);
-  build(0, n, 0);
+  find_safe_interval();
+  pairs_.reserve(2 * n / kLeaf + 2);
+  pairs_.emplace_back();
+  mom_.assign(2 * K, 0.0);
+  build(0, 0, n, 0);
 }
 
-int Smearing::build(std::size_t i0, std::size_t i1, int depth) {
+// The terms T^{-1}(z) that are neither beyond the range nor overflowing form an interval of z
+// (the range is an interval and the inverse is monotone on it); its ends are found by doubling
+// steps from a point inside, then bisection down to adjacent doubles. Rows whose extreme terms
+// lie inside it need not evaluate them to know that no term is flagged.
+void Smearing::find_safe_interval() {
+  auto good = [&](double z) { return std::isfinite(z) && !invert_bounded(t_, z).bounded; };
+  double z0 = 0.0;
+  if (!good(z0)) z0 = -1.0;
+  if (!good(z0)) z0 = 1.0;
+  if (!good(z0)) return;  // empty: every row tests its extreme terms
+  for (int dir = -1; dir <= 1; dir += 2) {
+    double in = z0, step = 1.0, out = kInf;
+    while (std::isfinite(z0 + dir * step)) {
+      if (!good(z0 + dir * step)) {
+        out = z0 + dir * step;
+        break;
+      }
+      in = z0 + dir * step;
+      step *= 2.0;
+    }
+    for (int it = 0; it < 2100 && std::isfinite(out); ++it) {
+      const double mid = in + 0.5 * (out - in);
+      if (mid == in || mid == out) break;
+      (good(mid) ? in : out) = mid;
+    }
+    (dir < 0 ? safe_lo_ : safe_hi_) = in;  // the last point tested good
+  }
+}
+
+void Smearing::build(int id, std::size_t i0, std::size_t i1, int depth) {
   if (depth > kMaxDepth) throw Error(ErrorCode::Internal, "smearing tree deeper than expected");
   depth_ = std::max(depth_, depth);
-  const int idx = static_cast<int>(nodes_.size());
-  Node nd;
-  nd.i0 = i0;
-  nd.i1 = i1;
-  nd.c = 0.5 * e_[i0] + 0.5 * e_[i1 - 1];
-  nd.r = std::max(e_[i1 - 1] - nd.c, nd.c - e_[i0]);
-  nodes_.push_back(nd);
-  mom_.resize(nodes_.size() * K, 0.0);
+  Node& nd = node(id);
+  nd.lo = e_[i0];
+  nd.hi = e_[i1 - 1];
+  nd.i0 = static_cast<std::uint32_t>(i0);
+  nd.i1 = static_cast<std::uint32_t>(i1);
+  const double c = nd.centre();
   const std::size_t cnt = i1 - i0;
-  if (cnt <= kLeaf || nd.r == 0.0) {
-    moments_of_leaf(static_cast<std::size_t>(idx));
-    return idx;
+  if (cnt <= kLeaf || nd.lo == nd.hi) {
+    moments_of_leaf(id);
+    return;
   }
   // Split at the centre value when both sides keep at least an eighth (depth O(log n)),
   // otherwise at the middle index.
   std::size_t m = static_cast<std::size_t>(std::lower_bound(e_.begin() + static_cast<std::ptrdiff_t>(i0),
-                                                            e_.begin() + static_cast<std::ptrdiff_t>(i1), nd.c) -
+                                                            e_.begin() + static_cast<std::ptrdiff_t>(i1), c) -
                                            e_.begin());
-  if (m - i0 < cnt / 8 || i1 - m < cnt / 8) m = i0 + cnt / 2;
-  const int l = build(i0, m, depth + 1);
-  const int r = build(m, i1, depth + 1);
-  nodes_[static_cast<std::size_t>(idx)].left = l;
-  nodes_[static_cast<std::size_t>(idx)].right = r;
-  moments_from_children(static_cast<std::size_t>(idx));
-  return idx;
+  m = std::min(std::max(m, i0 + cnt / 8), i1 - cnt / 8);
+  const int kids = static_cast<int>(2 * pairs_.size());
+  pairs_.emplace_back();  // invalidates nd
+  mom_.resize(2 * pairs_.size() * K, 0.0);
+  node(id).kids = kids;
+  build(kids, i0, m, depth + 1);
+  build(kids + 1, m, i1, depth + 1);
+  moments_from_children(id);
 }
 
-void Smearing::moments_of_leaf(std::size_t node) {
-  const Node& nd = nodes_[node];
-  double* m = &mom_[node * K];
+void Smearing::moments_of_leaf(int id) {
+  const Node& nd = node(id);
+  const double c = nd.centre();
+  double* m = &mom_[static_cast<std::size_t>(id) * K];
   for (std::size_t j = nd.i0; j < nd.i1; ++j) {
-    const double d = e_[j] - nd.c;
+    const double d = e_[j] - c;
     double p = d;
     for (int k = 0; k < K; ++k) {
       m[k] += p;
@@ -170,15 +261,15 @@ void Smearing::moments_of_leaf(std::size_t node) {
 }
 
 // Power sums about the parent's centre from the children's: (d + delta)^k expanded.
-void Smearing::moments_from_children(std::size_t node) {
+void Smearing::moments_from_children(int id) {
   const Tables& tb = tables();
-  const Node nd = nodes_[node];
-  double* m = &mom_[node * K];
+  const Node& nd = node(id);
+  double* m = &mom_[static_cast<std::size_t>(id) * K];
   for (int side = 0; side < 2; ++side) {
-    const std::size_t ch = static_cast<std::size_t>(side ? nd.right : nd.left);
-    const Node& cn = nodes_[ch];
-    const double* mc = &mom_[ch * K];
-    const double delta = cn.c - nd.c;
+    const int ch = nd.kids + side;
+    const Node& cn = node(ch);
+    const double* mc = &mom_[static_cast<std::size_t>(ch) * K];
+    const double delta = cn.centre() - nd.centre();
     double dp[K + 1];
     dp[0] = 1.0;
     for (int k = 1; k <= K; ++k) dp[k] = dp[k - 1] * delta;
@@ -197,7 +288,27 @@ double Smearing::x_sum(double vsum, double count) const {
   return s.shift == 0.0 ? vsum : vsum - count * s.shift;
 }
 
-double Smearing::direct(std::size_t i0, std::size_t i1, double mu, bool* bounded) const {
+double Smearing::near_zero(double z) const {
+  const std::vector<double>& a = zpoly_[z >= 0.0 ? 0 : 1];
+  double v = a[kZeroDegree];
+  for (int k = kZeroDegree - 1; k >= 1; --k) v = v * z + a[static_cast<std::size_t>(k)];
+  return v * z;
+}
+
+double Smearing::direct(std::size_t i0, std::size_t i1, double mu, bool in_range, bool* bounded,
+                        SmearingWork* work) const {
+  const TransformSpec& s = t_.spec();
+  if (in_range && !zpoly_[0].empty() && mu + e_[i0] >= -zreach_[1] && mu + e_[i1 - 1] <= zreach_[0]) {
+    double vs = 0.0;  // Yeo-Johnson next to its branch point: the polynomials at z = 0
+    for (std::size_t j = i0; j < i1; ++j) vs += near_zero(mu + e_[j]);
+    if (work) work->zero_polynomial += i1 - i0;
+    return x_sum(vs, static_cast<double>(i1 - i0));
+  }
+  if (in_range) {  // every term in range: sum the inverse itself; a finite sum has no bounded term
+    double vs = 0.0;
+    for (std::size_t j = i0; j < i1; ++j) vs += math::inverse(s.family, mu + e_[j], s.lambda);
+    if (std::isfinite(vs)) return x_sum(vs, static_cast<double>(i1 - i0));
+  }
   double sum = 0.0;
   for (std::size_t j = i0; j < i1; ++j) {
     const BackValue v = invert_bounded(t_, mu + e_[j]);
@@ -207,50 +318,49 @@ double Smearing::direct(std::size_t i0, std::size_t i1, double mu, bool* bounded
   return sum;
 }
 
-bool Smearing::series(const Node& nd, double mu, bool check_ends, double* vsum) const {
+bool Smearing::series(const Node& nd, const double* mom, double mu, bool check_ends, double* vsum,
+                      SmearingWork* work) const {
   const TransformSpec& s = t_.spec();
   const double lambda = s.lambda;
-  const double w = mu + nd.c, r = nd.r;
+  const double ctr = nd.centre();
+  const double w = mu + ctr, r = std::max(nd.hi - ctr, ctr - nd.lo);
   const double cnt = static_cast<double>(nd.i1 - nd.i0);
   const Tables& tb = tables();
   double c0 = 0.0;
-  double c[K + 1];  // c[k], k >= 1: k-th Taylor coefficient of g at w
+  double c[K + 1];  // c[k], k >= 1: k-th Taylor coefficient of g at w (asinh, logistic)
   int kmax = K;     // terms used: the series stops once its terms are decreasing and negligible
+  double tail = 0.0;
+  bool summed = false;  // tail already summed (the power and exponential branches)
   // |c_k| r^k bounds the k-th term per residual; below 2^-60 |c0| (the node sum is at least
   // |c0| / 64 per residual in an accepted node) and past the terms' peak, the rest cannot count.
-  auto done = [&](double ck, double rk, double* prev) {
-    const double bound = std::fabs(ck) * rk;
-    const bool stop = bound < 8.673617379884035e-19 * std::fabs(c0) && bound <= *prev;
-    *prev = bound;
-    return stop;
+  // The branches below compute c_k by a recurrence and add c_k M_k as they go.
+  auto sum_terms = [&](double first, double x, const double* coef) {
+    const double stop = 8.673617379884035e-19 * std::fabs(c0);
+    double xp = first, rk = 1.0, prev = kInf, t = 0.0;
+    int k = 1;
+    for (;; ++k) {
+      xp *= x;
+      rk *= r;
+      const double ck = coef[k] * xp;
+      t += ck * mom[k - 1];
+      const double bound = std::fabs(ck) * rk;
+      if (k == K || (bound < stop && bound <= prev)) break;
+      prev = bound;
+    }
+    kmax = k;
+    tail = t;
+    summed = true;
   };
-
   // A power branch g(w + d) = A + B (W + s d)^p with base W > 0: c_k = B W^p binom(p, k) (s/W)^k.
   auto power_branch = [&](double W, double sl, double B, double Wp, int br) {
     if (!(W > 0.0) || r * std::fabs(sl) > reach_[br] * W) return false;
-    const std::vector<double>& bn = binom_[br];
-    const double x = sl / W;
-    double xp = B * Wp, rk = 1.0, prev = kInf;
-    for (int k = 1; k <= K; ++k) {
-      xp *= x;
-      rk *= r;
-      c[k] = bn[static_cast<std::size_t>(k)] * xp;
-      kmax = k;
-      if (done(c[k], rk, &prev)) break;
-    }
+    sum_terms(B * Wp, sl / W, binom_[br].data());
     return true;
   };
-  // An exponential branch g(w + d) = A + B exp(sl (w + d)): c_k = B exp(sl w) sl^k / k!.
-  auto exp_branch = [&](double sl, double B) {
+  // An exponential branch g(w + d) = A + B exp(sl (w + d)): c_k = B E sl^k / k!, E = exp(sl w).
+  auto exp_branch = [&](double sl, double B, double E) {
     if (r * std::fabs(sl) > kExpReach) return false;
-    double xp = B * std::exp(sl * w), rk = 1.0, prev = kInf;
-    for (int k = 1; k <= K; ++k) {
-      xp *= sl;
-      rk *= r;
-      c[k] = xp * tb.inv_fact[k];
-      kmax = k;
-      if (done(c[k], rk, &prev)) break;
-    }
+    sum_terms(B * E, sl, tb.inv_fact);
     return true;
   };
 
@@ -290,29 +400,32 @@ bool Smearing::series(const Node& nd, double mu, bool check_ends, double* vsum) 
     }
     case Family::YeoJohnson: {
       // Each side of the branch point z = 0 separately; near it, terms change sign, so the
-      // node must also stay within rho |w| of its centre.
+      // node must also stay within rho |w| of its centre. One log1p and one expm1 per node:
+      // c0 = +-expm1(L) keeps full precision near w = 0, and W^p = exp(L) = 1 +- c0 (no
+      // cancellation: the two terms have the same sign).
       if (r > kRho * std::fabs(w)) return false;
-      // From |w| = 1/2 on, the power W^p is at least 1.3 times its distance from 1, so
-      // c0 = +-(W^p - 1) loses at most a few ulp and saves the separate expm1 evaluation.
-      const bool far = std::fabs(w) >= 0.5;
       if (w > 0.0) {
         if (lambda == 0.0) {
-          c0 = std::expm1(w);
-          ok = exp_branch(1.0, 1.0);
+          if (r > kExpReach) return false;
+          c0 = w <= zreach_[0] ? near_zero(w) : std::expm1(w);
+          ok = exp_branch(1.0, 1.0, 1.0 + c0);
         } else {
-          const double Wp = std::exp(std::log1p(lambda * w) / lambda);
-          c0 = far ? Wp - 1.0 : math::yeo_johnson_inverse(w, lambda);
-          ok = power_branch(1.0 + lambda * w, lambda, 1.0, Wp, 0);
+          const double W = 1.0 + lambda * w;
+          if (!(W > 0.0) || r * std::fabs(lambda) > reach_[0] * W) return false;
+          c0 = w <= zreach_[0] ? near_zero(w) : std::expm1(std::log1p(lambda * w) / lambda);
+          ok = power_branch(W, lambda, 1.0, 1.0 + c0, 0);
         }
       } else {
         const double m = 2.0 - lambda;
         if (m == 0.0) {
-          c0 = -std::expm1(-w);
-          ok = exp_branch(-1.0, -1.0);
+          if (r > kExpReach) return false;
+          c0 = -w <= zreach_[1] ? near_zero(w) : -std::expm1(-w);
+          ok = exp_branch(-1.0, -1.0, 1.0 - c0);
         } else {
-          const double Wp = std::exp(std::log1p(-m * w) / m);
-          c0 = far ? 1.0 - Wp : math::yeo_johnson_inverse(w, lambda);
-          ok = power_branch(1.0 - m * w, -m, -1.0, Wp, 1);
+          const double W = 1.0 - m * w;
+          if (!(W > 0.0) || r * std::fabs(m) > reach_[1] * W) return false;
+          c0 = -w <= zreach_[1] ? near_zero(w) : -std::expm1(std::log1p(-m * w) / m);
+          ok = power_branch(W, -m, -1.0, 1.0 - c0, 1);
         }
       }
       break;
@@ -346,14 +459,17 @@ bool Smearing::series(const Node& nd, double mu, bool check_ends, double* vsum) 
       return false;
   }
   if (!ok || !std::isfinite(c0)) return false;
-  if (check_ends && (invert_bounded(t_, mu + e_[nd.i0]).bounded || invert_bounded(t_, mu + e_[nd.i1 - 1]).bounded))
+  if (check_ends && (invert_bounded(t_, mu + nd.lo).bounded || invert_bounded(t_, mu + nd.hi).bounded))
     return false;
-  const double* m = &mom_[static_cast<std::size_t>(&nd - nodes_.data()) * K];
-  double tail = 0.0;
-  for (int k = kmax; k >= 1; --k) tail += c[k] * m[k - 1];
+  if (!summed)
+    for (int k = kmax; k >= 1; --k) tail += c[k] * mom[k - 1];
   const double sum = cnt * c0 + tail;
   if (!std::isfinite(sum)) return false;
   *vsum = sum;
+  if (work) {
+    work->series_terms += static_cast<std::size_t>(kmax);
+    if (!zpoly_[0].empty() && std::fabs(w) <= zreach_[w > 0.0 ? 0 : 1]) ++work->zero_polynomial;
+  }
   return true;
 }
 
@@ -405,19 +521,27 @@ BackValue Smearing::mean(double mu, SmearingWork* work) const {
     a = lo;
     z = N;
   }
-  const bool check_ends =
-      z > a && (invert_bounded(t_, mu + e_[a]).bounded || invert_bounded(t_, mu + e_[z - 1]).bounded);
+  bool check_ends = false;
+  if (z > a) {
+    const double za = mu + e_[a], zz = mu + e_[z - 1];
+    if (!(za >= safe_lo_ && zz <= safe_hi_))  // beyond the interval known to be unflagged
+      check_ends = invert_bounded(t_, za).bounded || invert_bounded(t_, zz).bounded;
+  }
 
   double xs = 0.0;
   bool bounded = false;
-  std::array<int, 2 * kMaxDepth + 4> stack{};
+  std::array<int, 2 * kMaxDepth + 4> stack;  // no initialisation needed: read only below top
   int top = 0;
   stack[static_cast<std::size_t>(top++)] = 0;
   while (top > 0) {
-    const Node& nd = nodes_[static_cast<std::size_t>(stack[static_cast<std::size_t>(--top)])];
+    const int id = stack[static_cast<std::size_t>(--top)];
+    const Node& nd = node(id);
+    if (nd.kids >= 0) prefetch_line(&node(nd.kids));  // in case the node is split
     const double cnt = static_cast<double>(nd.i1 - nd.i0);
-    const double zlo = mu + e_[nd.i0], zhi = mu + e_[nd.i1 - 1];
-    const bool in_lo = math::in_range(s.family, zlo, s.lambda), in_hi = math::in_range(s.family, zhi, s.lambda);
+    const double zlo = mu + nd.lo, zhi = mu + nd.hi;
+    // In range exactly when the index lies in [a, z), found above with the same test.
+    const std::size_t j0 = nd.i0, j1 = nd.i1 - 1u;
+    const bool in_lo = j0 >= a && j0 < z, in_hi = j1 >= a && j1 < z;
     if (!in_lo && !in_hi) {
       const BackValue u = invert_bounded(t_, zlo), v = invert_bounded(t_, zhi);
       if (u.value == v.value) {  // wholly beyond the limit: every term is the limit value
@@ -427,27 +551,29 @@ BackValue Smearing::mean(double mu, SmearingWork* work) const {
         continue;
       }
     } else if (in_lo && in_hi) {
-      if (nd.r == 0.0) {
+      if (nd.lo == nd.hi) {
         const BackValue u = invert_bounded(t_, zlo);
         xs += cnt * u.value;
         bounded = bounded || u.bounded;
         if (work) ++work->series_nodes;
         continue;
       }
+      const double* mom = &mom_[static_cast<std::size_t>(id) * K];
+      prefetch_moments(mom);
       double vs = 0.0;
-      if (series(nd, mu, check_ends, &vs)) {
+      if (series(nd, mom, mu, check_ends, &vs, work)) {
         xs += x_sum(vs, cnt);
         if (work) ++work->series_nodes;
         continue;
       }
     }
-    if (nd.left < 0) {
-      xs += direct(nd.i0, nd.i1, mu, &bounded);
+    if (nd.kids < 0) {
+      xs += direct(nd.i0, nd.i1, mu, in_lo && in_hi, &bounded, work);
       if (work) work->direct_terms += nd.i1 - nd.i0;
       continue;
     }
-    stack[static_cast<std::size_t>(top++)] = nd.left;
-    stack[static_cast<std::size_t>(top++)] = nd.right;
+    stack[static_cast<std::size_t>(top++)] = nd.kids;
+    stack[static_cast<std::size_t>(top++)] = nd.kids + 1;
   }
   b.value = xs / n;
   b.bounded = bounded;

@@ -113,6 +113,32 @@ TEST_CASE("smearing: Yeo-Johnson, asinh and logit match the pairwise mean", "[sm
   compare_grid(make(Family::Logit, math::kNaN, 0.0, true, 1.0), wide, -5, 5, 20);
 }
 
+TEST_CASE("smearing: Yeo-Johnson across its branch point, long tails and tiny residuals", "[smearing]") {
+  // A long right tail and a short left one: the tree splits clamp to an eighth there.
+  const std::vector<double> sk = residuals(40000, 0.8, 11, true);
+  for (double l : {0.5, 0.0, 2.0, 1.3, -0.5, 2.5}) compare_grid(make(Family::YeoJohnson, l), sk, -4, 3, 28);
+  // Every term within 0.01 of the branch point: leaves and nodes there use the polynomials at
+  // z = 0 instead of log1p/expm1.
+  const std::vector<double> tiny = residuals(5000, 1e-3, 12);
+  for (double l : {0.5, 0.0, 2.0, 1.3, -0.5, 2.5, -1.5, 3.5})
+    compare_grid(make(Family::YeoJohnson, l), tiny, -0.004, 0.004, 16);
+  for (double l : {0.5, 0.0, 2.5}) {
+    SmearingWork w;
+    Smearing(make(Family::YeoJohnson, l), tiny.data(), tiny.size()).mean(0.001, &w);
+    CHECK(w.zero_polynomial >= 1);
+  }
+  // Rows whose branch point lies among the residuals: about one node per tree level on each side
+  // of it (2 log2(40000 / 32) = 21) and a leaf or two summed directly (at most 32 each).
+  const Smearing sm(make(Family::YeoJohnson, 0.5), sk.data(), sk.size());
+  for (double mu : {-1.5, -0.3, 0.0, 0.4, 1.0, 2.5}) {
+    SmearingWork w;
+    sm.mean(mu, &w);
+    INFO("mu = " << mu << ": " << w.series_nodes << " nodes, " << w.direct_terms << " direct terms");
+    CHECK(w.series_nodes <= 40);
+    CHECK(w.direct_terms <= 64);
+  }
+}
+
 TEST_CASE("smearing: overflowing terms give the pairwise Inf and flag", "[smearing]") {
   const std::vector<double> e = residuals(2000, 1.0, 7);
   // sinh and expm1 overflow past z = 710.5 / 709.8; power 0.01 (z^100) past z = 1.2e3.
