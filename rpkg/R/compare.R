@@ -188,19 +188,32 @@ compare_transforms <- function(formula, data, candidates = c("none", "ladder", "
   bar <- if (isTRUE(progress)) utils::txtProgressBar(min = 0, max = steps, style = 3)
   step <- 0L
   fold_rows <- lambda_rows <- fail_rows <- pred_rows <- list()
+  # fixed candidates: one design for all rows, every fold fitted from one factor per fold
+  fixed <- pwb_cmp_fixed_setup(learners, formula, dat, yname, level)
   for (r in seq_len(repeats)) {
+    runs <- if (is.null(fixed)) list()
+            else lapply(fixed$cands, pwb_cmp_fixed_run, fold = fold_ids[, r], k = folds,
+                        level = level, w = w_used)
     for (k in seq_len(folds)) {
       test <- fold_ids[, r] == k
-      train <- dat[!test, , drop = FALSE]
-      # positions in the training part: messages naming them are mapped to the user's rows
-      rownames(train) <- NULL
-      held_out <- dat[test, , drop = FALSE]
-      rownames(held_out) <- NULL
+      train <- held_out <- NULL
       w_train <- if (is.null(w_used)) NULL else w_used[!test]
       w_test <- if (is.null(w_used)) NULL else w_used[test]
       for (cand in names(learners)) {
-        one <- pwb_cmp_one_fold(learners[[cand]], formula, train, held_out, yname, family,
-                                level, w_train, w_test)
+        one <- if (is.null(runs[[cand]])) NULL
+               else pwb_cmp_fixed_fold(fixed$cands[[cand]], runs[[cand]], fixed$factors, test,
+                                       k, as.double(dat[[yname]][test]), w_test)
+        if (is.null(one)) {
+          if (is.null(train)) {
+            train <- dat[!test, , drop = FALSE]
+            # positions in the training part: messages naming them are mapped to the user's rows
+            rownames(train) <- NULL
+            held_out <- dat[test, , drop = FALSE]
+            rownames(held_out) <- NULL
+          }
+          one <- pwb_cmp_one_fold(learners[[cand]], formula, train, held_out, yname, family,
+                                  level, w_train, w_test)
+        }
         tag <- data.frame(candidate = cand, repeat_no = r, fold = k, stringsAsFactors = FALSE)
         if (is.null(one$error)) {
           fold_rows[[length(fold_rows) + 1L]] <- cbind(tag, one$scores)
