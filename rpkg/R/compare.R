@@ -79,6 +79,16 @@
 #' is reported in `failures` for every candidate and not scored, because predictions from such a
 #' fit depend on which column was dropped.
 #'
+#' Work shared between folds: a candidate whose transforms are fixed (`"none"` and a named list
+#' of `pwb_transform`) learns nothing from the rows, so its design and transformed response are
+#' formed once for all rows, each fold's rows are factored once, and each training fit is
+#' assembled from the other folds' factors: the same fit as [lm_transformed()] on the training
+#' part, to rounding, at a cost that grows linearly in the rows. A fold where that fit could
+#' differ (a factor level missing from the training part, an aliased column, a training value
+#' outside a transform's domain) is fitted by [lm_transformed()] as before, and so is every fold
+#' when the formula has terms computed from other rows (e.g. `poly()`, `scale()`) or the data
+#' keep missing values.
+#'
 #' Cautions: a transform changes what the model estimates; back-transformed means need a
 #' correction (compare the `_median` and `_mean` scores); and the ranking informs, but does not
 #' replace, domain standards and professional judgement.
