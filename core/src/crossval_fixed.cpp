@@ -43,6 +43,7 @@ void stack_and_factor(Eigen::MatrixXd& r, const Eigen::MatrixXd& rows) {
 }
 
 struct Problem {
+  const int* fold;             // n fold ids in 1..k
   const double* X;
   std::size_t n, p, c0, c;
   const double* w;
@@ -51,9 +52,6 @@ struct Problem {
   Eigen::VectorXd scale;       // power-of-two scale of each design column
   double zscale = 1;
 
-  double x(std::size_t i, std::size_t j) const {  // design entry, intercept included
-    return (c0 && j == 0) ? 1.0 : X[(j - c0) * n + i];
-  }
   bool finite_row(std::size_t i) const {
     for (std::size_t j = 0; j < p; ++j)
       if (!std::isfinite(X[j * n + i])) return false;
@@ -61,24 +59,38 @@ struct Problem {
   }
 };
 
+// Design rows [r0, r0 + m), intercept included (each column a contiguous copy).
+void rows_of(const Problem& pr, std::size_t r0, std::size_t m, Eigen::MatrixXd& out) {
+  out.resize(static_cast<Index>(m), static_cast<Index>(pr.c));
+  if (pr.c0) out.col(0).setOnes();
+  for (std::size_t j = 0; j < pr.p; ++j)
+    out.col(static_cast<Index>(j + pr.c0)) =
+        Eigen::Map<const Eigen::VectorXd>(pr.X + j * pr.n + r0, static_cast<Index>(m));
+}
+
 struct Block {
   Eigen::MatrixXd r;     // R of the block's rows of positive weight of [X z], scaled
   std::size_t nobs = 0;  // rows of positive weight
   bool invalid = false;  // a row with a non-finite predictor or z
 };
 
-Block factor_block(const Problem& pr, const std::vector<std::size_t>& rows) {
-  Block b;
-  const Index cols = static_cast<Index>(pr.c + 1);
-  b.r.resize(0, cols);
-  Eigen::MatrixXd chunk;
-  std::size_t at = 0;
-  while (at < rows.size()) {
+// Every fold's block factored in one pass over the rows: each row goes, scaled, to its fold's
+// buffer, which is stacked under the fold's R and factored when full (rows in ascending order).
+std::vector<Block> factor_blocks(const Problem& pr, const int* fold, std::size_t k) {
+  const Index cols = static_cast<Index>(pr.c + 1), c = static_cast<Index>(pr.c);
+  const Index cap = static_cast<Index>(kTallBlockRows);
+  std::vector<Block> blocks(k);
+  std::vector<Eigen::MatrixXd> buf(k, Eigen::MatrixXd(cap, cols));
+  std::vector<Index> filled(k, 0);
+  for (Block& b : blocks) b.r.resize(0, cols);
+  Eigen::MatrixXd x;
+  for (std::size_t r0 = 0; r0 < pr.n; r0 += kTallBlockRows) {
     poll_cancel();
-    chunk.resize(static_cast<Index>(std::min(kTallBlockRows, rows.size() - at)), cols);
-    Index filled = 0;
-    for (; at < rows.size() && filled < chunk.rows(); ++at) {
-      const std::size_t i = rows[at];
+    const std::size_t m = std::min(kTallBlockRows, pr.n - r0);
+    rows_of(pr, r0, m, x);
+    for (std::size_t q = 0; q < m; ++q) {
+      const std::size_t i = r0 + q, f = static_cast<std::size_t>(fold[i] - 1);
+      Block& b = blocks[f];
       if (!pr.usable[i]) {
         b.invalid = true;
         continue;
@@ -86,15 +98,20 @@ Block factor_block(const Problem& pr, const std::vector<std::size_t>& rows) {
       const double wi = pr.w ? pr.w[i] : 1.0;
       if (!(wi > 0)) continue;
       const double s = pr.w ? std::sqrt(wi) : 1.0;
-      for (std::size_t j = 0; j < pr.c; ++j)
-        chunk(filled, static_cast<Index>(j)) = s * pr.x(i, j) * pr.scale(static_cast<Index>(j));
-      chunk(filled, cols - 1) = s * pr.z[i] * pr.zscale;
-      ++filled;
+      Eigen::MatrixXd& dst = buf[f];
+      dst.row(filled[f]).head(c) =
+          (s * x.row(static_cast<Index>(q))).cwiseProduct(pr.scale.transpose());
+      dst(filled[f], c) = s * pr.z[i] * pr.zscale;
+      ++b.nobs;
+      if (++filled[f] == cap) {
+        stack_and_factor(b.r, dst);
+        filled[f] = 0;
+      }
     }
-    b.nobs += static_cast<std::size_t>(filled);
-    stack_and_factor(b.r, chunk.topRows(filled));
   }
-  return b;
+  for (std::size_t f = 0; f < k; ++f)
+    if (filled[f] > 0) stack_and_factor(blocks[f].r, buf[f].topRows(filled[f]));
+  return blocks;
 }
 
 void check_fixed_weights(const double* w, std::size_t n) {
@@ -140,16 +157,16 @@ void fit_fold(const Problem& pr, const Transform& t, const std::vector<Block>& b
   // lm's rule on the design's part of R, as LeastSquares::factor_with_response applies it
   const Eigen::MatrixXd rx = r.leftCols(ci);
   const Eigen::VectorXd norms = rx.colwise().norm().transpose();
-  detail::RankedQR q;
+  detail::RankedQR qr;
   try {
-    q = detail::apply_rank_rule(rx, norms, tol);
+    qr = detail::apply_rank_rule(rx, norms, tol);
   } catch (const Error& e) {
     if (e.code() != ErrorCode::Singular) throw;
     out.status[j] = static_cast<int>(FoldFit::RankDeficient);
     return;
   }
-  out.rank[j] = q.kept.size();
-  if (!q.aliased.empty()) {
+  out.rank[j] = qr.kept.size();
+  if (!qr.aliased.empty()) {
     out.status[j] = static_cast<int>(FoldFit::RankDeficient);
     return;
   }
@@ -157,9 +174,9 @@ void fit_fold(const Problem& pr, const Transform& t, const std::vector<Block>& b
     out.status[j] = static_cast<int>(FoldFit::NoResidualDf);
     return;
   }
-  const Eigen::MatrixXd rs = q.packed.topLeftCorner(ci, ci).triangularView<Eigen::Upper>();
+  const Eigen::MatrixXd rs = qr.packed.topLeftCorner(ci, ci).triangularView<Eigen::Upper>();
   Eigen::VectorXd tz = r.col(ci);
-  const Eigen::HouseholderSequence<Eigen::MatrixXd, Eigen::VectorXd> h(q.packed, q.hcoeffs);
+  const Eigen::HouseholderSequence<Eigen::MatrixXd, Eigen::VectorXd> h(qr.packed, qr.hcoeffs);
   tz.applyOnTheLeft(h.adjoint());
   const Eigen::VectorXd b = pr.scale.asDiagonal() *
                             rs.triangularView<Eigen::Upper>().solve(tz.head(ci)) / pr.zscale;
@@ -173,20 +190,29 @@ void fit_fold(const Problem& pr, const Transform& t, const std::vector<Block>& b
   out.sigma[j] = sigma;
   for (std::size_t i = 0; i < c; ++i) out.coefficients[j * c + i] = b(static_cast<Index>(i));
 
-  auto linear = [&](std::size_t i) {
-    double mu = 0;
-    for (std::size_t col = 0; col < c; ++col) mu += pr.x(i, col) * b(static_cast<Index>(col));
-    return mu;
-  };
-  // the smearing residuals: e over every training row, or sqrt(w) e over rows of positive weight
+  // One pass over the rows in order: the smearing residuals of the training rows (e, or sqrt(w)
+  // e over rows of positive weight) and the linear predictor of the held-out rows.
+  const int own = static_cast<int>(j) + 1;
   std::vector<double> e;
   e.reserve(nobs);
-  for (std::size_t bl = 0; bl < k; ++bl) {
-    if (bl == j) continue;
-    for (std::size_t i : members[bl]) {
+  Eigen::MatrixXd x;
+  Eigen::VectorXd mu;
+  Eigen::VectorXd held_mu(static_cast<Index>(members[j].size()));
+  std::size_t held = 0;
+  for (std::size_t r0 = 0; r0 < pr.n; r0 += kTallBlockRows) {
+    poll_cancel();
+    const std::size_t m = std::min(kTallBlockRows, pr.n - r0);
+    rows_of(pr, r0, m, x);
+    mu.noalias() = x * b;
+    for (std::size_t q = 0; q < m; ++q) {
+      const std::size_t i = r0 + q;
+      if (pr.fold[i] == own) {
+        held_mu(static_cast<Index>(held++)) = mu(static_cast<Index>(q));
+        continue;
+      }
       const double wi = pr.w ? pr.w[i] : 1.0;
       if (pr.w && !(wi > 0)) continue;
-      const double ei = pr.z[i] - linear(i);
+      const double ei = pr.z[i] - mu(static_cast<Index>(q));
       e.push_back(pr.w ? std::sqrt(wi) * ei : ei);
     }
   }
@@ -194,37 +220,51 @@ void fit_fold(const Problem& pr, const Transform& t, const std::vector<Block>& b
 
   const boost::math::students_t td(static_cast<double>(df));
   const double qt = boost::math::quantile(boost::math::complement(td, (1.0 - level) / 2.0));
-  Eigen::VectorXd x0(ci);
-  for (std::size_t i : members[j]) {
-    if (!pr.finite_row(i)) {
-      out.flags[i] = kPredMissing;
-      continue;
+  // x0' (R'R)^{-1} x0 = ||x0' R^{-1}||^2, for a block of held-out rows at once
+  const Eigen::MatrixXd r_inv =
+      ru.triangularView<Eigen::Upper>().solve(Eigen::MatrixXd::Identity(ci, ci));
+  Eigen::MatrixXd v;
+  const std::vector<std::size_t>& rows = members[j];
+  for (std::size_t at = 0; at < rows.size(); at += kTallBlockRows) {
+    const std::size_t m = std::min(kTallBlockRows, rows.size() - at);
+    x.resize(static_cast<Index>(m), ci);
+    if (pr.c0) x.col(0).setOnes();
+    for (std::size_t col = 0; col < pr.p; ++col) {
+      const double* src = pr.X + col * pr.n;
+      double* dst = x.col(static_cast<Index>(col + pr.c0)).data();
+      for (std::size_t q = 0; q < m; ++q) dst[q] = src[rows[at + q]];
     }
-    const double mu = linear(i);
-    if (!std::isfinite(mu)) {
-      out.flags[i] = kPredOverflow;
-      continue;
+    v.noalias() = x * r_inv.triangularView<Eigen::Upper>();
+    for (std::size_t q = 0; q < m; ++q) {
+      const std::size_t i = rows[at + q];
+      const Index qi = static_cast<Index>(q);
+      const double mu_i = held_mu(static_cast<Index>(at + q));
+      if (!pr.finite_row(i)) {
+        out.flags[i] = kPredMissing;
+        continue;
+      }
+      if (!std::isfinite(mu_i)) {
+        out.flags[i] = kPredOverflow;
+        continue;
+      }
+      const double half = qt * sigma * std::sqrt(v.row(qi).squaredNorm() + 1.0);
+      unsigned flags = 0;
+      const BackValue med = median_back(t, mu_i);
+      const BackValue mean = smear.mean(mu_i);
+      out.median[i] = med.value;
+      out.mean[i] = mean.value;
+      bool bounded = med.bounded;
+      if (std::isfinite(half)) {
+        const BackInterval iv = interval_back(t, mu_i - half, mu_i + half);
+        out.lower[i] = iv.lower;
+        out.upper[i] = iv.upper;
+        bounded = bounded || iv.bounded;
+      } else {
+        flags |= kPredOverflow;
+      }
+      if (bounded) flags |= kPredBounded;
+      out.flags[i] = flags;
     }
-    for (std::size_t col = 0; col < c; ++col) x0(static_cast<Index>(col)) = pr.x(i, col);
-    // x0' (R'R)^{-1} x0 = ||R^{-T} x0||^2
-    const double vf = ru.transpose().triangularView<Eigen::Lower>().solve(x0).squaredNorm();
-    const double half = qt * sigma * std::sqrt(vf + 1.0);
-    unsigned flags = 0;
-    const BackValue med = median_back(t, mu);
-    const BackValue mean = smear.mean(mu);
-    out.median[i] = med.value;
-    out.mean[i] = mean.value;
-    bool bounded = med.bounded;
-    if (std::isfinite(half)) {
-      const BackInterval iv = interval_back(t, mu - half, mu + half);
-      out.lower[i] = iv.lower;
-      out.upper[i] = iv.upper;
-      bounded = bounded || iv.bounded;
-    } else {
-      flags |= kPredOverflow;
-    }
-    if (bounded) flags |= kPredBounded;
-    out.flags[i] = flags;
   }
 }
 
@@ -255,7 +295,7 @@ FixedFoldResult crossval_fixed(const double* y, const double* X, std::size_t n, 
   if (opt.weights) check_fixed_weights(opt.weights, n);
 
   const Transform t = response ? *response : Transform();
-  Problem pr{X, n, p, c0, c, opt.weights, std::vector<double>(n), std::vector<char>(n, 1),
+  Problem pr{fold, X, n, p, c0, c, opt.weights, std::vector<double>(n), std::vector<char>(n, 1),
              Eigen::VectorXd(static_cast<Index>(c)), 1.0};
   t.apply(y, n, pr.z.data());  // NaN where T cannot be applied: such a row cannot train
   if (c0) pr.scale(0) = 0.5;   // 1 = 0.5 * 2^1
@@ -288,9 +328,7 @@ FixedFoldResult crossval_fixed(const double* y, const double* X, std::size_t n, 
   out.sigma.assign(kk, kNaN);
   out.coefficients.assign(kk * c, kNaN);
 
-  std::vector<Block> blocks;
-  blocks.reserve(kk);
-  for (std::size_t j = 0; j < kk; ++j) blocks.push_back(factor_block(pr, members[j]));
+  const std::vector<Block> blocks = factor_blocks(pr, fold, kk);
   for (std::size_t j = 0; j < kk; ++j) fit_fold(pr, t, blocks, members, j, opt.level, opt.tol, out);
   return out;
 }

@@ -229,11 +229,12 @@ compare_transforms <- function(formula, data, candidates = c("none", "ladder", "
           fold_rows[[length(fold_rows) + 1L]] <- cbind(tag, one$scores)
           lambda_rows[[length(lambda_rows) + 1L]] <- cbind(tag[rep(1L, nrow(one$lambdas)), ],
                                                            one$lambdas)
-          pred_rows[[length(pred_rows) + 1L]] <- cbind(tag[rep(1L, sum(test)), ],
-                                                       row = rows[test],
-                                                       row_name = labels[test],
-                                                       one$predictions,
-                                                       stringsAsFactors = FALSE)
+          m <- sum(test)
+          pred_rows[[length(pred_rows) + 1L]] <- c(list(candidate = rep(cand, m),
+                                                        repeat_no = rep(r, m),
+                                                        fold = rep(k, m), row = rows[test],
+                                                        row_name = labels[test]),
+                                                   as.list(one$predictions))
         } else {
           part <- if (identical(one$part, "test")) test else !test
           msg <- pwb_cmp_name_rows(one$error, labels[part])
@@ -254,7 +255,6 @@ compare_transforms <- function(formula, data, candidates = c("none", "ladder", "
   out$weights <- w_used
   out$fold_kind <- split$kind
   out$fold_notes <- split$notes
-  out$predictions <- if (length(pred_rows)) do.call(rbind, pred_rows)
-  if (!is.null(out$predictions)) rownames(out$predictions) <- NULL
+  out$predictions <- pwb_cmp_bind_columns(pred_rows)
   out
 }
