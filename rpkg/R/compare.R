@@ -229,11 +229,15 @@ compare_transforms <- function(formula, data, candidates = c("none", "ladder", "
           fold_rows[[length(fold_rows) + 1L]] <- cbind(tag, one$scores)
           lambda_rows[[length(lambda_rows) + 1L]] <- cbind(tag[rep(1L, nrow(one$lambdas)), ],
                                                            one$lambdas)
+          # candidate and row_name hold codes (into names(learners) and labels) until the
+          # end: strings are made once for all pieces
           m <- sum(test)
-          pred_rows[[length(pred_rows) + 1L]] <- c(list(candidate = rep(cand, m),
+          pred_rows[[length(pred_rows) + 1L]] <- c(list(candidate = rep(match(cand,
+                                                                              names(learners)),
+                                                                        m),
                                                         repeat_no = rep(r, m),
                                                         fold = rep(k, m), row = rows[test],
-                                                        row_name = labels[test]),
+                                                        row_name = which(test)),
                                                    as.list(one$predictions))
         } else {
           part <- if (identical(one$part, "test")) test else !test
@@ -256,5 +260,9 @@ compare_transforms <- function(formula, data, candidates = c("none", "ladder", "
   out$fold_kind <- split$kind
   out$fold_notes <- split$notes
   out$predictions <- pwb_cmp_bind_columns(pred_rows)
+  if (!is.null(out$predictions)) {
+    out$predictions$candidate <- names(learners)[out$predictions$candidate]
+    out$predictions$row_name <- labels[out$predictions$row_name]
+  }
   out
 }
