@@ -102,12 +102,14 @@ TEST_CASE("pwb_cv_fixed_predict equals a model fitted on each training part", "[
   // outputs not wanted may be NULL
   pwb_cv_fixed_result some = {sizeof(pwb_cv_fixed_result), med.data(), nullptr, nullptr, nullptr,
                               nullptr, status.data(), nullptr, nullptr, nullptr};
-  CHECK(pwb_cv_fixed_predict(y.data(), X.data(), n, p, t, fold.data(), 4, nullptr, &some) == PWB_OK);
+  CHECK(pwb_cv_fixed_predict(y.data(), X.data(), n, p, t, fold.data(), 4, nullptr, &some) ==
+        PWB_OK);
 
   // a training row the transform cannot take: every fold but its own is reported, not fitted
   std::vector<double> y2 = y;
   y2[7] = -2.0;
-  REQUIRE(pwb_cv_fixed_predict(y2.data(), X.data(), n, p, t, fold.data(), 4, nullptr, &res) == PWB_OK);
+  REQUIRE(pwb_cv_fixed_predict(y2.data(), X.data(), n, p, t, fold.data(), 4, nullptr, &res) ==
+          PWB_OK);
   for (int j = 1; j <= 4; ++j)
     CHECK(status[j - 1] == (j == fold[7] ? PWB_CV_FOLD_OK : PWB_CV_FOLD_INVALID_TRAINING));
 

@@ -58,7 +58,8 @@ void check_against_models(const Data& d, const Transform& t, const std::vector<i
   FixedFoldOptions opt;
   opt.level = level;
   if (weighted) opt.weights = d.w.data();
-  const FixedFoldResult r = crossval_fixed(d.y.data(), d.X.data(), d.n, d.p, &t, fold.data(), k, opt);
+  const FixedFoldResult r =
+      crossval_fixed(d.y.data(), d.X.data(), d.n, d.p, &t, fold.data(), k, opt);
   REQUIRE(r.columns == d.p + 1);
   for (int j = 1; j <= k; ++j) {
     std::vector<double> ytr, Xtr, wtr, Xte;
@@ -132,7 +133,8 @@ TEST_CASE("fold fits of a fixed transform equal a fit on each training part", "[
     const Transform t = pwbtest::make(Family::Log);
     const FixedFoldResult r = crossval_fixed(z.y.data(), z.X.data(), z.n, z.p, &t, fold.data(), 5);
     for (int j = 1; j <= 5; ++j)
-      CHECK(r.status[j - 1] == static_cast<int>(j == fold[9] ? FoldFit::Ok : FoldFit::InvalidTraining));
+      CHECK(r.status[j - 1] ==
+            static_cast<int>(j == fold[9] ? FoldFit::Ok : FoldFit::InvalidTraining));
     CHECK(std::isfinite(r.median[9]));  // its own prediction needs no y
   }
 }
@@ -143,7 +145,8 @@ TEST_CASE("a training part missing a column's support is rank-deficient", "[cros
   for (std::size_t i = 0; i < d.n; ++i) fold[i] = static_cast<int>(i % 4) + 1;
   // the 0/1 column is 1 only in fold 2's rows: without them it is zero (aliased, as lm says)
   for (std::size_t i = 0; i < d.n; ++i) d.X[2 * d.n + i] = (fold[i] == 2 && i % 8 == 1) ? 1.0 : 0.0;
-  const FixedFoldResult r = crossval_fixed(d.y.data(), d.X.data(), d.n, d.p, nullptr, fold.data(), 4);
+  const FixedFoldResult r =
+      crossval_fixed(d.y.data(), d.X.data(), d.n, d.p, nullptr, fold.data(), 4);
   CHECK(r.status[1] == static_cast<int>(FoldFit::RankDeficient));
   CHECK(r.rank[1] == 3);
   for (int j : {0, 2, 3}) CHECK(r.status[j] == static_cast<int>(FoldFit::Ok));
@@ -157,18 +160,21 @@ TEST_CASE("a training part missing a column's support is rank-deficient", "[cros
   CHECK(m.aliased()[3]);
 }
 
-TEST_CASE("no residual degrees of freedom and zero weights are reported per fold", "[crossval][fixed]") {
+TEST_CASE("no residual degrees of freedom and zero weights are reported per fold",
+          "[crossval][fixed]") {
   Data d = make_data(8, 2);
   const std::vector<int> fold = {1, 2, 1, 2, 1, 2, 1, 2};
   // 4 training rows for 4 columns: no residual df, as Model's Singular error
-  const FixedFoldResult r = crossval_fixed(d.y.data(), d.X.data(), d.n, d.p, nullptr, fold.data(), 2);
+  const FixedFoldResult r =
+      crossval_fixed(d.y.data(), d.X.data(), d.n, d.p, nullptr, fold.data(), 2);
   CHECK(r.status[0] == static_cast<int>(FoldFit::NoResidualDf));
   CHECK(r.status[1] == static_cast<int>(FoldFit::NoResidualDf));
   FixedFoldOptions opt;
   std::vector<double> w(8, 1.0);
   for (std::size_t i = 0; i < 8; i += 2) w[i] = 0.0;  // fold 1 weighs nothing
   opt.weights = w.data();
-  const FixedFoldResult z = crossval_fixed(d.y.data(), d.X.data(), d.n, 1, nullptr, fold.data(), 2, opt);
+  const FixedFoldResult z =
+      crossval_fixed(d.y.data(), d.X.data(), d.n, 1, nullptr, fold.data(), 2, opt);
   CHECK(z.status[1] == static_cast<int>(FoldFit::InvalidTraining));  // trains on fold 1 alone
   CHECK(z.status[0] == static_cast<int>(FoldFit::Ok));
 }

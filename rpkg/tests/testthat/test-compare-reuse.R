@@ -39,7 +39,8 @@ test_that("weights, zero weights among them, travel into the reused folds", {
   d <- mtcars
   d$w <- seq(0.5, 2, length.out = nrow(d))
   d$w[c(3, 11)] <- 0
-  b <- cmp_both(mpg ~ wt + qsec, d, candidates = list("none", logy = list(mpg = new_transform("log"))),
+  b <- cmp_both(mpg ~ wt + qsec, d,
+                candidates = list("none", logy = list(mpg = new_transform("log"))),
                 folds = 5, seed = 2, weights = w)
   expect_same_comparison(b)
   expect_equal(b$served, 10L)
@@ -97,4 +98,17 @@ test_that("terms that depend on other rows keep the per-fold fits", {
   expect_equal(b$served, 0L)
   expect_false(powerback:::pwb_cmp_rowwise_formula(y ~ scale(x)))
   expect_true(powerback:::pwb_cmp_rowwise_formula(y ~ log(x) + I(z^2) + factor(g)))
+})
+
+test_that("na.exclude drops the same rows and keeps the alignment", {
+  old <- options(na.action = "na.exclude")
+  on.exit(options(old))
+  aq <- airquality  # datasets
+  b <- cmp_both(Ozone ~ Temp + Wind, aq, candidates = list("none"), folds = 3, seed = 6)
+  expect_same_comparison(b)
+  expect_equal(b$served, 3L)
+  expect_identical(b$fast$rows, which(!is.na(aq$Ozone)))
+  p <- b$fast$predictions
+  expect_equal(p$y, aq$Ozone[p$row])
+  expect_identical(p$row_name, rownames(aq)[p$row])
 })
