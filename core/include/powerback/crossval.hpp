@@ -1,5 +1,6 @@
 // powerback/crossval.hpp — the pieces of a fair comparison of transforms: reproducible folds,
-// and held-out scores in original units.
+// held-out scores in original units, and the fits of every fold for fixed transforms from one
+// factor per fold (crossval_fixed, at the end).
 //
 // Folds: repeated k-fold. Each repeat shuffles the rows (Fisher-Yates driven by a 64-bit
 // Mersenne twister seeded from `seed` and the repeat number; the twister's output is fixed by
