@@ -1203,6 +1203,69 @@ PWB_API void pwb_cv_fold_options_init(pwb_cv_fold_options *opt);
  * Thread-safe: reads only its arguments. */
 PWB_API pwb_status pwb_cv_folds_by(size_t n, const pwb_cv_fold_options *opt, int *fold);
 
+/* What became of one fold in pwb_cv_fixed_predict. */
+typedef enum pwb_cv_fold_status {
+  PWB_CV_FOLD_OK = 0,               /* fitted; its held-out rows are predicted */
+  PWB_CV_FOLD_RANK_DEFICIENT = 1,   /* lm's rule drops a column of the training design */
+  PWB_CV_FOLD_NO_RESIDUAL_DF = 2,   /* training rows of positive weight <= design columns */
+  PWB_CV_FOLD_INVALID_TRAINING = 3  /* a training row has a non-finite predictor or a y the
+                                       response transform cannot take, or no training row has a
+                                       positive weight */
+} pwb_cv_fold_status;
+
+/* Options of pwb_cv_fixed_predict. Initialise with pwb_cv_fixed_options_init (intercept 1,
+ * level 0.95, no weights), then change fields; fields appended later are absent (default) for
+ * a smaller struct_size. */
+typedef struct pwb_cv_fixed_options {
+  size_t struct_size;     /* sizeof(pwb_cv_fixed_options) */
+  int intercept;          /* add an intercept column (default 1) */
+  double level;           /* level of the prediction intervals, in (0, 1) (default 0.95) */
+  const double *weights;  /* NULL (default), or n precision weights >= 0, caller-owned, read
+                             during the call only (as pwb_model_options.weights) */
+} pwb_cv_fixed_options;
+
+/* Sets every field of *opt to its default (no-op for NULL). Thread-safe. */
+PWB_API void pwb_cv_fixed_options_init(pwb_cv_fixed_options *opt);
+
+/* Where pwb_cv_fixed_predict writes. Every pointer is caller-owned and may be NULL (that output
+ * is not written); the per-row arrays hold n values, the per-fold arrays `folds` values (fold j
+ * at j - 1), coefficients folds * columns values (fold-major; columns = p + intercept). */
+typedef struct pwb_cv_fixed_result {
+  size_t struct_size;  /* sizeof(pwb_cv_fixed_result) */
+  double *median;      /* per row: back-transformed median from the fit without the row's fold */
+  double *mean;        /* per row: smearing mean from that fit */
+  double *lower;       /* per row: prediction interval of a new row of weight 1, original units */
+  double *upper;
+  unsigned *flags;     /* per row: PWB_PRED_* bits of the median and its interval */
+  int *fold_status;    /* per fold: a pwb_cv_fold_status */
+  double *sigma;       /* per fold: sigma-hat of the training fit (NaN when not fitted) */
+  size_t *df_residual; /* per fold: residual degrees of freedom (0 when not fitted) */
+  double *coefficients; /* per fold: the training fit's coefficients (NaN when not fitted) */
+} pwb_cv_fixed_result;
+
+/* Cross-validated predictions of a linear model whose transforms are fixed (they learn nothing
+ * from the rows): z = T(y) regressed on [1 X] in the training part of each fold of one k-fold
+ * split, predicting the fold's rows, as pwb_model_fit on the training rows followed by
+ * pwb_model_predict of the held-out rows would (median with its prediction interval at
+ * opt->level, and the smearing mean), equal to rounding. Each fold's rows are factored once
+ * (the Q-less R of their rows of [X z]) and each training fit is the QR of the other folds'
+ * stacked R's, so the cost grows linearly in n and in the number of folds.
+ * y: n raw responses; X: n-by-p predictors, column-major, no intercept column (a non-finite
+ * entry marks a row whose predictor transform failed: predicted NaN with PWB_PRED_MISSING
+ * when held out, and its fold's training parts are not fitted); response: T, or NULL for none
+ * (read during the call only); fold: n ids in 1..folds, every fold non-empty; opt may be NULL.
+ * A fold that cannot be fitted as pwb_model_fit would fit it unchanged (see
+ * pwb_cv_fold_status) leaves its rows NaN: refit it with pwb_model_fit to get the error, or
+ * the aliasing, in full. Errors: PWB_ERR_ARGUMENT for NULL y, fold or out, a NULL X with p > 0,
+ * n == 0, folds < 2, a fold id outside 1..folds (row named, 0-based), an empty fold, a level
+ * outside (0, 1), a struct_size too small; PWB_ERR_DOMAIN for negative or non-finite weights
+ * (count and first 0-based rows); PWB_ERR_CANCELLED when the thread's cancellation check says
+ * stop. On failure the outputs are unspecified. Thread-safe: reads only its arguments. */
+PWB_API pwb_status pwb_cv_fixed_predict(const double *y, const double *X, size_t n, size_t p,
+                                        const pwb_transform *response, const int *fold,
+                                        int folds, const pwb_cv_fixed_options *opt,
+                                        pwb_cv_fixed_result *out);
+
 /* End of section: comparing transforms (add new declarations above). */
 
 

@@ -2,9 +2,13 @@
 #include <algorithm>
 #include <cstddef>
 #include <cstdint>
+#include <memory>
 
 #include "capi_internal.hpp"
+#include "capi_sizes.hpp"
+#include "capi_transform_handle.hpp"
 #include "powerback/crossval.hpp"
+#include "powerback/transform.hpp"
 
 using namespace powerback;
 
@@ -92,6 +96,50 @@ pwb_status pwb_holdout_score_opts(const double* y, const double* fit, const doub
     w = opt->weights;
   }
   return holdout_score_impl(y, fit, lwr, upr, n, w, out);
+}
+
+void pwb_cv_fixed_options_init(pwb_cv_fixed_options* opt) {
+  if (!opt) return;
+  opt->struct_size = sizeof(pwb_cv_fixed_options);
+  opt->intercept = 1;
+  opt->level = 0.95;
+  opt->weights = nullptr;
+}
+
+pwb_status pwb_cv_fixed_predict(const double* y, const double* X, size_t n, size_t p,
+                                const pwb_transform* response, const int* fold, int folds,
+                                const pwb_cv_fixed_options* opt, pwb_cv_fixed_result* out) {
+  return capi::guarded([&] {
+    capi::need(y, "y");
+    capi::need(fold, "fold");
+    capi::need_sized(out, "out", "pwb_cv_fixed_result");
+    capi::need_array(X, capi::checked_matrix_size(n, p, "X"), "X");
+    pwb_cv_fixed_options o;
+    pwb_cv_fixed_options_init(&o);
+    if (opt) {
+      capi::need_sized(opt, "opt", "pwb_cv_fixed_options");
+      o = *opt;
+    }
+    std::unique_ptr<Transform> tr;
+    if (response) tr.reset(new Transform(capi::transform_of(response, "response")));
+    FixedFoldOptions fo;
+    fo.intercept = o.intercept != 0;
+    fo.level = o.level;
+    fo.weights = o.weights;
+    const FixedFoldResult r = crossval_fixed(y, X, n, p, tr.get(), fold, folds, fo);
+    auto put = [](const std::vector<double>& v, double* dst) {
+      if (dst) std::copy(v.begin(), v.end(), dst);
+    };
+    put(r.median, out->median);
+    put(r.mean, out->mean);
+    put(r.lower, out->lower);
+    put(r.upper, out->upper);
+    put(r.sigma, out->sigma);
+    put(r.coefficients, out->coefficients);
+    if (out->flags) std::copy(r.flags.begin(), r.flags.end(), out->flags);
+    if (out->fold_status) std::copy(r.status.begin(), r.status.end(), out->fold_status);
+    if (out->df_residual) std::copy(r.df_residual.begin(), r.df_residual.end(), out->df_residual);
+  });
 }
 
 }  // extern "C"

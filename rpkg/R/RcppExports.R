@@ -53,6 +53,10 @@ rpwb_holdout_score <- function(y, fit, lwr, upr, w = NULL) {
     .Call(`_powerback_rpwb_holdout_score`, y, fit, lwr, upr, w)
 }
 
+rpwb_cv_fixed_predict <- function(y, X, intercept, response, fold, folds, level, weights = NULL) {
+    .Call(`_powerback_rpwb_cv_fixed_predict`, y, X, intercept, response, fold, folds, level, weights)
+}
+
 rpwb_model_checks <- function(handle) {
     .Call(`_powerback_rpwb_model_checks`, handle)
 }

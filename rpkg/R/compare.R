@@ -79,6 +79,16 @@
 #' is reported in `failures` for every candidate and not scored, because predictions from such a
 #' fit depend on which column was dropped.
 #'
+#' Work shared between folds: a candidate whose transforms are fixed (`"none"` and a named list
+#' of `pwb_transform`) learns nothing from the rows, so its design and transformed response are
+#' formed once for all rows, each fold's rows are factored once, and each training fit is
+#' assembled from the other folds' factors: the same fit as [lm_transformed()] on the training
+#' part, to rounding, at a cost that grows linearly in the rows. A fold where that fit could
+#' differ (a factor level missing from the training part, an aliased column, a training value
+#' outside a transform's domain) is fitted by [lm_transformed()] as before, and so is every fold
+#' when the formula has terms computed from other rows (e.g. `poly()`, `scale()`) or the data
+#' keep missing values.
+#'
 #' Cautions: a transform changes what the model estimates; back-transformed means need a
 #' correction (compare the `_median` and `_mean` scores); and the ranking informs, but does not
 #' replace, domain standards and professional judgement.
@@ -188,29 +198,47 @@ compare_transforms <- function(formula, data, candidates = c("none", "ladder", "
   bar <- if (isTRUE(progress)) utils::txtProgressBar(min = 0, max = steps, style = 3)
   step <- 0L
   fold_rows <- lambda_rows <- fail_rows <- pred_rows <- list()
+  # fixed candidates: one design for all rows, every fold fitted from one factor per fold
+  fixed <- pwb_cmp_fixed_setup(learners, formula, dat, yname, level)
   for (r in seq_len(repeats)) {
+    runs <- if (is.null(fixed)) list()
+            else lapply(fixed$cands, pwb_cmp_fixed_run, fold = fold_ids[, r], k = folds,
+                        level = level, w = w_used)
     for (k in seq_len(folds)) {
       test <- fold_ids[, r] == k
-      train <- dat[!test, , drop = FALSE]
-      # positions in the training part: messages naming them are mapped to the user's rows
-      rownames(train) <- NULL
-      held_out <- dat[test, , drop = FALSE]
-      rownames(held_out) <- NULL
+      train <- held_out <- NULL
       w_train <- if (is.null(w_used)) NULL else w_used[!test]
       w_test <- if (is.null(w_used)) NULL else w_used[test]
       for (cand in names(learners)) {
-        one <- pwb_cmp_one_fold(learners[[cand]], formula, train, held_out, yname, family,
-                                level, w_train, w_test)
+        one <- if (is.null(runs[[cand]])) NULL
+               else pwb_cmp_fixed_fold(fixed$cands[[cand]], runs[[cand]], fixed$factors, test,
+                                       k, as.double(dat[[yname]][test]), w_test)
+        if (is.null(one)) {
+          if (is.null(train)) {
+            train <- dat[!test, , drop = FALSE]
+            # positions in the training part: messages naming them are mapped to the user's rows
+            rownames(train) <- NULL
+            held_out <- dat[test, , drop = FALSE]
+            rownames(held_out) <- NULL
+          }
+          one <- pwb_cmp_one_fold(learners[[cand]], formula, train, held_out, yname, family,
+                                  level, w_train, w_test)
+        }
         tag <- data.frame(candidate = cand, repeat_no = r, fold = k, stringsAsFactors = FALSE)
         if (is.null(one$error)) {
           fold_rows[[length(fold_rows) + 1L]] <- cbind(tag, one$scores)
           lambda_rows[[length(lambda_rows) + 1L]] <- cbind(tag[rep(1L, nrow(one$lambdas)), ],
                                                            one$lambdas)
-          pred_rows[[length(pred_rows) + 1L]] <- cbind(tag[rep(1L, sum(test)), ],
-                                                       row = rows[test],
-                                                       row_name = labels[test],
-                                                       one$predictions,
-                                                       stringsAsFactors = FALSE)
+          # candidate and row_name hold codes (into names(learners) and labels) until the
+          # end: strings are made once for all pieces
+          m <- sum(test)
+          pred_rows[[length(pred_rows) + 1L]] <- c(list(candidate = rep(match(cand,
+                                                                              names(learners)),
+                                                                        m),
+                                                        repeat_no = rep(r, m),
+                                                        fold = rep(k, m), row = rows[test],
+                                                        row_name = which(test)),
+                                                   as.list(one$predictions))
         } else {
           part <- if (identical(one$part, "test")) test else !test
           msg <- pwb_cmp_name_rows(one$error, labels[part])
@@ -231,7 +259,10 @@ compare_transforms <- function(formula, data, candidates = c("none", "ladder", "
   out$weights <- w_used
   out$fold_kind <- split$kind
   out$fold_notes <- split$notes
-  out$predictions <- if (length(pred_rows)) do.call(rbind, pred_rows)
-  if (!is.null(out$predictions)) rownames(out$predictions) <- NULL
+  out$predictions <- pwb_cmp_bind_columns(pred_rows)
+  if (!is.null(out$predictions)) {
+    out$predictions$candidate <- names(learners)[out$predictions$candidate]
+    out$predictions$row_name <- labels[out$predictions$row_name]
+  }
   out
 }

@@ -34,8 +34,9 @@ pwb_cmp_learner <- function(c1, name) {
   if (inherits(c1, "family")) return(pwb_cmp_glm_learner(c1, name))
   if (is.character(c1) && length(c1) == 1L) {
     if (c1 == "none")
-      return(function(train, formula, yname, family, level, w = NULL)
-        pwb_cmp_lmt(w, formula, train, response = "none", level = level))
+      return(pwb_cmp_fixed_learner(list(), function(train, formula, yname, family, level,
+                                                    w = NULL)
+        pwb_cmp_lmt(w, formula, train, response = "none", level = level)))
     if (c1 == "ml")
       return(function(train, formula, yname, family, level, w = NULL)
         pwb_cmp_lmt(w, formula, train, response = "estimate", predictors = "ml",
@@ -56,8 +57,8 @@ pwb_cmp_learner <- function(c1, name) {
       pwb_cmp_fit_fixed(c1(train), name, formula, train, yname, level, w))
   if (is.list(c1)) {
     pwb_cmp_check_fixed(c1, name)
-    return(function(train, formula, yname, family, level, w = NULL)
-      pwb_cmp_fit_fixed(c1, name, formula, train, yname, level, w))
+    return(pwb_cmp_fixed_learner(c1, function(train, formula, yname, family, level, w = NULL)
+      pwb_cmp_fit_fixed(c1, name, formula, train, yname, level, w)))
   }
   stop(sprintf(paste0("candidate `%s` must be \"none\", \"ladder\", \"ml\", a named list of ",
                       "pwb_transform, a function returning one, or a family object such as ",
@@ -108,7 +109,12 @@ pwb_cmp_one_fold <- function(learner, formula, train, test, yname, family, level
                                 paste(names(aliased)[aliased], collapse = ", "))))
   pm <- tryCatch(pwb_cmp_predict(model, test, level), error = function(e) conditionMessage(e))
   if (is.character(pm)) return(list(error = pm, part = "test"))
-  y <- as.double(test[[yname]])
+  pwb_cmp_scored(pm, as.double(test[[yname]]), w_test, pwb_cmp_lambdas(model, yname))
+}
+
+# The held-out scores of one fold from its predictions pm (fit_median, fit_mean, lwr, upr) of
+# the responses y (weights w_test or NULL): list(scores, lambdas, predictions).
+pwb_cmp_scored <- function(pm, y, w_test, lambdas) {
   w <- if (is.null(w_test)) NULL else as.double(w_test)
   has_iv <- !is.null(pm$lwr)
   s_med <- rpwb_holdout_score(y, as.double(pm$fit_median),
@@ -133,7 +139,7 @@ pwb_cmp_one_fold <- function(learner, formula, train, test, yname, family, level
   preds <- data.frame(y = y, fit_median = pm$fit_median, fit_mean = pm$fit_mean,
                       lwr = if (has_iv) pm$lwr else na, upr = if (has_iv) pm$upr else na,
                       row.names = NULL)
-  list(scores = scores, lambdas = pwb_cmp_lambdas(model, yname), predictions = preds)
+  list(scores = scores, lambdas = lambdas, predictions = preds)
 }
 
 # Named logical: which coefficients a fit could not estimate.

@@ -193,6 +193,24 @@ BEGIN_RCPP
     return rcpp_result_gen;
 END_RCPP
 }
+// rpwb_cv_fixed_predict
+Rcpp::List rpwb_cv_fixed_predict(Rcpp::NumericVector y, Rcpp::NumericMatrix X, bool intercept, Rcpp::Nullable<Rcpp::List> response, Rcpp::IntegerVector fold, int folds, double level, Rcpp::Nullable<Rcpp::NumericVector> weights);
+RcppExport SEXP _powerback_rpwb_cv_fixed_predict(SEXP ySEXP, SEXP XSEXP, SEXP interceptSEXP, SEXP responseSEXP, SEXP foldSEXP, SEXP foldsSEXP, SEXP levelSEXP, SEXP weightsSEXP) {
+BEGIN_RCPP
+    Rcpp::RObject rcpp_result_gen;
+    Rcpp::RNGScope rcpp_rngScope_gen;
+    Rcpp::traits::input_parameter< Rcpp::NumericVector >::type y(ySEXP);
+    Rcpp::traits::input_parameter< Rcpp::NumericMatrix >::type X(XSEXP);
+    Rcpp::traits::input_parameter< bool >::type intercept(interceptSEXP);
+    Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::List> >::type response(responseSEXP);
+    Rcpp::traits::input_parameter< Rcpp::IntegerVector >::type fold(foldSEXP);
+    Rcpp::traits::input_parameter< int >::type folds(foldsSEXP);
+    Rcpp::traits::input_parameter< double >::type level(levelSEXP);
+    Rcpp::traits::input_parameter< Rcpp::Nullable<Rcpp::NumericVector> >::type weights(weightsSEXP);
+    rcpp_result_gen = Rcpp::wrap(rpwb_cv_fixed_predict(y, X, intercept, response, fold, folds, level, weights));
+    return rcpp_result_gen;
+END_RCPP
+}
 // rpwb_model_checks
 Rcpp::List rpwb_model_checks(SEXP handle);
 RcppExport SEXP _powerback_rpwb_model_checks(SEXP handleSEXP) {
@@ -512,6 +530,7 @@ static const R_CallMethodDef CallEntries[] = {
     {"_powerback_rpwb_box_tidwell", (DL_FUNC) &_powerback_rpwb_box_tidwell, 7},
     {"_powerback_rpwb_cv_folds_by", (DL_FUNC) &_powerback_rpwb_cv_folds_by, 6},
     {"_powerback_rpwb_holdout_score", (DL_FUNC) &_powerback_rpwb_holdout_score, 5},
+    {"_powerback_rpwb_cv_fixed_predict", (DL_FUNC) &_powerback_rpwb_cv_fixed_predict, 8},
     {"_powerback_rpwb_model_checks", (DL_FUNC) &_powerback_rpwb_model_checks, 1},
     {"_powerback_rpwb_model_effects", (DL_FUNC) &_powerback_rpwb_model_effects, 7},
     {"_powerback_rpwb_lambda_influence", (DL_FUNC) &_powerback_rpwb_lambda_influence, 7},

@@ -1,7 +1,8 @@
-// Rcpp glue for comparing transforms: folds, held-out scores.
+// Rcpp glue for comparing transforms: folds, held-out scores, fold fits of fixed transforms.
 // Thin wrappers over powerback.h; the R callers validate and phrase rows.
 #include "glue_common.h"
 
+#include <memory>
 #include <vector>
 
 // Fold ids as an n-by-repeats integer matrix, stratified (strata: n codes >= 0) or grouped
@@ -72,4 +73,55 @@ Rcpp::NumericVector rpwb_holdout_score(Rcpp::NumericVector y, Rcpp::NumericVecto
       Rcpp::Named("n_interval") = static_cast<double>(s.n_interval),
       Rcpp::Named("width_median") = rpwb::nan_to_na(s.median_width),
       Rcpp::Named("unbounded") = rpwb::nan_to_na(s.share_unbounded));
+}
+
+// Held-out predictions of a model with fixed transforms in every fold of one split
+// (pwb_cv_fixed_predict): per row median, mean, lwr, upr, flags; per fold status, sigma, df.
+// [[Rcpp::export]]
+Rcpp::List rpwb_cv_fixed_predict(Rcpp::NumericVector y, Rcpp::NumericMatrix X, bool intercept,
+                                 Rcpp::Nullable<Rcpp::List> response, Rcpp::IntegerVector fold,
+                                 int folds, double level,
+                                 Rcpp::Nullable<Rcpp::NumericVector> weights = R_NilValue) {
+  const R_xlen_t n = y.size();
+  if (X.nrow() != n || fold.size() != n) Rcpp::stop("y, X and fold differ in rows");
+  if (folds < 2) Rcpp::stop("folds must be >= 2");
+  std::unique_ptr<rpwb::Transform> tr;
+  if (response.isNotNull()) tr.reset(new rpwb::Transform(Rcpp::List(response.get())));
+  Rcpp::NumericVector wkeep;
+  pwb_cv_fixed_options opt;
+  pwb_cv_fixed_options_init(&opt);
+  opt.intercept = intercept ? 1 : 0;
+  opt.level = level;
+  opt.weights = rpwb::weights_or_null(weights, n, &wkeep);
+  const std::size_t k = static_cast<std::size_t>(folds);
+  std::vector<double> med(n), mean(n), lo(n), hi(n), sigma(k);
+  std::vector<unsigned> flags(n);
+  std::vector<int> status(k);
+  std::vector<std::size_t> df(k);
+  pwb_cv_fixed_result out;
+  out.struct_size = sizeof out;
+  out.median = med.data();
+  out.mean = mean.data();
+  out.lower = lo.data();
+  out.upper = hi.data();
+  out.flags = flags.data();
+  out.fold_status = status.data();
+  out.sigma = sigma.data();
+  out.df_residual = df.data();
+  out.coefficients = nullptr;
+  rpwb::check(pwb_cv_fixed_predict(y.begin(), X.begin(), static_cast<std::size_t>(n),
+                                   static_cast<std::size_t>(X.ncol()), tr ? tr->get() : nullptr,
+                                   fold.begin(), folds, &opt, &out));
+  auto na = [](const std::vector<double>& v) {
+    Rcpp::NumericVector r(v.size());
+    for (std::size_t i = 0; i < v.size(); ++i) r[i] = rpwb::nan_to_na(v[i]);
+    return r;
+  };
+  return Rcpp::List::create(
+      Rcpp::Named("median") = na(med), Rcpp::Named("mean") = na(mean),
+      Rcpp::Named("lwr") = na(lo), Rcpp::Named("upr") = na(hi),
+      Rcpp::Named("flags") = Rcpp::IntegerVector(flags.begin(), flags.end()),
+      Rcpp::Named("status") = Rcpp::IntegerVector(status.begin(), status.end()),
+      Rcpp::Named("sigma") = na(sigma),
+      Rcpp::Named("df_residual") = Rcpp::NumericVector(df.begin(), df.end()));
 }

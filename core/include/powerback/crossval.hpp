@@ -1,5 +1,6 @@
 // powerback/crossval.hpp — the pieces of a fair comparison of transforms: reproducible folds,
-// and held-out scores in original units.
+// held-out scores in original units, and the fits of every fold for fixed transforms from one
+// factor per fold (crossval_fixed, at the end).
 //
 // Folds: repeated k-fold. Each repeat shuffles the rows (Fisher-Yates driven by a 64-bit
 // Mersenne twister seeded from `seed` and the repeat number; the twister's output is fixed by
@@ -38,6 +39,9 @@
 #include <cstdint>
 #include <vector>
 
+#include "powerback/least_squares.hpp"
+#include "powerback/transform.hpp"
+
 namespace powerback {
 
 // fold[r * n + i] in 1..k: the fold of row i in repeat r (r < repeats). Throws Error(Argument)
@@ -66,5 +70,60 @@ struct HoldoutScores {
 // non-finite y or weight and IndexedError(Domain) for a negative weight (rows named).
 HoldoutScores holdout_scores(const double* y, const double* fit, const double* lwr,
                              const double* upr, std::size_t n, const double* w = nullptr);
+
+// Fits in every training part of one k-fold split for a model whose transforms are fixed (they
+// learn nothing from the rows, so transforming every row once leaks nothing between folds).
+//
+// z = T(y) regressed on [1 X] as Model does (lm's rank rule; precision weights as in model.hpp).
+// Instead of one factorisation of each training part, each fold's block of rows is factored
+// once: the Q-less R_b of its rows of [X | z] (sqrt(w)-weighted rows of positive weight; blocked
+// Householder QR with exact power-of-two column scales, as LeastSquares::factor_with_response
+// does). The training part of fold j is the union of the other blocks, and the QR of the
+// stacked R_b (b != j: k - 1 triangles of (columns + 1) rows) has R'R = [X z]'[X z] over the
+// training rows, so it is a QR of the training rows: same coefficients, RSS and rank decision as
+// a fit on those rows, up to rounding. Sigma, the smearing residuals (e, or sqrt(w) e over rows
+// of positive weight) and the held-out predictions (back-transformed median, smearing mean and
+// the prediction interval of a new row of weight 1 at `level`) then follow as in Model::predict.
+// Cost: one pass over the rows per fold for residuals and predictions, O(k n columns) in all.
+//
+// A fold is fitted (FoldFit::Ok) only when a fit on its training part would succeed unchanged;
+// otherwise its held-out outputs stay NaN and its status says why, so a caller can refit that
+// fold the slow way and report the failure in its own words:
+//   InvalidTraining: a training row has a non-finite predictor, or T cannot be applied to its
+//     y, or no training row has a positive weight;
+//   RankDeficient: lm's rule drops a column of the training design;
+//   NoResidualDf: the training rows of positive weight are no more than the columns.
+enum class FoldFit : int { Ok = 0, RankDeficient = 1, NoResidualDf = 2, InvalidTraining = 3 };
+
+struct FixedFoldOptions {
+  bool intercept = true;            // add an intercept column
+  double level = 0.95;              // of the prediction intervals
+  const double* weights = nullptr;  // n precision weights >= 0, or null for none
+  double tol = kRankTolerance;      // lm's rank tolerance
+};
+
+struct FixedFoldResult {
+  std::size_t columns = 0;  // design columns, intercept included
+  // n values each: the prediction of every row from the fit without its fold (NaN where the
+  // fold was not fitted or the row has a non-finite predictor).
+  std::vector<double> median, mean, lower, upper;
+  // n: kPredMissing (non-finite predictor), kPredOverflow (x'b or the interval overflowed),
+  // kPredBounded (the median or an interval end met the back-transform's range limit).
+  std::vector<unsigned> flags;
+  // k values each (fold j at j - 1): FoldFit, rank, residual df, sigma-hat; k * columns
+  // coefficients (fold-major, NaN for a fold not fitted).
+  std::vector<int> status;
+  std::vector<std::size_t> rank, df_residual;
+  std::vector<double> sigma, coefficients;
+};
+
+// y: n raw responses; X: n-by-p predictors, column-major, no intercept column (NaN marks a row
+// whose predictor transform failed); response: T (null for the identity); fold: n ids in 1..k.
+// Throws Error(Argument) for n == 0, k < 2, a NULL array, a fold id outside 1..k or an empty
+// fold, a level outside (0, 1); IndexedError(Domain) naming rows of negative or non-finite
+// weights; Error(Cancelled) when the thread's cancellation check says stop.
+FixedFoldResult crossval_fixed(const double* y, const double* X, std::size_t n, std::size_t p,
+                               const Transform* response, const int* fold, int k,
+                               const FixedFoldOptions& opt = {});
 
 }  // namespace powerback
