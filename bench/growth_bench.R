@@ -14,15 +14,8 @@ args <- commandArgs(trailingOnly = TRUE)
 ns <- if (length(args)) as.numeric(args) else c(1e4, 1e5, 1e6)
 skip <- strsplit(Sys.getenv("PWB_GROWTH_SKIP"), ",", fixed = TRUE)[[1L]]
 
-sim <- function(n, p = 10, seed = 1) {
-  set.seed(seed)
-  X <- matrix(stats::rlnorm(n * p, 0, 0.6), n, p, dimnames = list(NULL, paste0("x", 1:p)))
-  d <- as.data.frame(X)
-  d$f <- factor(sample(letters[1:5], n, TRUE))
-  d$y <- exp(0.5 + drop(log(X) %*% rep(0.1, p)) + 0.1 * as.integer(d$f) +
-               stats::rnorm(n, sd = 0.4))
-  d
-}
+here <- dirname(sub("^--file=", "", grep("^--file=", commandArgs(FALSE), value = TRUE)[1L]))
+source(file.path(here, "compare_data.R"))
 cpu <- function(f) {
   gc()
   t0 <- proc.time()

@@ -114,22 +114,6 @@ std::vector<Block> factor_blocks(const Problem& pr, const int* fold, std::size_t
   return blocks;
 }
 
-void check_fixed_weights(const double* w, std::size_t n) {
-  std::vector<std::size_t> bad;
-  std::size_t count = 0;
-  for (std::size_t i = 0; i < n; ++i) {
-    if (std::isfinite(w[i]) && w[i] >= 0.0) continue;
-    if (bad.size() < kMaxReportedIndices) bad.push_back(i);
-    ++count;
-  }
-  if (count)
-    throw IndexedError(ErrorCode::Domain,
-                       "weights must be finite and >= 0; " + std::to_string(count) +
-                           " weights are negative or not finite, at rows " +
-                           format_indices(bad, count) + " (0-based): fix or drop those rows",
-                       count, bad);
-}
-
 // The fit of fold j's training part from the other blocks' factors; predictions of its rows.
 void fit_fold(const Problem& pr, const Transform& t, const std::vector<Block>& blocks,
               const std::vector<std::vector<std::size_t>>& members, std::size_t j, double level,
@@ -292,7 +276,7 @@ FixedFoldResult crossval_fixed(const double* y, const double* X, std::size_t n, 
   }
   for (std::size_t j = 0; j < kk; ++j)
     require(!members[j].empty(), "fold " + std::to_string(j + 1) + " has no rows");
-  if (opt.weights) check_fixed_weights(opt.weights, n);
+  if (opt.weights) require_model_weights(opt.weights, n);
 
   const Transform t = response ? *response : Transform();
   Problem pr{fold, X, n, p, c0, c, opt.weights, std::vector<double>(n), std::vector<char>(n, 1),

@@ -13,23 +13,6 @@ namespace powerback {
 namespace {
 constexpr double kLog2Pi = 1.837877066409345483560659472811235279;
 
-// Rows of negative or non-finite weights: IndexedError(Domain) naming them.
-void check_weights(const double* w, std::size_t n) {
-  std::vector<std::size_t> bad;
-  std::size_t count = 0;
-  for (std::size_t i = 0; i < n; ++i) {
-    if (std::isfinite(w[i]) && w[i] >= 0.0) continue;
-    if (bad.size() < kMaxReportedIndices) bad.push_back(i);
-    ++count;
-  }
-  if (count)
-    throw IndexedError(ErrorCode::Domain,
-                       "weights must be finite and >= 0; " + std::to_string(count) +
-                           " weights are negative or not finite, at rows " +
-                           format_indices(bad, count) + " (0-based): fix or drop those rows",
-                       count, bad);
-}
-
 // The predictors of X: X itself, or the columns after its intercept column when X is a borrowed
 // full design with one (whose first column must then be all ones).
 const double* predictors_of(const double* X, std::size_t n, bool intercept, bool borrowed) {
@@ -52,7 +35,7 @@ LeastSquares factor_design(const double* X, std::size_t n, std::size_t p, bool i
   require(n > 0, "the design has no rows");
   X = predictors_of(X, n, intercept, borrowed);
   require(X != nullptr || p == 0, "the predictor matrix is NULL");
-  check_weights(w, n);
+  require_model_weights(w, n);
   for (std::size_t j = 0; j < p; ++j)
     for (std::size_t i = 0; i < n; ++i)
       if (!std::isfinite(X[j * n + i]))

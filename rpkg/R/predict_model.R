@@ -140,12 +140,10 @@ predict.pwb_model <- function(object, newdata, se.fit = FALSE,
   bad <- integer()
   if (missing(newdata) || is.null(newdata)) {
     Xnew <- NULL
-    row_names <- NULL
   } else {
     nd <- pwb_prepare_newdata(object, newdata, invalid)
     bad <- nd$invalid_rows
     Xnew <- nd$X
-    row_names <- row.names(newdata)
   }
   handle <- pwb_handle(object)
   codes <- list(match(interval, c("none", "confidence", "prediction")) - 1L,
@@ -177,19 +175,33 @@ predict.pwb_model <- function(object, newdata, se.fit = FALSE,
   se <- res$se
   if (center == "mean" && mean_method == "normal" && type == "response")
     out$cut_mass <- res$cut_mass
-  if (is.null(row_names)) {
+  if (is.null(Xnew)) {
     if (inherits(object$na.action, "exclude")) {
       out <- pwb_pad_excluded(out, object$na.action)
       if (se.fit) se <- stats::napredict(object$na.action, se)
     } else {
-      row.names(out) <- row.names(object$frame)
+      out <- pwb_copy_row_names(out, object$frame)
     }
   } else {
-    row.names(out) <- row_names
+    out <- pwb_copy_row_names(out, newdata)
   }
   if (!se.fit) return(out)
   names(se) <- row.names(out)
   list(fit = out, se.fit = se, df = object$df_residual, residual.scale = object$sigma)
+}
+
+# `out` with the row names of `from` (a data frame of as many rows, or anything row.names()
+# reads). A data frame's row names are unique already, so they are copied as stored (automatic
+# ones stay compact) instead of going through `row.names<-`, whose duplicate check on 1e5
+# strings cost more than the prediction itself.
+pwb_copy_row_names <- function(out, from) {
+  if (is.data.frame(from) && .row_names_info(from, 2L) == nrow(out)) {
+    attr(out, "row.names") <- .row_names_info(from, 0L)
+    return(out)
+  }
+  rn <- row.names(from)
+  if (!is.null(rn)) row.names(out) <- rn
+  out
 }
 
 # Rows of `df` placed back among the excluded ones (as na.exclude does for residuals).

@@ -55,6 +55,10 @@ class IndexedError : public Error {
 std::string format_indices(const std::vector<std::size_t>& first, std::size_t count,
                            std::size_t base = 0);
 
+// Throws IndexedError(Domain) naming the rows (0-based) whose weight is negative or not finite,
+// with the remedy; the check shared by the model fits on whole data.
+void require_model_weights(const double* w, std::size_t n);
+
 // Throws Error(Argument, message) unless cond holds.
 inline void require(bool cond, const std::string& message) {
   if (!cond) throw Error(ErrorCode::Argument, message);

@@ -117,3 +117,21 @@ test_that("simulation: 95% prediction intervals cover 95% of fresh draws", {
     expect_lt(abs(mean(hits) - 0.95), 0.015)
   }
 })
+
+test_that("predictions carry the caller's row names, as predict.lm's do", {
+  # datasets::trees; base R predict.lm names its predictions by newdata's row names.
+  m <- lm_transformed(Volume ~ log(Girth) + log(Height), trees, response = new_transform("log"))
+  l <- lm(log(Volume) ~ log(Girth) + log(Height), trees)
+  nd <- trees[c(5, 2, 30), ]
+  p <- predict(m, nd, interval = "prediction")
+  expect_identical(row.names(p), c("5", "2", "30"))
+  expect_identical(row.names(p), names(predict(l, nd)))
+  row.names(nd) <- c("oak", "elm", "ash")
+  expect_identical(row.names(predict(m, nd)), c("oak", "elm", "ash"))
+  # Automatic row names stay automatic (.row_names_info() negative: compact 1..n).
+  nd2 <- data.frame(Girth = c(10, 12), Height = c(70, 80))
+  expect_identical(.row_names_info(predict(m, nd2)), -2L)
+  expect_identical(row.names(predict(m, nd2)), c("1", "2"))
+  # Training rows: the frame's names.
+  expect_identical(row.names(predict(m)), row.names(trees))
+})
