@@ -266,6 +266,11 @@ FixedFoldResult crossval_fixed(const double* y, const double* X, std::size_t n, 
           "level must lie strictly between 0 and 1 (e.g. 0.95), not " + format_number(opt.level));
   const std::size_t c0 = opt.intercept ? 1 : 0, c = p + c0;
   require(c > 0, "the design has no columns");
+  // Every fold needs a row: more folds than rows is an error before any per-fold allocation.
+  require(static_cast<std::size_t>(k) <= n,
+          std::to_string(k) + " folds for " + std::to_string(n) +
+              " rows: every fold needs at least one row, so use at most " + std::to_string(n) +
+              " folds");
   const std::size_t kk = static_cast<std::size_t>(k);
   std::vector<std::vector<std::size_t>> members(kk);
   for (std::size_t i = 0; i < n; ++i) {

@@ -191,6 +191,12 @@ TEST_CASE("fold fit arguments are checked", "[crossval][fixed]") {
   for (auto& f : fold) f = 1;
   CHECK_THROWS_WITH(crossval_fixed(d.y.data(), d.X.data(), d.n, d.p, nullptr, fold.data(), 2),
                     Contains("fold 2 has no rows"));
+  // More folds than rows fails before anything is allocated per fold (a fold count near
+  // INT_MAX once asked for gigabytes).
+  fold = make_folds(d.n, 2, 1, 1);
+  CHECK_THROWS_WITH(crossval_fixed(d.y.data(), d.X.data(), d.n, d.p, nullptr, fold.data(),
+                                   2021161080),
+                    Contains("at most 10 folds"));
   fold = make_folds(d.n, 2, 1, 1);
   std::vector<double> w(d.n, 1.0);
   w[4] = -1;
