@@ -63,14 +63,7 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
     for (std::size_t i = 0; i < n; ++i)
       fold[i] = in.byte() < 240 ? 1 + static_cast<int>(i % (folds > 0 && folds < 6 ? folds : 1))
                                 : in.any_int();
-    pwb_transform* t = nullptr;
-    if (in.byte() & 1) {
-      pwb_transform_spec s;
-      pwb_transform_spec_init(&s);
-      pwbfuzz::set_enum(s.family, in.family_code());
-      s.lambda = in.value();
-      if (pwb_transform_new(&s, &t) != PWB_OK) t = nullptr;
-    }
+    pwb_transform* t = pwbfuzz::maybe_transform(in);
     pwb_cv_fixed_options opt;
     pwb_cv_fixed_options_init(&opt);
     opt.intercept = in.byte() < 200 ? 1 : 0;

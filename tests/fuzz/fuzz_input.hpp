@@ -89,4 +89,18 @@ void set_enum(E& field, int code) {
   std::memcpy(&field, &code, sizeof code);
 }
 
+// A response transform from the input, or NULL (none, or a spec the library refused): one
+// byte says whether, then a family code (any int) and a power. The caller frees it.
+inline pwb_transform* maybe_transform(Input& in) {
+  pwb_transform* t = nullptr;
+  if (in.byte() & 1) {
+    pwb_transform_spec s;
+    pwb_transform_spec_init(&s);
+    set_enum(s.family, in.family_code());
+    s.lambda = in.value();
+    if (pwb_transform_new(&s, &t) != PWB_OK) t = nullptr;
+  }
+  return t;
+}
+
 }  // namespace pwbfuzz

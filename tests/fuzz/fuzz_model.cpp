@@ -17,14 +17,7 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
   pwbfuzz::Input in(data, size);
   const std::size_t n = in.size(40), p = in.size(3);
   const std::vector<double> y = in.values(n), X = in.values(n * p);
-  pwb_transform* t = nullptr;
-  if (in.byte() & 1) {
-    pwb_transform_spec s;
-    pwb_transform_spec_init(&s);
-    pwbfuzz::set_enum(s.family, in.family_code());
-    s.lambda = in.value();
-    if (pwb_transform_new(&s, &t) != PWB_OK) t = nullptr;
-  }
+  pwb_transform* t = pwbfuzz::maybe_transform(in);
   pwb_model_options mo;
   pwb_model_options_init(&mo);
   mo.intercept = in.byte() < 200 ? 1 : 0;
