@@ -128,9 +128,7 @@ predict.pwb_chunked_fit <- function(object, newdata, interval = c("none", "confi
     lwr <- pmin(a, b)
     upr <- pmax(a, b)
   }
-  out <- data.frame(fit = fit, lwr = lwr, upr = upr)
-  rownames(out) <- rownames(newdata)
-  out
+  pwb_copy_row_names(data.frame(fit = fit, lwr = lwr, upr = upr), newdata)  # predict_model.R
 }
 
 pwb_chunked_mean <- function(object, eta, mean_method) {

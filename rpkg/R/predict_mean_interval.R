@@ -40,7 +40,7 @@ pwb_predict_mean_interval <- function(object, newdata, level, type, mean_method,
       out <- pwb_pad_excluded(out, object$na.action)
       se <- stats::napredict(object$na.action, se)
     } else {
-      row.names(out) <- row.names(nd)
+      out <- pwb_copy_row_names(out, nd)  # predict_model.R
     }
     names(se) <- row.names(out)
   } else {
